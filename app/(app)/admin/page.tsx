@@ -1,0 +1,71 @@
+import type { Metadata } from "next";
+import { Card, PageHeader } from "@/components/ui/card";
+import { listUsers } from "@/db/queries/users";
+import { requirePagePermission } from "@/lib/auth/page";
+import { ROLE_LABELS } from "@/lib/auth/permissions";
+import { formatDateTime } from "@/lib/format/numbers";
+import { AdminTabs } from "./admin-tabs";
+import { InviteForm } from "./invite-form";
+import { UserRowActions } from "./user-row-actions";
+
+export const metadata: Metadata = { title: "Admin" };
+
+function StatusText({ active, activated }: { active: boolean; activated: boolean }) {
+  if (!active) return <span className="text-sev-critical">● Deactivated</span>;
+  if (!activated) return <span className="text-sev-moderate">◌ Invited</span>;
+  return <span className="text-ok">● Active</span>;
+}
+
+export default async function AdminPage() {
+  const { user } = await requirePagePermission("users.manage");
+  const people = listUsers();
+  const pending = people.filter((p) => p.active && !p.hasPassword).length;
+  return (
+    <div>
+      <PageHeader
+        title="Administration"
+        description={`${people.length} accounts${pending ? `, ${pending} invitation${pending === 1 ? "" : "s"} not yet accepted` : ""}. Roles decide what each person may see and change; the server checks them on every request.`}
+      />
+      <AdminTabs current="users" />
+      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_340px]">
+        <Card title={`People (${people.length})`}>
+          <div className="-mx-4 -my-4 overflow-x-auto">
+            <table className="w-full min-w-[720px] text-sm">
+              <thead className="sticky top-0 bg-ink-50">
+                <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
+                  <th scope="col" className="px-4 py-2 font-medium">Name</th>
+                  <th scope="col" className="px-4 py-2 font-medium">Role</th>
+                  <th scope="col" className="px-4 py-2 font-medium">Status</th>
+                  <th scope="col" className="px-4 py-2 font-medium">Last sign-in</th>
+                  <th scope="col" className="px-4 py-2 font-medium">Change</th>
+                </tr>
+              </thead>
+              <tbody>
+                {people.map((person) => (
+                  <tr key={person.id} className="border-b border-ink-100 align-top last:border-0">
+                    <td className="px-4 py-3">
+                      <p className="font-medium text-ink-900">{person.name}</p>
+                      <p className="text-xs text-ink-600">{person.email}</p>
+                    </td>
+                    <td className="px-4 py-3 text-ink-800">{ROLE_LABELS[person.role]}</td>
+                    <td className="px-4 py-3 text-xs font-medium">
+                      <StatusText active={person.active} activated={person.hasPassword} />
+                    </td>
+                    <td className="tabular px-4 py-3 text-xs text-ink-600">{person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}</td>
+                    <td className="px-4 py-3">
+                      <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} />
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </Card>
+        <Card title="Invite a person">
+          <p className="mb-4 text-sm text-ink-600">They receive a link by e-mail, valid for seven days, to choose a password.</p>
+          <InviteForm />
+        </Card>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,54 @@
+"use client";
+import { useActionState } from "react";
+import { Button } from "@/components/ui/button";
+import { inputClass } from "@/components/ui/field";
+import type { Role } from "@/lib/auth/roles";
+import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
+import { changeRoleAction, setActiveAction } from "./actions";
+
+/** Role change and (de)activation for one user row; each answers under the row. */
+export function UserRowActions({ userId, name, role, active, isSelf }: { userId: number; name: string; role: Role; active: boolean; isSelf: boolean }) {
+  const [roleState, changeRole, rolePending] = useActionState(changeRoleAction, undefined);
+  const [activeState, toggleActive, activePending] = useActionState(setActiveAction, undefined);
+  if (isSelf) return <span className="text-xs text-ink-500">This is you</span>;
+  const message = [roleState, activeState].find((s) => s?.error || s?.message);
+  const errorText = message?.error ? Object.values(message.error).flat().join(" ") : undefined;
+  return (
+    <div className="space-y-1.5">
+      <div className="flex flex-wrap items-center gap-2">
+        <form action={changeRole} className="flex items-center gap-2">
+          <input type="hidden" name="userId" value={userId} />
+          <label className="sr-only" htmlFor={`role-${userId}`}>
+            Role of {name}
+          </label>
+          <select id={`role-${userId}`} name="role" defaultValue={role} className={`${inputClass} h-8 w-40 py-0`}>
+            {ROLES.map((r) => (
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
+            ))}
+          </select>
+          <Button type="submit" size="sm" variant="secondary" disabled={rolePending} aria-label={`Save role of ${name}`}>
+            Save
+          </Button>
+        </form>
+        <form action={toggleActive}>
+          <input type="hidden" name="userId" value={userId} />
+          <input type="hidden" name="active" value={active ? "false" : "true"} />
+          <Button type="submit" size="sm" variant={active ? "danger" : "secondary"} disabled={activePending} aria-label={`${active ? "Deactivate" : "Reactivate"} ${name}`}>
+            {active ? "Deactivate" : "Reactivate"}
+          </Button>
+        </form>
+      </div>
+      {errorText ? (
+        <p role="alert" className="text-xs text-sev-critical">
+          {errorText}
+        </p>
+      ) : message?.message ? (
+        <p role="status" className="text-xs text-ok">
+          {message.message}
+        </p>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,166 @@
+import { Thermometer } from "lucide-react";
+import type { Metadata } from "next";
+import Link from "next/link";
+import { Caution } from "@/components/ui/caution";
+import { Card, PageHeader } from "@/components/ui/card";
+import { SEVERITY_STYLE } from "@/components/ui/severity";
+import { overviewCounts, recentAuditEvents, sitesWithRoomCounts } from "@/db/queries/overview";
+import { SEVERITIES } from "@/db/schema";
+import { requirePagePermission } from "@/lib/auth/page";
+import { can } from "@/lib/auth/permissions";
+import { formatCount, formatDateTime, formatQuantity } from "@/lib/format/numbers";
+
+export const metadata: Metadata = { title: "Overview" };
+
+function Stat({ label, value, href, note }: { label: string; value: number; href?: string; note?: string }) {
+  const body = (
+    <>
+      <dt className="text-xs font-medium uppercase tracking-wide text-ink-600">{label}</dt>
+      <dd className="tabular mt-1 text-2xl font-semibold text-ink-950">{formatCount(value)}</dd>
+      {note ? <dd className="mt-0.5 text-xs text-ink-600">{note}</dd> : null}
+    </>
+  );
+  return (
+    <div className="rounded-lg border border-ink-200 bg-white px-4 py-3">
+      {href ? (
+        <Link href={href} className="block hover:opacity-80">
+          {body}
+        </Link>
+      ) : (
+        body
+      )}
+    </div>
+  );
+}
+
+export default async function OverviewPage() {
+  const { user } = await requirePagePermission("overview.read");
+  const counts = await overviewCounts(user.id);
+  const totalOpen = SEVERITIES.reduce((sum, s) => sum + counts.openFindings[s], 0);
+  const urgent = counts.openFindings.critical + counts.openFindings.high;
+  const showAudit = can(user.role, "audit.read");
+  const events = showAudit ? recentAuditEvents() : [];
+  const siteRows = sitesWithRoomCounts();
+
+  let headline: string;
+  if (urgent > 0) headline = `${formatCount(urgent)} critical or high finding${urgent === 1 ? "" : "s"} need attention.`;
+  else if (counts.openExcursions > 0) headline = `${formatCount(counts.openExcursions)} temperature excursion${counts.openExcursions === 1 ? " is" : "s are"} still open.`;
+  else if (totalOpen > 0) headline = `No critical or high findings; ${formatCount(totalOpen)} lower-severity finding${totalOpen === 1 ? " is" : "s are"} open.`;
+  else headline = "Nothing in the register needs attention right now.";
+
+  return (
+    <div className="space-y-6">
+      <PageHeader title={`Good to see you, ${user.name.split(" ")[0]}`} description={headline} />
+
+      <section aria-labelledby="attention-heading">
+        <h2 id="attention-heading" className="mb-3 text-sm font-semibold text-ink-800">
+          Needs attention
+        </h2>
+        <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-5">
+          {SEVERITIES.map((severity) => {
+            const style = SEVERITY_STYLE[severity];
+            const Icon = style.icon;
+            const n = counts.openFindings[severity];
+            return (
+              <Link
+                key={severity}
+                href={`/register?severity=${severity}`}
+                className={`rounded-lg border bg-white px-4 py-3 hover:shadow-sm ${n > 0 ? style.border : "border-ink-200"}`}
+              >
+                <span className={`flex items-center gap-1.5 text-xs font-semibold uppercase tracking-wide ${style.text}`}>
+                  <Icon aria-hidden="true" className="size-4" strokeWidth={2.25} />
+                  {style.label}
+                </span>
+                <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(n)}</span>
+                <span className="block text-xs text-ink-600">open finding{n === 1 ? "" : "s"}</span>
+              </Link>
+            );
+          })}
+          <div className={`rounded-lg border bg-white px-4 py-3 ${counts.openExcursions > 0 ? "border-sev-high/40" : "border-ink-200"}`}>
+            <span className="flex items-center gap-1.5 text-xs font-semibold uppercase tracking-wide text-ink-700">
+              <Thermometer aria-hidden="true" className="size-4" />
+              Excursions
+            </span>
+            <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(counts.openExcursions)}</span>
+            <span className="block text-xs text-ink-600">
+              open · {formatCount(counts.unacknowledgedExcursions)} not acknowledged
+            </span>
+          </div>
+        </div>
+      </section>
+
+      <div className="grid gap-6 lg:grid-cols-3">
+        <div className="space-y-6 lg:col-span-2">
+          <Card title="What Headroom keeps">
+            <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+              <Stat label="Sites" value={counts.sites} href="/locations" />
+              <Stat label="Rooms" value={counts.rooms} href="/locations" />
+              <Stat label="Storage units" value={counts.storageUnits} href="/locations" />
+              <Stat
+                label="Containers"
+                value={counts.containers}
+                href="/inventory"
+                note={user.role === "researcher" ? `${formatCount(counts.myContainers)} of them yours` : "not counting disposed"}
+              />
+              <Stat label="Substances" value={counts.substances} href="/substances" />
+              <Stat label="Sensors" value={counts.sensors} href={can(user.role, "temperatures.read") ? "/temperatures" : undefined} />
+            </dl>
+          </Card>
+
+          <Card title="Sites">
+            <table className="w-full text-sm">
+              <thead>
+                <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
+                  <th scope="col" className="py-2 font-medium">Site</th>
+                  <th scope="col" className="py-2 text-right font-medium">Rooms</th>
+                  <th scope="col" className="py-2 text-right font-medium">Atmospheric pressure</th>
+                </tr>
+              </thead>
+              <tbody className="tabular">
+                {siteRows.map((site) => (
+                  <tr key={site.id} className="border-b border-ink-100 last:border-0">
+                    <td className="py-2 font-medium text-ink-900">{site.name}</td>
+                    <td className="py-2 text-right">{formatCount(site.rooms)}</td>
+                    <td className="py-2 text-right">{formatQuantity(site.atmosphericPressureKPa, "kPa", 4)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </Card>
+        </div>
+
+        <div className="space-y-6">
+          {showAudit ? (
+            <Card title="Recent activity">
+              {events.length === 0 ? (
+                <p className="text-sm text-ink-600">No activity recorded yet.</p>
+              ) : (
+                <ol className="space-y-3">
+                  {events.map((event) => (
+                    <li key={event.id} className="text-sm">
+                      <p className="text-ink-900">{event.summary}</p>
+                      <p className="tabular text-xs text-ink-500">
+                        {formatDateTime(event.at)} · {event.actorLabel}
+                      </p>
+                    </li>
+                  ))}
+                </ol>
+              )}
+            </Card>
+          ) : null}
+          {can(user.role, "mail.view") && counts.queuedEmails > 0 ? (
+            <Card title="E-mail">
+              <p className="text-sm text-ink-700">
+                {formatCount(counts.queuedEmails)} message{counts.queuedEmails === 1 ? " is" : "s are"} waiting to be sent.{" "}
+                <Link href="/admin/mail" className="text-accent-700 hover:underline">
+                  See the outbox
+                </Link>
+              </p>
+            </Card>
+          ) : null}
+          <Caution />
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,716 @@
+/**
+ * Headroom's data model. Timestamps are integers in unix epoch milliseconds (`timestamp_ms`).
+ * Every foreign key has an index and an explicit onDelete. Findings are never deleted, so the
+ * locations they point at are retired rather than deleted (onDelete "restrict" guards that).
+ */
+import { sql } from "drizzle-orm";
+import {
+  check,
+  index,
+  integer,
+  primaryKey,
+  real,
+  sqliteTable,
+  text,
+  uniqueIndex,
+  type AnySQLiteColumn,
+} from "drizzle-orm/sqlite-core";
+
+const nowMs = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
+
+const createdAt = () => integer("created_at", { mode: "timestamp_ms" }).notNull().default(nowMs);
+const updatedAt = () => integer("updated_at", { mode: "timestamp_ms" }).notNull().default(nowMs);
+
+import { ROLES, type Role } from "../lib/auth/roles";
+
+export { ROLES, type Role };
+
+export const ALERT_DELIVERIES = ["immediate", "digest", "off"] as const;
+export type AlertDelivery = (typeof ALERT_DELIVERIES)[number];
+
+// ---------------------------------------------------------------------------------------------
+// People, sign-in and access
+// ---------------------------------------------------------------------------------------------
+
+export const users = sqliteTable(
+  "users",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    email: text("email").notNull(),
+    name: text("name").notNull(),
+    role: text("role", { enum: ROLES }).notNull(),
+    /** Null until an invited user sets a password. */
+    passwordHash: text("password_hash"),
+    active: integer("active", { mode: "boolean" }).notNull().default(true),
+    /** Bumped on password change or deactivation; sessions carrying an older value are void. */
+    sessionVersion: integer("session_version").notNull().default(1),
+    alertFindings: text("alert_findings", { enum: ALERT_DELIVERIES }).notNull().default("immediate"),
+    alertExcursions: text("alert_excursions", { enum: ALERT_DELIVERIES }).notNull().default("immediate"),
+    dailyDigest: integer("daily_digest", { mode: "boolean" }).notNull().default(true),
+    lastSignInAt: integer("last_sign_in_at", { mode: "timestamp_ms" }),
+    invitedById: integer("invited_by_id").references((): AnySQLiteColumn => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("users_email_unique").on(t.email), index("users_invited_by_idx").on(t.invitedById)],
+);
+export type User = typeof users.$inferSelect;
+export type NewUser = typeof users.$inferInsert;
+
+export const USER_TOKEN_KINDS = ["invitation", "password_reset"] as const;
+export type UserTokenKind = (typeof USER_TOKEN_KINDS)[number];
+
+/** Single-use links (invitations, password resets). Only a SHA-256 of the token is stored. */
+export const userTokens = sqliteTable(
+  "user_tokens",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    userId: integer("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: USER_TOKEN_KINDS }).notNull(),
+    tokenHash: text("token_hash").notNull(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    usedAt: integer("used_at", { mode: "timestamp_ms" }),
+    createdById: integer("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("user_tokens_hash_unique").on(t.tokenHash),
+    index("user_tokens_user_idx").on(t.userId),
+    index("user_tokens_created_by_idx").on(t.createdById),
+  ],
+);
+export type UserToken = typeof userTokens.$inferSelect;
+
+/** Failed sign-ins per normalised e-mail address (known or not), for the lock-out. */
+export const signInThrottles = sqliteTable("sign_in_throttles", {
+  key: text("key").primaryKey(),
+  failureCount: integer("failure_count").notNull().default(0),
+  firstFailureAt: integer("first_failure_at", { mode: "timestamp_ms" }).notNull(),
+  lockedUntil: integer("locked_until", { mode: "timestamp_ms" }),
+});
+
+export const apiKeys = sqliteTable(
+  "api_keys",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    name: text("name").notNull(),
+    /** First characters of the key, shown to tell keys apart; the key itself is never stored. */
+    prefix: text("prefix").notNull(),
+    keyHash: text("key_hash").notNull(),
+    scopes: text("scopes", { mode: "json" }).$type<string[]>().notNull(),
+    createdById: integer("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    lastUsedAt: integer("last_used_at", { mode: "timestamp_ms" }),
+    revokedAt: integer("revoked_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [uniqueIndex("api_keys_hash_unique").on(t.keyHash), index("api_keys_created_by_idx").on(t.createdById)],
+);
+export type ApiKey = typeof apiKeys.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// Locations
+// ---------------------------------------------------------------------------------------------
+
+export const sites = sqliteTable(
+  "sites",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    name: text("name").notNull(),
+    address: text("address"),
+    elevationM: real("elevation_m"),
+    /** Local atmospheric pressure used for equilibrium concentrations. */
+    atmosphericPressureKPa: real("atmospheric_pressure_kpa").notNull().default(101.325),
+    retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("sites_name_unique").on(t.name)],
+);
+export type Site = typeof sites.$inferSelect;
+export type NewSite = typeof sites.$inferInsert;
+
+export const ROOM_KINDS = ["storeroom", "laboratory", "cold_room", "corridor", "other"] as const;
+export type RoomKind = (typeof ROOM_KINDS)[number];
+
+export const rooms = sqliteTable(
+  "rooms",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    siteId: integer("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "restrict" }),
+    code: text("code").notNull(),
+    name: text("name").notNull(),
+    kind: text("kind", { enum: ROOM_KINDS }).notNull().default("laboratory"),
+    floorAreaM2: real("floor_area_m2"),
+    heightM: real("height_m"),
+    airChangesPerHour: real("air_changes_per_hour"),
+    /** Well-mixed room model mixing factor k (0 < k ≤ 1). */
+    mixingFactor: real("mixing_factor").notNull().default(0.5),
+    designMaxTempC: real("design_max_temp_c"),
+    sprinklered: integer("sprinklered", { mode: "boolean" }).notNull().default(false),
+    /** Walk-in cold rooms have a set range. */
+    setMinC: real("set_min_c"),
+    setMaxC: real("set_max_c"),
+    excursionThresholdC: real("excursion_threshold_c"),
+    excursionMinDurationMin: integer("excursion_min_duration_min"),
+    facilitiesContactId: integer("facilities_contact_id").references(() => users.id, { onDelete: "set null" }),
+    notes: text("notes"),
+    retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("rooms_site_code_unique").on(t.siteId, t.code),
+    index("rooms_site_idx").on(t.siteId),
+    index("rooms_facilities_contact_idx").on(t.facilitiesContactId),
+    check("rooms_mixing_factor_range", sql`${t.mixingFactor} > 0 and ${t.mixingFactor} <= 1`),
+  ],
+);
+export type Room = typeof rooms.$inferSelect;
+export type NewRoom = typeof rooms.$inferInsert;
+
+export const STORAGE_UNIT_KINDS = [
+  "open_shelving",
+  "flammable_cabinet",
+  "corrosives_cabinet",
+  "ventilated_cabinet",
+  "domestic_refrigerator",
+  "flammable_storage_refrigerator",
+  "explosion_proof_refrigerator",
+  "freezer_minus_20",
+  "freezer_minus_80",
+  "cryogen_area",
+  "fume_hood",
+  "other",
+] as const;
+export type StorageUnitKind = (typeof STORAGE_UNIT_KINDS)[number];
+
+export const storageUnits = sqliteTable(
+  "storage_units",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    roomId: integer("room_id")
+      .notNull()
+      .references(() => rooms.id, { onDelete: "restrict" }),
+    code: text("code").notNull(),
+    name: text("name").notNull(),
+    kind: text("kind", { enum: STORAGE_UNIT_KINDS }).notNull(),
+    internalVolumeL: real("internal_volume_l"),
+    setMinC: real("set_min_c"),
+    setMaxC: real("set_max_c"),
+    excursionThresholdC: real("excursion_threshold_c"),
+    excursionMinDurationMin: integer("excursion_min_duration_min"),
+    ventilated: integer("ventilated", { mode: "boolean" }).notNull().default(false),
+    ignitionSourceFree: integer("ignition_source_free", { mode: "boolean" }).notNull().default(false),
+    ownerId: integer("owner_id").references(() => users.id, { onDelete: "set null" }),
+    notes: text("notes"),
+    retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("storage_units_room_code_unique").on(t.roomId, t.code),
+    index("storage_units_room_idx").on(t.roomId),
+    index("storage_units_owner_idx").on(t.ownerId),
+  ],
+);
+export type StorageUnit = typeof storageUnits.$inferSelect;
+export type NewStorageUnit = typeof storageUnits.$inferInsert;
+
+// ---------------------------------------------------------------------------------------------
+// Files (safety data sheets)
+// ---------------------------------------------------------------------------------------------
+
+export const files = sqliteTable(
+  "files",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    /** Generated name under the upload directory; never the user's file name. */
+    storedName: text("stored_name").notNull(),
+    originalName: text("original_name").notNull(),
+    contentType: text("content_type").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    sha256: text("sha256").notNull(),
+    uploadedById: integer("uploaded_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("files_stored_name_unique").on(t.storedName), index("files_uploaded_by_idx").on(t.uploadedById)],
+);
+export type StoredFile = typeof files.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// Substances and mixtures
+// ---------------------------------------------------------------------------------------------
+
+export const PHYSICAL_STATES = ["liquid", "solid", "cryogen", "gas"] as const;
+
+/** Stored form of a vapor-pressure correlation (mirrors lib/hazard's VaporPressureCorrelation). */
+export type StoredCorrelation = Record<string, unknown> & { kind: string; tMinC: number; tMaxC: number; source?: string };
+
+export const substances = sqliteTable(
+  "substances",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    cas: text("cas"),
+    name: text("name").notNull(),
+    synonyms: text("synonyms", { mode: "json" }).$type<string[]>().notNull().default(sql`'[]'`),
+    formula: text("formula"),
+    physicalState: text("physical_state", { enum: PHYSICAL_STATES }).notNull().default("liquid"),
+    molarMassGPerMol: real("molar_mass_g_per_mol").notNull(),
+    normalBoilingPointC: real("normal_boiling_point_c"),
+    meltingPointC: real("melting_point_c"),
+    enthalpyOfVaporizationKJPerMol: real("enthalpy_of_vaporization_kj_per_mol"),
+    enthalpyOfSublimationKJPerMol: real("enthalpy_of_sublimation_kj_per_mol"),
+    liquidDensityKgPerM3: real("liquid_density_kg_per_m3"),
+    flashPointC: real("flash_point_c"),
+    lflVolPercent: real("lfl_vol_percent"),
+    uflVolPercent: real("ufl_vol_percent"),
+    autoignitionTempC: real("autoignition_temp_c"),
+    correlations: text("correlations", { mode: "json" }).$type<StoredCorrelation[]>().notNull().default(sql`'[]'`),
+    /** Source of every value: field name → citation. */
+    sources: text("sources", { mode: "json" }).$type<Record<string, string>>().notNull().default(sql`'{}'`),
+    notes: text("notes"),
+    sdsFileId: integer("sds_file_id").references(() => files.id, { onDelete: "set null" }),
+    retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+    updatedById: integer("updated_by_id").references(() => users.id, { onDelete: "set null" }),
+  },
+  (t) => [
+    uniqueIndex("substances_cas_unique").on(t.cas),
+    index("substances_name_idx").on(t.name),
+    index("substances_sds_file_idx").on(t.sdsFileId),
+    index("substances_updated_by_idx").on(t.updatedById),
+    check("substances_molar_mass_positive", sql`${t.molarMassGPerMol} > 0`),
+  ],
+);
+export type Substance = typeof substances.$inferSelect;
+export type NewSubstance = typeof substances.$inferInsert;
+
+export const EXPOSURE_LIMIT_KINDS = ["TWA", "STEL", "ceiling", "IDLH"] as const;
+export const EXPOSURE_LIMIT_UNITS = ["ppm", "mg/m3"] as const;
+
+export const exposureLimits = sqliteTable(
+  "exposure_limits",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    substanceId: integer("substance_id")
+      .notNull()
+      .references(() => substances.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: EXPOSURE_LIMIT_KINDS }).notNull(),
+    value: real("value").notNull(),
+    unit: text("unit", { enum: EXPOSURE_LIMIT_UNITS }).notNull(),
+    /** Issuing body, e.g. OSHA, NIOSH, or the organisation itself. */
+    body: text("body").notNull(),
+    source: text("source").notNull(),
+  },
+  (t) => [index("exposure_limits_substance_idx").on(t.substanceId), check("exposure_limits_value_positive", sql`${t.value} > 0`)],
+);
+export type ExposureLimit = typeof exposureLimits.$inferSelect;
+
+export const FRACTION_BASES = ["mass", "mole"] as const;
+
+export const mixtures = sqliteTable(
+  "mixtures",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    name: text("name").notNull(),
+    description: text("description"),
+    fractionBasis: text("fraction_basis", { enum: FRACTION_BASES }).notNull(),
+    createdById: integer("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("mixtures_name_unique").on(t.name), index("mixtures_created_by_idx").on(t.createdById)],
+);
+export type Mixture = typeof mixtures.$inferSelect;
+
+export const mixtureComponents = sqliteTable(
+  "mixture_components",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    mixtureId: integer("mixture_id")
+      .notNull()
+      .references(() => mixtures.id, { onDelete: "cascade" }),
+    substanceId: integer("substance_id")
+      .notNull()
+      .references(() => substances.id, { onDelete: "restrict" }),
+    fraction: real("fraction").notNull(),
+  },
+  (t) => [
+    uniqueIndex("mixture_components_unique").on(t.mixtureId, t.substanceId),
+    index("mixture_components_substance_idx").on(t.substanceId),
+    check("mixture_components_fraction_range", sql`${t.fraction} > 0 and ${t.fraction} <= 1`),
+  ],
+);
+export type MixtureComponent = typeof mixtureComponents.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// Containers
+// ---------------------------------------------------------------------------------------------
+
+export const AMOUNT_UNITS = ["mL", "L", "g", "kg"] as const;
+export type AmountUnit = (typeof AMOUNT_UNITS)[number];
+export const CONTAINER_KINDS = [
+  "glass_bottle",
+  "plastic_bottle",
+  "metal_can",
+  "safety_can",
+  "carboy",
+  "drum",
+  "ampoule",
+  "vial",
+  "dewar",
+  "gas_cylinder",
+  "bag",
+  "other",
+] as const;
+export const CONTAINER_STATES = ["sealed", "opened", "in_use", "empty", "disposed"] as const;
+export type ContainerState = (typeof CONTAINER_STATES)[number];
+
+export const containers = sqliteTable(
+  "containers",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    /** Label or barcode; the key for re-imports. */
+    label: text("label").notNull(),
+    substanceId: integer("substance_id").references(() => substances.id, { onDelete: "restrict" }),
+    mixtureId: integer("mixture_id").references(() => mixtures.id, { onDelete: "restrict" }),
+    amount: real("amount").notNull(),
+    amountUnit: text("amount_unit", { enum: AMOUNT_UNITS }).notNull(),
+    capacity: real("capacity"),
+    capacityUnit: text("capacity_unit", { enum: AMOUNT_UNITS }),
+    containerKind: text("container_kind", { enum: CONTAINER_KINDS }).notNull().default("glass_bottle"),
+    state: text("state", { enum: CONTAINER_STATES }).notNull().default("sealed"),
+    storageUnitId: integer("storage_unit_id")
+      .notNull()
+      .references(() => storageUnits.id, { onDelete: "restrict" }),
+    ownerId: integer("owner_id").references(() => users.id, { onDelete: "set null" }),
+    receivedAt: integer("received_at", { mode: "timestamp_ms" }),
+    openedAt: integer("opened_at", { mode: "timestamp_ms" }),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }),
+    sdsFileId: integer("sds_file_id").references(() => files.id, { onDelete: "set null" }),
+    notes: text("notes"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("containers_label_unique").on(t.label),
+    index("containers_substance_idx").on(t.substanceId),
+    index("containers_mixture_idx").on(t.mixtureId),
+    index("containers_storage_unit_idx").on(t.storageUnitId, t.state),
+    index("containers_owner_idx").on(t.ownerId),
+    index("containers_sds_file_idx").on(t.sdsFileId),
+    check(
+      "containers_one_content",
+      sql`(${t.substanceId} is not null and ${t.mixtureId} is null) or (${t.substanceId} is null and ${t.mixtureId} is not null)`,
+    ),
+    check("containers_amount_non_negative", sql`${t.amount} >= 0`),
+  ],
+);
+export type Container = typeof containers.$inferSelect;
+export type NewContainer = typeof containers.$inferInsert;
+
+export const containerMoves = sqliteTable(
+  "container_moves",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    containerId: integer("container_id")
+      .notNull()
+      .references(() => containers.id, { onDelete: "cascade" }),
+    fromStorageUnitId: integer("from_storage_unit_id").references(() => storageUnits.id, { onDelete: "restrict" }),
+    toStorageUnitId: integer("to_storage_unit_id")
+      .notNull()
+      .references(() => storageUnits.id, { onDelete: "restrict" }),
+    movedById: integer("moved_by_id").references(() => users.id, { onDelete: "set null" }),
+    movedAt: integer("moved_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+  },
+  (t) => [
+    index("container_moves_container_idx").on(t.containerId),
+    index("container_moves_from_idx").on(t.fromStorageUnitId),
+    index("container_moves_to_idx").on(t.toStorageUnitId),
+    index("container_moves_moved_by_idx").on(t.movedById),
+  ],
+);
+
+// ---------------------------------------------------------------------------------------------
+// Temperatures
+// ---------------------------------------------------------------------------------------------
+
+export const sensors = sqliteTable(
+  "sensors",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    /** The logger's own device id, as it appears in uploads and the ingest API. */
+    externalId: text("external_id").notNull(),
+    name: text("name").notNull(),
+    roomId: integer("room_id").references(() => rooms.id, { onDelete: "restrict" }),
+    storageUnitId: integer("storage_unit_id").references(() => storageUnits.id, { onDelete: "restrict" }),
+    /** Remembered CSV column mapping and time zone for uploads from this logger. */
+    csvMapping: text("csv_mapping", { mode: "json" }).$type<Record<string, string>>(),
+    timeZone: text("time_zone"),
+    active: integer("active", { mode: "boolean" }).notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("sensors_external_id_unique").on(t.externalId),
+    index("sensors_room_idx").on(t.roomId),
+    index("sensors_storage_unit_idx").on(t.storageUnitId),
+    check(
+      "sensors_one_location",
+      sql`(${t.roomId} is not null and ${t.storageUnitId} is null) or (${t.roomId} is null and ${t.storageUnitId} is not null)`,
+    ),
+  ],
+);
+export type Sensor = typeof sensors.$inferSelect;
+
+/** One row per sensor and instant: a reading sent twice is stored once. */
+export const readings = sqliteTable(
+  "readings",
+  {
+    sensorId: integer("sensor_id")
+      .notNull()
+      .references(() => sensors.id, { onDelete: "cascade" }),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    tempC: real("temp_c").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.sensorId, t.at] }), index("readings_at_idx").on(t.at)],
+);
+export type Reading = typeof readings.$inferSelect;
+
+export const excursions = sqliteTable(
+  "excursions",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    sensorId: integer("sensor_id")
+      .notNull()
+      .references(() => sensors.id, { onDelete: "cascade" }),
+    roomId: integer("room_id").references(() => rooms.id, { onDelete: "restrict" }),
+    storageUnitId: integer("storage_unit_id").references(() => storageUnits.id, { onDelete: "restrict" }),
+    thresholdC: real("threshold_c").notNull(),
+    startAt: integer("start_at", { mode: "timestamp_ms" }).notNull(),
+    /** Null while the excursion lasts. */
+    endAt: integer("end_at", { mode: "timestamp_ms" }),
+    peakTempC: real("peak_temp_c").notNull(),
+    peakAt: integer("peak_at", { mode: "timestamp_ms" }).notNull(),
+    acknowledgedAt: integer("acknowledged_at", { mode: "timestamp_ms" }),
+    acknowledgedById: integer("acknowledged_by_id").references(() => users.id, { onDelete: "set null" }),
+    acknowledgeComment: text("acknowledge_comment"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("excursions_sensor_start_unique").on(t.sensorId, t.startAt),
+    index("excursions_room_idx").on(t.roomId),
+    index("excursions_storage_unit_idx").on(t.storageUnitId),
+    index("excursions_acknowledged_by_idx").on(t.acknowledgedById),
+    index("excursions_open_idx").on(t.endAt),
+  ],
+);
+export type Excursion = typeof excursions.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// The register
+// ---------------------------------------------------------------------------------------------
+
+export const SEVERITIES = ["critical", "high", "moderate", "low"] as const;
+export type Severity = (typeof SEVERITIES)[number];
+export const FINDING_STATUSES = ["open", "acknowledged", "mitigating", "resolved", "risk_accepted"] as const;
+export type FindingStatus = (typeof FINDING_STATUSES)[number];
+export const SCENARIOS = ["room_worst_case", "in_control", "control_lost", "spill"] as const;
+export type Scenario = (typeof SCENARIOS)[number];
+
+export const findings = sqliteTable(
+  "findings",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    /** rule + location + substance + scenario: re-assessment finds the same row again. */
+    fingerprint: text("fingerprint").notNull(),
+    rule: text("rule").notNull(),
+    severity: text("severity", { enum: SEVERITIES }).notNull(),
+    status: text("status", { enum: FINDING_STATUSES }).notNull().default("open"),
+    scenario: text("scenario", { enum: SCENARIOS }).notNull(),
+    title: text("title").notNull(),
+    siteId: integer("site_id").references(() => sites.id, { onDelete: "restrict" }),
+    roomId: integer("room_id").references(() => rooms.id, { onDelete: "restrict" }),
+    storageUnitId: integer("storage_unit_id").references(() => storageUnits.id, { onDelete: "restrict" }),
+    containerId: integer("container_id").references(() => containers.id, { onDelete: "set null" }),
+    substanceId: integer("substance_id").references(() => substances.id, { onDelete: "restrict" }),
+    mixtureId: integer("mixture_id").references(() => mixtures.id, { onDelete: "restrict" }),
+    value: real("value"),
+    limitValue: real("limit_value"),
+    ratio: real("ratio"),
+    unit: text("unit"),
+    worstCaseTempC: real("worst_case_temp_c"),
+    worstCaseSource: text("worst_case_source"),
+    trace: text("trace", { mode: "json" }).$type<unknown>(),
+    conditionHolds: integer("condition_holds", { mode: "boolean" }).notNull().default(true),
+    assigneeId: integer("assignee_id").references(() => users.id, { onDelete: "set null" }),
+    mitigationPlan: text("mitigation_plan"),
+    riskAcceptedUntil: integer("risk_accepted_until", { mode: "timestamp_ms" }),
+    firstRaisedAt: integer("first_raised_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    lastEvaluatedAt: integer("last_evaluated_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    resolvedAt: integer("resolved_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("findings_fingerprint_unique").on(t.fingerprint),
+    index("findings_status_severity_idx").on(t.status, t.severity),
+    index("findings_site_idx").on(t.siteId),
+    index("findings_room_idx").on(t.roomId),
+    index("findings_storage_unit_idx").on(t.storageUnitId),
+    index("findings_container_idx").on(t.containerId),
+    index("findings_substance_idx").on(t.substanceId),
+    index("findings_mixture_idx").on(t.mixtureId),
+    index("findings_assignee_idx").on(t.assigneeId),
+  ],
+);
+export type Finding = typeof findings.$inferSelect;
+export type NewFinding = typeof findings.$inferInsert;
+
+export const FINDING_EVENT_KINDS = [
+  "raised",
+  "updated",
+  "acknowledged",
+  "mitigation_started",
+  "resolved",
+  "auto_resolved",
+  "reopened",
+  "risk_accepted",
+  "comment",
+  "assigned",
+] as const;
+
+export const findingEvents = sqliteTable(
+  "finding_events",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    findingId: integer("finding_id")
+      .notNull()
+      .references(() => findings.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: FINDING_EVENT_KINDS }).notNull(),
+    fromStatus: text("from_status", { enum: FINDING_STATUSES }),
+    toStatus: text("to_status", { enum: FINDING_STATUSES }),
+    note: text("note"),
+    /** Null for events the assessment itself records. */
+    actorId: integer("actor_id").references(() => users.id, { onDelete: "set null" }),
+    data: text("data", { mode: "json" }).$type<Record<string, unknown>>(),
+    at: integer("at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+  },
+  (t) => [index("finding_events_finding_idx").on(t.findingId, t.at), index("finding_events_actor_idx").on(t.actorId)],
+);
+export type FindingEvent = typeof findingEvents.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// E-mail outbox, audit log, settings, quantity limits, background jobs
+// ---------------------------------------------------------------------------------------------
+
+export const EMAIL_STATUSES = ["queued", "sending", "sent"] as const;
+
+export const emailMessages = sqliteTable(
+  "email_messages",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    kind: text("kind").notNull(),
+    toAddresses: text("to_addresses", { mode: "json" }).$type<string[]>().notNull(),
+    subject: text("subject").notNull(),
+    html: text("html").notNull(),
+    text: text("text").notNull(),
+    status: text("status", { enum: EMAIL_STATUSES }).notNull().default("queued"),
+    attempts: integer("attempts").notNull().default(0),
+    nextAttemptAt: integer("next_attempt_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    lastError: text("last_error"),
+    providerMessageId: text("provider_message_id"),
+    /** Sent as the Idempotency-Key header so a retried send is not delivered twice. */
+    idempotencyKey: text("idempotency_key").notNull(),
+    recipientUserId: integer("recipient_user_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [
+    uniqueIndex("email_messages_idempotency_unique").on(t.idempotencyKey),
+    index("email_messages_due_idx").on(t.status, t.nextAttemptAt),
+    index("email_messages_recipient_idx").on(t.recipientUserId),
+  ],
+);
+export type EmailMessage = typeof emailMessages.$inferSelect;
+export type NewEmailMessage = typeof emailMessages.$inferInsert;
+
+export const auditEvents = sqliteTable(
+  "audit_events",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    at: integer("at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    actorId: integer("actor_id").references(() => users.id, { onDelete: "set null" }),
+    /** Who acted, kept as text too: an e-mail address, "api key …" or "system". */
+    actorLabel: text("actor_label").notNull(),
+    action: text("action").notNull(),
+    entityType: text("entity_type").notNull(),
+    entityId: text("entity_id"),
+    summary: text("summary").notNull(),
+    before: text("before", { mode: "json" }).$type<unknown>(),
+    after: text("after", { mode: "json" }).$type<unknown>(),
+  },
+  (t) => [
+    index("audit_events_at_idx").on(t.at),
+    index("audit_events_entity_idx").on(t.entityType, t.entityId),
+    index("audit_events_actor_idx").on(t.actorId),
+  ],
+);
+export type AuditEvent = typeof auditEvents.$inferSelect;
+
+export const settings = sqliteTable("settings", {
+  key: text("key").primaryKey(),
+  value: text("value", { mode: "json" }).$type<unknown>().notNull(),
+  updatedAt: updatedAt(),
+  updatedById: integer("updated_by_id").references(() => users.id, { onDelete: "set null" }),
+}, (t) => [index("settings_updated_by_idx").on(t.updatedById)]);
+
+export const LIQUID_CLASSES = ["IA", "IB", "IC", "II", "IIIA", "IIIB"] as const;
+export type LiquidClass = (typeof LIQUID_CLASSES)[number];
+export const QUANTITY_LIMIT_SCOPES = ["room", "flammable_cabinet", "storage_unit"] as const;
+
+/** Maximum volumes per location kind and liquid class, set by each organisation from its local code. */
+export const quantityLimits = sqliteTable(
+  "quantity_limits",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    scope: text("scope", { enum: QUANTITY_LIMIT_SCOPES }).notNull(),
+    /** Liquid classes the limit sums over, e.g. ["IA","IB","IC"]. */
+    liquidClasses: text("liquid_classes", { mode: "json" }).$type<LiquidClass[]>().notNull(),
+    maxVolumeL: real("max_volume_l").notNull(),
+    /** Allowance when the room is sprinklered, if the code gives one. */
+    sprinkleredMaxVolumeL: real("sprinklered_max_volume_l"),
+    basis: text("basis").notNull(),
+    updatedAt: updatedAt(),
+    updatedById: integer("updated_by_id").references(() => users.id, { onDelete: "set null" }),
+  },
+  (t) => [index("quantity_limits_updated_by_idx").on(t.updatedById), check("quantity_limits_positive", sql`${t.maxVolumeL} > 0`)],
+);
+export type QuantityLimit = typeof quantityLimits.$inferSelect;
+
+export const JOB_STATUSES = ["queued", "running", "done", "failed"] as const;
+
+export const jobs = sqliteTable(
+  "jobs",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    kind: text("kind").notNull(),
+    status: text("status", { enum: JOB_STATUSES }).notNull().default("queued"),
+    progress: integer("progress").notNull().default(0),
+    total: integer("total"),
+    error: text("error"),
+    requestedById: integer("requested_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    startedAt: integer("started_at", { mode: "timestamp_ms" }),
+    finishedAt: integer("finished_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [index("jobs_status_idx").on(t.status), index("jobs_requested_by_idx").on(t.requestedById)],
+);
+export type Job = typeof jobs.$inferSelect;

@@ -1,0 +1,25 @@
+/** Plain-word labels for stored codes. */
+import type { RoomKind, StorageUnitKind } from "@/db/schema";
+
+export const STORAGE_UNIT_KIND_LABELS: Record<StorageUnitKind, string> = {
+  open_shelving: "Open shelving",
+  flammable_cabinet: "Flammable-liquid cabinet",
+  corrosives_cabinet: "Corrosives cabinet",
+  ventilated_cabinet: "Ventilated cabinet",
+  domestic_refrigerator: "Domestic-type refrigerator",
+  flammable_storage_refrigerator: "Flammable-storage refrigerator",
+  explosion_proof_refrigerator: "Explosion-proof refrigerator",
+  freezer_minus_20: "−20 °C freezer",
+  freezer_minus_80: "−80 °C freezer",
+  cryogen_area: "Cryogen area",
+  fume_hood: "Fume hood",
+  other: "Other",
+};
+
+export const ROOM_KIND_LABELS: Record<RoomKind, string> = {
+  storeroom: "Storeroom",
+  laboratory: "Laboratory",
+  cold_room: "Walk-in cold room",
+  corridor: "Corridor",
+  other: "Other",
+};

@@ -1,0 +1,107 @@
+import "server-only";
+import { NextResponse } from "next/server";
+import type { z } from "zod";
+import { authorizeAction, parseInput } from "@/lib/auth/guard";
+import type { Action, Scope } from "@/lib/auth/permissions";
+import { getRequestUser, type SessionUser } from "@/lib/auth/session";
+import { DomainError, RateLimitedError, ValidationError } from "@/lib/errors";
+import { log } from "@/lib/log";
+
+export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
+
+export function errorResponse(error: unknown): NextResponse<ErrorBody> {
+  if (error instanceof DomainError) {
+    const headers: Record<string, string> = {};
+    if (error instanceof RateLimitedError) headers["Retry-After"] = String(error.retryAfterSeconds);
+    return NextResponse.json(
+      { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } },
+      { status: error.status, headers },
+    );
+  }
+  log.error({ err: error }, "unhandled error in route handler");
+  return NextResponse.json(
+    { error: { code: "internal_error", message: "Something went wrong on our side. The error was logged." } },
+    { status: 500 },
+  );
+}
+
+type RouteContext = { params: Promise<Record<string, string | string[]>> };
+
+type HandlerArgs<T> = {
+  request: Request;
+  params: Record<string, string>;
+  user: SessionUser;
+  scope: Scope;
+  input: T;
+};
+
+type PublicHandlerArgs = { request: Request; params: Record<string, string> };
+
+async function readInput(request: Request): Promise<unknown> {
+  if (request.method === "GET" || request.method === "HEAD" || request.method === "DELETE") {
+    return Object.fromEntries(new URL(request.url).searchParams);
+  }
+  const text = await request.text();
+  if (!text.trim()) return {};
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new ValidationError("The request body is not valid JSON.");
+  }
+}
+
+function flatParams(raw: Record<string, string | string[]>): Record<string, string> {
+  return Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join("/") : v]));
+}
+
+function logOutcome(request: Request, status: number, startedAt: number, userId?: number) {
+  const url = new URL(request.url);
+  log.info(
+    { method: request.method, path: url.pathname, status, ms: Math.round(performance.now() - startedAt), userId },
+    "request",
+  );
+}
+
+/**
+ * A route handler behind the session check, the permission matrix and a zod schema (query
+ * string for GET and DELETE, JSON body otherwise). Errors become the one JSON error shape.
+ */
+export function route<S extends z.ZodType | undefined = undefined>(
+  spec: { action: Action; schema?: S },
+  handler: (args: HandlerArgs<S extends z.ZodType ? z.output<S> : undefined>) => Promise<Response> | Response,
+) {
+  return async (request: Request, context: RouteContext): Promise<Response> => {
+    const startedAt = performance.now();
+    let userId: number | undefined;
+    let response: Response;
+    try {
+      const { user, scope } = authorizeAction(await getRequestUser(request), spec.action);
+      userId = user.id;
+      const raw = spec.schema ? await readInput(request) : undefined;
+      const input = parseInput(spec.schema as z.ZodType | undefined, raw);
+      const params = flatParams((await context?.params) ?? {});
+      response = await handler({ request, params, user, scope, input: input as never });
+    } catch (error) {
+      response = errorResponse(error);
+    }
+    logOutcome(request, response.status, startedAt, userId);
+    return response;
+  };
+}
+
+/** A route handler open to anonymous callers (sign-in, health). */
+export function publicRoute(handler: (args: PublicHandlerArgs) => Promise<Response> | Response) {
+  return async (request: Request, context: RouteContext): Promise<Response> => {
+    const startedAt = performance.now();
+    let response: Response;
+    try {
+      response = await handler({ request, params: flatParams((await context?.params) ?? {}) });
+    } catch (error) {
+      response = errorResponse(error);
+    }
+    logOutcome(request, response.status, startedAt);
+    return response;
+  };
+}
+
+export { readInput };

@@ -1,0 +1,216 @@
+import "server-only";
+import { eq, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { countActiveAdmins, findUserByEmail, findUserById, normaliseEmail } from "@/db/queries/users";
+import { signInThrottles, users, type Role, type User } from "@/db/schema";
+import { invitationEmail } from "@/emails/invitation";
+import { passwordResetEmail } from "@/emails/password-reset";
+import { recordAudit } from "@/lib/audit/record";
+import { hashPassword } from "@/lib/auth/passwords";
+import { ROLE_LABELS } from "@/lib/auth/permissions";
+import type { SessionUser } from "@/lib/auth/session";
+import { findUsableToken, issueUserToken, markTokenUsed } from "@/lib/auth/tokens";
+import { appUrl } from "@/lib/config";
+import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
+import { enqueueEmail } from "@/lib/mail/outbox";
+import { kickOutbox } from "@/lib/mail/deliver";
+
+export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
+export const PASSWORD_RESET_TTL_MS = 60 * 60 * 1000;
+
+/**
+ * Invites a person: the account exists at once without a password, and the invitation e-mail
+ * is queued in the same transaction. Inviting an address that was invited but never activated
+ * sends a fresh link (the old one stops working).
+ */
+export function inviteUser(actor: SessionUser, input: { email: string; name: string; role: Role }): User {
+  const email = normaliseEmail(input.email);
+  const db = getDb();
+  const user = db.transaction((tx) => {
+    let user = findUserByEmail(email, tx);
+    if (user?.passwordHash) {
+      throw new ConflictError("That person already has an account.", { email: ["That person already has an account."] });
+    }
+    if (user) {
+      user = tx
+        .update(users)
+        .set({ name: input.name, role: input.role, active: true, updatedAt: new Date() })
+        .where(eq(users.id, user.id))
+        .returning()
+        .get();
+    } else {
+      user = tx.insert(users).values({ email, name: input.name, role: input.role, invitedById: actor.id }).returning().get();
+    }
+    const token = issueUserToken(tx, { userId: user.id, kind: "invitation", ttlMs: INVITATION_TTL_MS, createdById: actor.id });
+    enqueueEmail(tx, {
+      kind: "invitation",
+      to: [email],
+      recipientUserId: user.id,
+      ...invitationEmail({
+        inviteeName: input.name,
+        inviterName: actor.name,
+        roleLabel: ROLE_LABELS[input.role],
+        link: `${appUrl()}/invitation/${token}`,
+        expiresInDays: INVITATION_TTL_MS / 86_400_000,
+      }),
+    });
+    recordAudit(tx, actor, {
+      action: "invite",
+      entityType: "user",
+      entityId: user.id,
+      summary: `Invited ${email} as ${ROLE_LABELS[input.role]}`,
+      after: { email, name: input.name, role: input.role },
+    });
+    return user;
+  });
+  kickOutbox();
+  return user;
+}
+
+/** The invitee for a usable invitation link, for the page that asks for a password. */
+export function findInvitation(token: string): { email: string; name: string } | null {
+  const db = getDb();
+  const row = findUsableToken(db, token, "invitation");
+  if (!row) return null;
+  const user = findUserById(row.userId, db);
+  if (!user || !user.active) return null;
+  return { email: user.email, name: user.name };
+}
+
+export function findPasswordReset(token: string): { email: string } | null {
+  const db = getDb();
+  const row = findUsableToken(db, token, "password_reset");
+  if (!row) return null;
+  const user = findUserById(row.userId, db);
+  if (!user || !user.active) return null;
+  return { email: user.email };
+}
+
+/**
+ * Sets the password through a single-use link (invitation or reset). The token is consumed in the
+ * same transaction that writes the hash; earlier sessions of that user stop working.
+ */
+export async function setPasswordWithToken(
+  kind: "invitation" | "password_reset",
+  input: { token: string; password: string; name?: string },
+): Promise<User> {
+  const passwordHash = await hashPassword(input.password);
+  const db = getDb();
+  return db.transaction((tx) => {
+    const row = findUsableToken(tx, input.token, kind);
+    const user = row ? findUserById(row.userId, tx) : undefined;
+    if (!row || !user || !user.active || !markTokenUsed(tx, row.id)) {
+      throw new ValidationError("This link has expired or was already used. Ask for a new one.");
+    }
+    const updated = tx
+      .update(users)
+      .set({
+        passwordHash,
+        ...(kind === "invitation" && input.name ? { name: input.name } : {}),
+        sessionVersion: sql`${users.sessionVersion} + 1`,
+        updatedAt: new Date(),
+      })
+      .where(eq(users.id, user.id))
+      .returning()
+      .get();
+    tx.delete(signInThrottles).where(eq(signInThrottles.key, user.email)).run();
+    recordAudit(tx, user, {
+      action: kind === "invitation" ? "accept_invitation" : "reset_password",
+      entityType: "user",
+      entityId: user.id,
+      summary: kind === "invitation" ? `${user.email} activated the account` : `${user.email} reset the password`,
+    });
+    return updated;
+  });
+}
+
+/**
+ * Queues a reset link when the address belongs to an active, activated account. The caller shows
+ * the same answer either way, so the form does not reveal who has an account.
+ */
+export function requestPasswordReset(emailInput: string): void {
+  const email = normaliseEmail(emailInput);
+  const db = getDb();
+  const queued = db.transaction((tx) => {
+    const user = findUserByEmail(email, tx);
+    if (!user || !user.active || !user.passwordHash) return false;
+    const token = issueUserToken(tx, { userId: user.id, kind: "password_reset", ttlMs: PASSWORD_RESET_TTL_MS });
+    enqueueEmail(tx, {
+      kind: "password_reset",
+      to: [user.email],
+      recipientUserId: user.id,
+      ...passwordResetEmail({
+        name: user.name,
+        link: `${appUrl()}/reset-password/${token}`,
+        expiresInMinutes: PASSWORD_RESET_TTL_MS / 60_000,
+      }),
+    });
+    recordAudit(tx, { system: "password reset" }, {
+      action: "request_password_reset",
+      entityType: "user",
+      entityId: user.id,
+      summary: `Password reset link sent to ${user.email}`,
+    });
+    return true;
+  });
+  if (queued) kickOutbox();
+}
+
+function requireOtherUser(actor: SessionUser, userId: number, tx: Parameters<typeof findUserById>[1]): User {
+  const user = findUserById(userId, tx);
+  if (!user) throw new NotFoundError("That user");
+  if (user.id === actor.id) {
+    throw new ConflictError("You cannot change your own role or access; ask another administrator.");
+  }
+  return user;
+}
+
+export function changeUserRole(actor: SessionUser, userId: number, role: Role): User {
+  return getDb().transaction((tx) => {
+    const user = requireOtherUser(actor, userId, tx);
+    if (user.role === role) return user;
+    if (user.role === "admin" && user.active && countActiveAdmins(tx) <= 1) {
+      throw new ConflictError("This is the last active administrator; make someone else an administrator first.");
+    }
+    const updated = tx
+      .update(users)
+      .set({ role, sessionVersion: sql`${users.sessionVersion} + 1`, updatedAt: new Date() })
+      .where(eq(users.id, user.id))
+      .returning()
+      .get();
+    recordAudit(tx, actor, {
+      action: "change_role",
+      entityType: "user",
+      entityId: user.id,
+      summary: `Changed ${user.email} from ${ROLE_LABELS[user.role]} to ${ROLE_LABELS[role]}`,
+      before: { role: user.role },
+      after: { role },
+    });
+    return updated;
+  });
+}
+
+export function setUserActive(actor: SessionUser, userId: number, active: boolean): User {
+  return getDb().transaction((tx) => {
+    const user = requireOtherUser(actor, userId, tx);
+    if (user.active === active) return user;
+    if (!active && user.role === "admin" && countActiveAdmins(tx) <= 1) {
+      throw new ConflictError("This is the last active administrator and cannot be deactivated.");
+    }
+    const updated = tx
+      .update(users)
+      .set({ active, sessionVersion: sql`${users.sessionVersion} + 1`, updatedAt: new Date() })
+      .where(eq(users.id, user.id))
+      .returning()
+      .get();
+    recordAudit(tx, actor, {
+      action: active ? "reactivate" : "deactivate",
+      entityType: "user",
+      entityId: user.id,
+      summary: `${active ? "Reactivated" : "Deactivated"} ${user.email}`,
+      before: { active: user.active },
+      after: { active },
+    });
+    return updated;
+  });
+}

@@ -1,0 +1,85 @@
+/**
+ * `npm run demo`: migrates and (when empty) seeds the database, builds the app, and serves it on
+ * PORT (default 3000) with the local e-mail fake on EMAIL_FAKE_PORT (default 3025).
+ * Flags: --fresh deletes the database file first (tests); --no-build serves the existing build.
+ */
+import { spawn, spawnSync } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
+import { closeDb, databasePath, getDb } from "../db/client";
+import { seedDemo } from "../db/seed/demo";
+import { startEmailFake } from "../lib/mail/fake-server";
+
+const args = new Set(process.argv.slice(2));
+process.env.NEXT_TELEMETRY_DISABLED = "1";
+const port = Number(process.env.PORT || 3000);
+const fakePort = Number(process.env.EMAIL_FAKE_PORT || 3025);
+const dbFile = databasePath();
+
+function say(message: string) {
+  console.log(`[headroom] ${message}`);
+}
+
+function sessionSecret(): string {
+  if (process.env.SESSION_SECRET) return process.env.SESSION_SECRET;
+  const file = path.join(path.dirname(path.resolve(dbFile)), "session-secret");
+  if (!fs.existsSync(file)) {
+    fs.mkdirSync(path.dirname(file), { recursive: true });
+    fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600 });
+  }
+  return fs.readFileSync(file, "utf8").trim();
+}
+
+async function main() {
+  if (args.has("--fresh")) {
+    for (const suffix of ["", "-wal", "-shm"]) fs.rmSync(`${dbFile}${suffix}`, { force: true });
+    say(`removed ${dbFile}`);
+  }
+  getDb(); // opens the file and applies pending migrations
+  say(`database ${dbFile} is up to date`);
+  if (await seedDemo(getDb())) say("seeded the demo organisation (invented data; demo accounts use the password headroom-demo)");
+  closeDb();
+
+  if (!args.has("--no-build")) {
+    say("building the app");
+    const build = spawnSync("npx", ["next", "build"], { stdio: "inherit", env: process.env });
+    if (build.status !== 0) process.exit(build.status ?? 1);
+  }
+
+  let fake: Awaited<ReturnType<typeof startEmailFake>> | undefined;
+  try {
+    fake = await startEmailFake({ port: fakePort });
+    say(`e-mail fake listening on ${fake.url} (captured messages: ${fake.url}/emails)`);
+  } catch (error) {
+    say(`e-mail fake not started on port ${fakePort} (${(error as Error).message}); using whatever listens there`);
+  }
+
+  const server = spawn("npx", ["next", "start", "-p", String(port)], {
+    stdio: "inherit",
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      SESSION_SECRET: sessionSecret(),
+      APP_URL: process.env.APP_URL || `http://localhost:${port}`,
+      RESEND_BASE_URL: process.env.RESEND_BASE_URL || `http://127.0.0.1:${fakePort}`,
+      COOKIE_SECURE: process.env.COOKIE_SECURE || "false",
+    },
+  });
+  say(`serving on http://localhost:${port}`);
+  const stop = () => {
+    server.kill("SIGTERM");
+    void fake?.close();
+  };
+  process.on("SIGINT", stop);
+  process.on("SIGTERM", stop);
+  server.on("exit", (code) => {
+    void fake?.close();
+    process.exit(code ?? 0);
+  });
+}
+
+main().catch((error) => {
+  console.error(error);
+  process.exit(1);
+});
