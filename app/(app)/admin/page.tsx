@@ -30,7 +30,7 @@ export default async function AdminPage() {
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_340px]">
         <Card title={`People (${people.length})`}>
           <div className="-mx-4 -my-4 overflow-x-auto">
-            <table className="w-full min-w-[720px] text-sm">
+            <table className="w-full min-w-[900px] text-sm">
               <thead className="sticky top-0 bg-ink-50">
                 <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
                   <th scope="col" className="px-4 py-2 font-medium">Name</th>
@@ -48,10 +48,10 @@ export default async function AdminPage() {
                       <p className="text-xs text-ink-600">{person.email}</p>
                     </td>
                     <td className="px-4 py-3 text-ink-800">{ROLE_LABELS[person.role]}</td>
-                    <td className="px-4 py-3 text-xs font-medium">
+                    <td className="whitespace-nowrap px-4 py-3 text-xs font-medium">
                       <StatusText active={person.active} activated={person.hasPassword} />
                     </td>
-                    <td className="tabular px-4 py-3 text-xs text-ink-600">{person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}</td>
+                    <td className="tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600">{person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}</td>
                     <td className="px-4 py-3">
                       <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} />
                     </td>

@@ -15,7 +15,7 @@ export function UserRowActions({ userId, name, role, active, isSelf }: { userId:
   const errorText = message?.error ? Object.values(message.error).flat().join(" ") : undefined;
   return (
     <div className="space-y-1.5">
-      <div className="flex flex-wrap items-center gap-2">
+      <div className="flex flex-nowrap items-center gap-2">
         <form action={changeRole} className="flex items-center gap-2">
           <input type="hidden" name="userId" value={userId} />
           <label className="sr-only" htmlFor={`role-${userId}`}>

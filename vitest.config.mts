@@ -1,7 +1,12 @@
+import path from "node:path";
 import { defineConfig } from "vitest/config";
 
 export default defineConfig({
-  resolve: { tsconfigPaths: true },
+  resolve: {
+    tsconfigPaths: true,
+    // Data modules start with `import "server-only"`; outside Next's bundler it is a no-op.
+    alias: { "server-only": path.resolve(import.meta.dirname, "tests/fixtures/empty-module.ts") },
+  },
   test: {
     environment: "node",
     projects: [
@@ -15,7 +20,7 @@ export default defineConfig({
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
           setupFiles: ["tests/integration/setup.ts"],
-          testTimeout: 20000,
+          testTimeout: 20_000,
         },
       },
     ],

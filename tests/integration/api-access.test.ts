@@ -1,0 +1,114 @@
+/**
+ * Every /api/v1 route answers 401 without a session and 403 for a role that may not use it, in
+ * the one JSON error shape. The table below must list every exported handler of every route
+ * file: the first test fails when a route is added without being listed here.
+ */
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { can, ROLES, type Action } from "@/lib/auth/permissions";
+import { call, makeUser, sessionCookieFor } from "./helpers/world";
+
+type Handler = Parameters<typeof call>[0];
+type Entry = { file: string; method: string; path: string; action: Action | "public" | "none"; body?: unknown; params?: Record<string, string> };
+
+const ROUTES: Entry[] = [
+  { file: "session/route.ts", method: "POST", path: "/api/v1/session", action: "public" },
+  { file: "session/route.ts", method: "DELETE", path: "/api/v1/session", action: "public" },
+  { file: "me/route.ts", method: "GET", path: "/api/v1/me", action: "profile.update" },
+  { file: "users/route.ts", method: "GET", path: "/api/v1/users", action: "users.manage" },
+  { file: "users/route.ts", method: "POST", path: "/api/v1/users", action: "users.manage", body: { email: "new.person@example.test", name: "New Person", role: "researcher" } },
+  // The catch-all answers 404 for unknown paths whoever asks.
+  ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
+];
+
+const API_DIR = path.join(process.cwd(), "app/api/v1");
+
+function routeFiles(dir: string): string[] {
+  return fs.readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {
+    const full = path.join(dir, entry.name);
+    if (entry.isDirectory()) return routeFiles(full);
+    return entry.name === "route.ts" ? [path.relative(API_DIR, full)] : [];
+  });
+}
+
+async function handlerFor(entry: Entry): Promise<Handler> {
+  const mod = (await import(/* @vite-ignore */ path.join(API_DIR, entry.file))) as Record<string, Handler>;
+  const handler = mod[entry.method];
+  if (!handler) throw new Error(`${entry.file} has no ${entry.method}`);
+  return handler;
+}
+
+describe("the /api/v1 access table", () => {
+  it("lists every exported handler of every route file", async () => {
+    const exported: string[] = [];
+    for (const file of routeFiles(API_DIR)) {
+      const mod = (await import(/* @vite-ignore */ path.join(API_DIR, file))) as Record<string, unknown>;
+      for (const method of ["GET", "POST", "PUT", "PATCH", "DELETE"]) if (typeof mod[method] === "function") exported.push(`${method} ${file}`);
+    }
+    expect(exported.sort()).toEqual(ROUTES.map((r) => `${r.method} ${r.file}`).sort());
+  });
+});
+
+describe.each(ROUTES.filter((r) => r.action !== "public" && r.action !== "none"))("$method $path", (entry) => {
+  it("answers 401 in the error shape without a session", async () => {
+    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body: entry.body, params: entry.params });
+    expect(response.status).toBe(401);
+    expect(response.body).toEqual({ error: { code: "unauthenticated", message: expect.any(String) } });
+  });
+
+  it("answers 401 for a forged or stale cookie", async () => {
+    const user = makeUser("admin");
+    const stale = await sessionCookieFor({ id: user.id, sessionVersion: user.sessionVersion + 1 });
+    const forged = "headroom_session=Fe26.2*1*forged";
+    for (const cookie of [stale, forged]) {
+      const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body: entry.body, cookie });
+      expect(response.status).toBe(401);
+    }
+  });
+
+  const refused = ROLES.filter((role) => !can(role, entry.action as Action));
+  const allowed = ROLES.filter((role) => can(role, entry.action as Action));
+
+  it.each(refused)("answers 403 for the %s role", async (role) => {
+    const cookie = await sessionCookieFor(makeUser(role));
+    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body: entry.body, cookie });
+    expect(response.status).toBe(403);
+    expect(response.body).toEqual({ error: { code: "forbidden", message: expect.any(String) } });
+  });
+
+  it.each(allowed)("lets the %s role through", async (role) => {
+    const cookie = await sessionCookieFor(makeUser(role));
+    const body = entry.body && typeof entry.body === "object" ? { ...entry.body, email: `${role}.${Math.random().toString(36).slice(2)}@example.test` } : entry.body;
+    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body, cookie });
+    expect(response.status).toBeLessThan(300);
+  });
+});
+
+describe("input errors on an allowed route", () => {
+  it("answers 400 with field errors after the session and role checks pass", async () => {
+    const cookie = await sessionCookieFor(makeUser("admin"));
+    const handler = await handlerFor(ROUTES.find((r) => r.file === "users/route.ts" && r.method === "POST")!);
+    const response = await call(handler, { method: "POST", body: { email: "nope", role: "emperor" }, cookie });
+    expect(response.status).toBe(400);
+    expect(Object.keys(response.body.error.fields).sort()).toEqual(["email", "name", "role"]);
+  });
+
+  it("answers 409 when the invited person already has an account", async () => {
+    const admin = makeUser("admin");
+    const existing = makeUser("researcher");
+    const handler = await handlerFor(ROUTES.find((r) => r.file === "users/route.ts" && r.method === "POST")!);
+    const response = await call(handler, { method: "POST", body: { email: existing.email, name: "Again", role: "auditor" }, cookie: await sessionCookieFor(admin) });
+    expect(response.status).toBe(409);
+    expect(response.body.error.code).toBe("conflict");
+  });
+});
+
+describe("unknown API paths", () => {
+  it.each(["GET", "POST", "PUT", "PATCH", "DELETE"])("%s answers 404 in the error shape", async (method) => {
+    const handler = await handlerFor({ file: "[...path]/route.ts", method, path: "/api/v1/nope", action: "none" });
+    const response = await call(handler, { method, path: "/api/v1/nope" });
+    expect(response.status).toBe(404);
+    expect(response.body).toEqual({ error: { code: "not_found", message: "That API route was not found." } });
+  });
+});
