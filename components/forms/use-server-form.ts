@@ -21,7 +21,8 @@ export function useServerForm<S extends z.ZodObject>(
     id: options.id,
     lastResult,
     defaultValue: options.defaultValue as never,
-    shouldValidate: "onBlur",
+    // Errors appear on the first submit (no layout jumps while moving between fields), then follow typing.
+    shouldValidate: "onSubmit",
     shouldRevalidate: "onInput",
     onValidate({ formData }) {
       return parseWithZod(formData, { schema });
