@@ -264,6 +264,19 @@ function chooseCorrelation(correlations: VaporPressureCorrelation[], tempC: numb
   return -(bestIndex + 1);
 }
 
+/** The correlation saturationPressure would use at tempC (null when it falls back to Clausius–Clapeyron). */
+export function selectCorrelation(
+  props: VaporProperties,
+  tempC: number,
+): { correlation: VaporPressureCorrelation; index: number; covered: boolean } | null {
+  validateVaporProperties(props);
+  const correlations = props.correlations;
+  if (correlations === undefined || correlations.length === 0) return null;
+  const choice = chooseCorrelation(correlations, tempC);
+  const index = choice >= 0 ? choice : -choice - 1;
+  return { correlation: correlations[index], index, covered: choice >= 0 };
+}
+
 function assertUsablePressure(pressureKPa: number, correlation: VaporPressureCorrelation | null, tempC: number): void {
   if (Number.isNaN(pressureKPa) && correlation?.kind === 'antoine') {
     throw new HazardInputError(
