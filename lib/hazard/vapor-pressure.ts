@@ -27,7 +27,7 @@ function kPaPerUnit(unit: PressureUnit): number {
 
 function assertTempC(tempC: number, field = 'tempC'): void {
   if (typeof tempC !== 'number' || !(tempC > -KELVIN_OFFSET) || tempC === Number.POSITIVE_INFINITY) {
-    if (typeof tempC === 'number' && tempC <= -KELVIN_OFFSET) {
+    if (typeof tempC === 'number' && tempC <= -KELVIN_OFFSET && tempC !== Number.NEGATIVE_INFINITY) {
       throw new HazardInputError('below-absolute-zero', field, `${field} = ${tempC} °C is at or below absolute zero (−273.15 °C)`);
     }
     throw new HazardInputError('not-finite', field, `${field} must be a finite temperature in °C (got ${String(tempC)})`);
