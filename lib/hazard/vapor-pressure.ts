@@ -179,25 +179,95 @@ function assertOptionalFinite(value: number | undefined, field: string): void {
 }
 
 /**
- * Property sets already checked. Library entries are static data evaluated millions of times
- * (every location × substance × temperature), so each object is validated once and then treated
- * as an immutable value: to change a property, build a new object rather than editing one in place.
+ * A correlation reduced to plain numbers in one fixed shape, so the hot path does no unit
+ * switches and sees a single object layout:
+ * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4.
  */
-const validatedProperties = new WeakSet<VaporProperties>();
+class CompiledCorrelation {
+  constructor(
+    readonly tMinC: number,
+    readonly tMaxC: number,
+    readonly antoine: boolean,
+    readonly k0: number,
+    readonly k1: number,
+    readonly k2: number,
+    readonly k3: number,
+    readonly k4: number,
+  ) {}
+}
+
+function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorrelation {
+  if (correlation.kind === 'antoine') {
+    const logFactor = correlation.log === 'log10' ? LN10 : 1;
+    return new CompiledCorrelation(
+      correlation.tMinC,
+      correlation.tMaxC,
+      true,
+      correlation.a * logFactor + Math.log(kPaPerUnit(correlation.pressureUnit)),
+      correlation.b * logFactor,
+      correlation.temperatureUnit === 'K' ? correlation.c : correlation.c - KELVIN_OFFSET,
+      0,
+      0,
+    );
+  }
+  return new CompiledCorrelation(
+    correlation.tMinC,
+    correlation.tMaxC,
+    false,
+    correlation.c1 + Math.log(0.001),
+    correlation.c2,
+    correlation.c3,
+    correlation.c4,
+    correlation.c5,
+  );
+}
+
+function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): number {
+  const tempK = tempC + KELVIN_OFFSET;
+  if (compiled.antoine) {
+    const denominator = tempK + compiled.k2;
+    return denominator <= 0 ? Number.NaN : Math.exp(compiled.k0 - compiled.k1 / denominator);
+  }
+  const exponent = compiled.k4;
+  // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
+  let power: number;
+  if (exponent === 2) power = tempK * tempK;
+  else if (exponent === 6) {
+    const cube = tempK * tempK * tempK;
+    power = cube * cube;
+  } else if (exponent === 1) power = tempK;
+  else power = Math.pow(tempK, exponent);
+  return Math.exp(compiled.k0 + compiled.k1 / tempK + compiled.k2 * Math.log(tempK) + compiled.k3 * power);
+}
+
+/**
+ * Property sets already checked, with their compiled correlations. Library entries are static
+ * data evaluated millions of times (every location × substance × temperature), so each object is
+ * validated and compiled once and then treated as an immutable value: to change a property,
+ * build a new object rather than editing one in place.
+ */
+const compiledProperties = new WeakMap<VaporProperties, CompiledCorrelation[]>();
 
 /** Checks every field of the property set; throws HazardInputError on the first bad one. */
 export function validateVaporProperties(props: VaporProperties): void {
+  if (compiledProperties.get(props) === undefined) compileProperties(props);
+}
+
+function compileProperties(props: VaporProperties): CompiledCorrelation[] {
   if (props === null || typeof props !== 'object') {
     throw new HazardInputError('empty-input', 'props', 'Vapor properties are missing');
   }
-  if (validatedProperties.has(props)) return;
   assertPositive(props.molarMassGPerMol, 'props.molarMassGPerMol');
   const correlations = props.correlations;
+  const compiled: CompiledCorrelation[] = [];
   if (correlations !== undefined) {
     if (!Array.isArray(correlations)) {
       throw new HazardInputError('invalid-correlation', 'props.correlations', 'props.correlations must be an array');
     }
-    for (let i = 0; i < correlations.length; i++) validateCorrelation(correlations[i], i);
+    for (let i = 0; i < correlations.length; i++) {
+      validateCorrelation(correlations[i], i);
+      compiled.push(compileCorrelation(correlations[i]));
+    }
   }
   if (props.normalBoilingPointC !== undefined) assertTempC(props.normalBoilingPointC, 'props.normalBoilingPointC');
   if (props.enthalpyOfVaporizationKJPerMol !== undefined) {
@@ -207,7 +277,8 @@ export function validateVaporProperties(props: VaporProperties): void {
   assertOptionalFinite(props.flashPointC, 'props.flashPointC');
   if (props.lflVolPercent !== undefined) assertPositive(props.lflVolPercent, 'props.lflVolPercent');
   if (props.uflVolPercent !== undefined) assertPositive(props.uflVolPercent, 'props.uflVolPercent');
-  validatedProperties.add(props);
+  compiledProperties.set(props, compiled);
+  return compiled;
 }
 
 /**
@@ -224,8 +295,16 @@ export function evaluateCorrelationKPa(correlation: VaporPressureCorrelation, te
     return pressureInUnit * kPaPerUnit(correlation.pressureUnit);
   }
   const tempK = tempC + KELVIN_OFFSET;
-  const lnPressurePa =
-    correlation.c1 + correlation.c2 / tempK + correlation.c3 * Math.log(tempK) + correlation.c4 * Math.pow(tempK, correlation.c5);
+  const exponent = correlation.c5;
+  // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
+  let power: number;
+  if (exponent === 2) power = tempK * tempK;
+  else if (exponent === 6) {
+    const cube = tempK * tempK * tempK;
+    power = cube * cube;
+  } else if (exponent === 1) power = tempK;
+  else power = Math.pow(tempK, exponent);
+  const lnPressurePa = correlation.c1 + correlation.c2 / tempK + correlation.c3 * Math.log(tempK) + correlation.c4 * power;
   return Math.exp(lnPressurePa) * 0.001;
 }
 
@@ -245,7 +324,7 @@ function supercooledWarning(meltingPointC: number, tempC: number): string {
  * The correlation to use at tempC: the first whose range covers it (returns its index i ≥ 0),
  * else the one whose range is nearest (returns −(i + 1), i.e. "extrapolated").
  */
-function chooseCorrelation(correlations: VaporPressureCorrelation[], tempC: number): number {
+function chooseCorrelation(correlations: readonly { tMinC: number; tMaxC: number }[], tempC: number): number {
   const count = correlations.length;
   for (let i = 0; i < count; i++) {
     const correlation = correlations[i];
@@ -349,27 +428,34 @@ export function troutonEnthalpyKJPerMol(normalBoilingPointC: number): number {
 // module-level scratch instead of a returned object keeps the hot path free of an allocation;
 // everything here is synchronous, so no other call can interleave.
 let scratchMethod: SaturationPressureMethod = 'antoine';
+/**
+ * Results without warnings share this one frozen empty array, so the hot path allocates nothing
+ * but the result object. Treat every result's `warnings` as read-only: copy it to add to it.
+ */
+const NO_WARNINGS = Object.freeze([]) as unknown as string[];
 let scratchExtrapolated = false;
 let scratchWarnings: string[] | undefined;
 
 function computeSaturationKPa(props: VaporProperties, tempC: number): number {
   assertTempC(tempC);
-  validateVaporProperties(props);
-  const correlations = props.correlations;
+  const compiled = compiledProperties.get(props) ?? compileProperties(props);
   let warnings: string[] | undefined;
   const meltingPointC = props.meltingPointC;
   if (meltingPointC !== undefined && tempC < meltingPointC) warnings = [supercooledWarning(meltingPointC, tempC)];
-  if (correlations !== undefined && correlations.length > 0) {
-    const choice = chooseCorrelation(correlations, tempC);
+  if (compiled.length > 0) {
+    const choice = chooseCorrelation(compiled, tempC);
     const covered = choice >= 0;
-    const correlation = correlations[covered ? choice : -choice - 1];
-    const pressureKPa = evaluateCorrelationKPa(correlation, tempC);
-    assertUsablePressure(pressureKPa, correlation, tempC);
+    const index = covered ? choice : -choice - 1;
+    const pressureKPa = evaluateCompiledKPa(compiled[index], tempC);
+    if (!(pressureKPa > 0) || pressureKPa === Number.POSITIVE_INFINITY) {
+      assertUsablePressure(pressureKPa, (props.correlations as VaporPressureCorrelation[])[index], tempC);
+    }
     if (!covered) {
+      const correlation = (props.correlations as VaporPressureCorrelation[])[index];
       if (warnings === undefined) warnings = [rangeWarning(correlation, tempC)];
       else warnings.unshift(rangeWarning(correlation, tempC));
     }
-    scratchMethod = correlation.kind;
+    scratchMethod = compiled[index].antoine ? 'antoine' : 'dippr101';
     scratchExtrapolated = !covered;
     scratchWarnings = warnings;
     return pressureKPa;
@@ -412,7 +498,7 @@ function computeSaturationKPa(props: VaporProperties, tempC: number): number {
  */
 export function saturationPressure(props: VaporProperties, tempC: number): SaturationPressureResult {
   const pressureKPa = computeSaturationKPa(props, tempC);
-  return { pressureKPa, method: scratchMethod, extrapolated: scratchExtrapolated, warnings: scratchWarnings ?? [] };
+  return { pressureKPa, method: scratchMethod, extrapolated: scratchExtrapolated, warnings: scratchWarnings ?? NO_WARNINGS };
 }
 
 /**
@@ -420,11 +506,10 @@ export function saturationPressure(props: VaporProperties, tempC: number): Satur
  * Antoine form is undefined so that bisection sees "below the target".
  */
 function saturationPressureForSolverKPa(props: VaporProperties, tempC: number): number {
-  const correlations = props.correlations;
-  if (correlations !== undefined && correlations.length > 0) {
-    const choice = chooseCorrelation(correlations, tempC);
-    const correlation = correlations[choice >= 0 ? choice : -choice - 1];
-    const pressureKPa = evaluateCorrelationKPa(correlation, tempC);
+  const compiled = compiledProperties.get(props) ?? compileProperties(props);
+  if (compiled.length > 0) {
+    const choice = chooseCorrelation(compiled, tempC);
+    const pressureKPa = evaluateCompiledKPa(compiled[choice >= 0 ? choice : -choice - 1], tempC);
     return Number.isNaN(pressureKPa) ? 0 : pressureKPa;
   }
   const boilingPointC = props.normalBoilingPointC as number;
@@ -506,7 +591,7 @@ export function saturatedConcentration(
     volumePercent: moleFraction * 100,
     boils,
     pressureKPa,
-    warnings: warnings ?? [],
+    warnings: warnings ?? NO_WARNINGS,
     method: scratchMethod,
     extrapolated: scratchExtrapolated,
   };
