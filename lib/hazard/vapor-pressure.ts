@@ -247,6 +247,8 @@ function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): numb
  * build a new object rather than editing one in place.
  */
 const compiledProperties = new WeakMap<VaporProperties, CompiledCorrelation[]>();
+let lastProps: VaporProperties | undefined;
+let lastCompiled: CompiledCorrelation[] = [];
 
 /** Checks every field of the property set; throws HazardInputError on the first bad one. */
 export function validateVaporProperties(props: VaporProperties): void {
@@ -438,7 +440,15 @@ let scratchWarnings: string[] | undefined;
 
 function computeSaturationKPa(props: VaporProperties, tempC: number): number {
   assertTempC(tempC);
-  const compiled = compiledProperties.get(props) ?? compileProperties(props);
+  // One-entry identity check in front of the WeakMap: callers usually evaluate one substance at
+  // several temperatures, or its pressure and then its concentration, in a row.
+  let compiled: CompiledCorrelation[];
+  if (props === lastProps) compiled = lastCompiled;
+  else {
+    compiled = compiledProperties.get(props) ?? compileProperties(props);
+    lastProps = props;
+    lastCompiled = compiled;
+  }
   let warnings: string[] | undefined;
   const meltingPointC = props.meltingPointC;
   if (meltingPointC !== undefined && tempC < meltingPointC) warnings = [supercooledWarning(meltingPointC, tempC)];
@@ -567,7 +577,7 @@ export function saturatedConcentration(
   tempC: number,
   ambientPressureKPa = STANDARD_ATMOSPHERE_KPA,
 ): SaturatedConcentrationResult {
-  if (typeof ambientPressureKPa !== 'number' || !Number.isFinite(ambientPressureKPa) || ambientPressureKPa <= 0) {
+  if (!(ambientPressureKPa > 0) || ambientPressureKPa === Number.POSITIVE_INFINITY) {
     throw new HazardInputError(
       Number.isFinite(ambientPressureKPa) ? 'not-positive' : 'not-finite',
       'ambientPressureKPa',
