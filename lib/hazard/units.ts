@@ -1,5 +1,3 @@
-import { HazardInputError } from './errors';
-
 /** Molar gas constant, J·mol⁻¹·K⁻¹ (CODATA 2018 exact value, 8.314462618…). */
 export const GAS_CONSTANT_J_PER_MOL_K = 8.314462618;
 /** 0 °C in kelvin (ITS-90 definition). */
@@ -16,24 +14,6 @@ export const M2_PER_FT2 = 0.3048 * 0.3048;
 export const PPM_PER_VOLUME_PERCENT = 10_000;
 
 export type PressureUnit = 'Pa' | 'kPa' | 'bar' | 'mmHg' | 'atm';
-
-/** Factor that turns a pressure in `unit` into kPa. */
-export function kPaPerUnit(unit: PressureUnit): number {
-  switch (unit) {
-    case 'Pa':
-      return 0.001;
-    case 'kPa':
-      return 1;
-    case 'bar':
-      return 100;
-    case 'mmHg':
-      return KPA_PER_MMHG;
-    case 'atm':
-      return STANDARD_ATMOSPHERE_KPA;
-    default:
-      throw new HazardInputError('invalid-option', 'pressureUnit', `Unknown pressure unit "${String(unit)}"`);
-  }
-}
 
 export function celsiusToKelvin(tempC: number): number {
   return tempC + KELVIN_OFFSET;
