@@ -1,0 +1,608 @@
+import { HazardInputError } from './errors';
+import { formatNumber, formatSig, type PressureUnit } from './units';
+
+// This module is the hot path (saturationPressure + saturatedConcentration run for every
+// location × substance × temperature on each re-evaluation). It keeps its constants and guards
+// local: bundlers and tsx turn imported bindings into getter calls, which cost more than the
+// physics. Values are the same as in units.ts.
+const KELVIN_OFFSET = 273.15;
+const GAS_CONSTANT_J_PER_MOL_K = 8.314462618;
+const STANDARD_ATMOSPHERE_KPA = 101.325;
+const KPA_PER_MMHG = 101.325 / 760;
+
+function kPaPerUnit(unit: PressureUnit): number {
+  switch (unit) {
+    case 'Pa':
+      return 0.001;
+    case 'kPa':
+      return 1;
+    case 'bar':
+      return 100;
+    case 'mmHg':
+      return KPA_PER_MMHG;
+    default:
+      return STANDARD_ATMOSPHERE_KPA; // 'atm'; other units are rejected by validateCorrelation
+  }
+}
+
+function assertTempC(tempC: number, field = 'tempC'): void {
+  if (typeof tempC !== 'number' || !(tempC > -KELVIN_OFFSET) || tempC === Number.POSITIVE_INFINITY) {
+    if (typeof tempC === 'number' && tempC <= -KELVIN_OFFSET && tempC !== Number.NEGATIVE_INFINITY) {
+      throw new HazardInputError('below-absolute-zero', field, `${field} = ${tempC} °C is at or below absolute zero (−273.15 °C)`);
+    }
+    throw new HazardInputError('not-finite', field, `${field} must be a finite temperature in °C (got ${String(tempC)})`);
+  }
+}
+
+function assertPositive(value: number, field: string): void {
+  if (typeof value !== 'number' || !(value > 0) || value === Number.POSITIVE_INFINITY) {
+    if (typeof value === 'number' && Number.isFinite(value)) {
+      throw new HazardInputError('not-positive', field, `${field} must be greater than zero (got ${value})`);
+    }
+    throw new HazardInputError('not-finite', field, `${field} must be a finite number (got ${String(value)})`);
+  }
+}
+
+/**
+ * A vapor-pressure correlation as published, with its valid range converted to °C.
+ *
+ * - Antoine: log(P) = A − B/(T + C), with log10 or ln, P in the stated unit and T in K or °C
+ *   (Antoine 1888; the forms of Poling, Prausnitz & O'Connell 5th ed. App. A and the NIST
+ *   Chemistry WebBook are both covered).
+ * - DIPPR equation 101: ln(P/Pa) = C1 + C2/T + C3·ln T + C4·T^C5 with T in K (Perry's Chemical
+ *   Engineers' Handbook 8th ed., Table 2-8).
+ */
+export type VaporPressureCorrelation =
+  | {
+      kind: 'antoine';
+      log: 'log10' | 'ln';
+      pressureUnit: PressureUnit;
+      temperatureUnit: 'K' | 'C';
+      a: number;
+      b: number;
+      c: number;
+      tMinC: number;
+      tMaxC: number;
+      source?: string;
+    }
+  | {
+      kind: 'dippr101';
+      c1: number;
+      c2: number;
+      c3: number;
+      c4: number;
+      c5: number;
+      tMinC: number;
+      tMaxC: number;
+      source?: string;
+    };
+
+export type VaporProperties = {
+  molarMassGPerMol: number;
+  /** In order of preference. */
+  correlations?: VaporPressureCorrelation[];
+  /** At 101.325 kPa. For a subliming solid (dry ice) the sublimation point. */
+  normalBoilingPointC?: number;
+  /** At the normal boiling point (ΔHsub for a subliming solid). */
+  enthalpyOfVaporizationKJPerMol?: number;
+  meltingPointC?: number;
+  flashPointC?: number;
+  lflVolPercent?: number;
+  uflVolPercent?: number;
+};
+
+export type SaturationPressureMethod = 'antoine' | 'dippr101' | 'clausius-clapeyron' | 'clausius-clapeyron-trouton';
+
+export type SaturationPressureResult = {
+  pressureKPa: number;
+  method: SaturationPressureMethod;
+  /** True when T lies outside the chosen correlation's range, or for a one-point Clausius–Clapeyron estimate. */
+  extrapolated: boolean;
+  warnings: string[];
+};
+
+export type SaturatedConcentrationResult = {
+  /** Equilibrium vapor concentration, capped at 10⁶ ppm (100 % by volume) when the liquid boils. */
+  ppm: number;
+  mgPerM3: number;
+  volumePercent: number;
+  /** Psat ≥ ambient pressure: the liquid boils and a closed container can pressurize. */
+  boils: boolean;
+  /** The saturation vapor pressure itself (not capped). */
+  pressureKPa: number;
+  warnings: string[];
+  /** Added for the trace; the public shape above is what callers rely on. */
+  method: SaturationPressureMethod;
+  extrapolated: boolean;
+};
+
+/**
+ * Trouton's rule: ΔSvap(Tb) = ΔHvap/Tb ≈ 88 J·mol⁻¹·K⁻¹ for non-associated liquids (common
+ * practice; Atkins quotes ≈ 85). About 25 % off for alcohols and water, fails for carboxylic acids.
+ */
+export const TROUTON_ENTROPY_J_PER_MOL_K = 88;
+
+const LN10 = Math.LN10;
+
+const CORRELATION_LABEL = { antoine: 'Antoine', dippr101: 'DIPPR-101' } as const;
+
+function invalidCorrelation(index: number, message: string): HazardInputError {
+  return new HazardInputError('invalid-correlation', `props.correlations[${index}]`, `Correlation ${index + 1}: ${message}`);
+}
+
+function validateCorrelation(correlation: VaporPressureCorrelation, index: number): void {
+  if (correlation === null || typeof correlation !== 'object') throw invalidCorrelation(index, 'is not an object');
+  const { tMinC, tMaxC } = correlation;
+  if (!Number.isFinite(tMinC) || !Number.isFinite(tMaxC) || tMinC >= tMaxC) {
+    throw invalidCorrelation(index, `has no usable temperature range (tMinC = ${tMinC}, tMaxC = ${tMaxC}; need tMinC < tMaxC)`);
+  }
+  if (tMinC <= -KELVIN_OFFSET) throw invalidCorrelation(index, `range starts at or below absolute zero (${tMinC} °C)`);
+  if (correlation.kind === 'antoine') {
+    if (!Number.isFinite(correlation.a) || !Number.isFinite(correlation.b) || !Number.isFinite(correlation.c)) {
+      throw invalidCorrelation(index, 'Antoine coefficients A, B and C must be finite numbers');
+    }
+    if (correlation.log !== 'log10' && correlation.log !== 'ln') {
+      throw invalidCorrelation(index, `Antoine log must be "log10" or "ln" (got "${String(correlation.log)}")`);
+    }
+    if (correlation.temperatureUnit !== 'K' && correlation.temperatureUnit !== 'C') {
+      throw invalidCorrelation(index, `Antoine temperatureUnit must be "K" or "C" (got "${String(correlation.temperatureUnit)}")`);
+    }
+    switch (correlation.pressureUnit) {
+      case 'Pa':
+      case 'kPa':
+      case 'bar':
+      case 'mmHg':
+      case 'atm':
+        break;
+      default:
+        throw invalidCorrelation(index, `unknown pressure unit "${String(correlation.pressureUnit)}"`);
+    }
+  } else if (correlation.kind === 'dippr101') {
+    if (
+      !Number.isFinite(correlation.c1) ||
+      !Number.isFinite(correlation.c2) ||
+      !Number.isFinite(correlation.c3) ||
+      !Number.isFinite(correlation.c4) ||
+      !Number.isFinite(correlation.c5)
+    ) {
+      throw invalidCorrelation(index, 'DIPPR-101 coefficients C1…C5 must be finite numbers');
+    }
+  } else {
+    throw invalidCorrelation(index, `unknown kind "${String((correlation as { kind?: unknown }).kind)}"`);
+  }
+}
+
+function assertOptionalFinite(value: number | undefined, field: string): void {
+  if (value !== undefined && (typeof value !== 'number' || !Number.isFinite(value))) {
+    throw new HazardInputError('not-finite', field, `${field} must be a finite number when given (got ${String(value)})`);
+  }
+}
+
+/**
+ * A correlation reduced to plain numbers in one fixed shape, so the hot path does no unit
+ * switches and sees a single object layout:
+ * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4.
+ */
+class CompiledCorrelation {
+  constructor(
+    readonly tMinC: number,
+    readonly tMaxC: number,
+    readonly antoine: boolean,
+    readonly k0: number,
+    readonly k1: number,
+    readonly k2: number,
+    readonly k3: number,
+    readonly k4: number,
+  ) {}
+}
+
+function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorrelation {
+  if (correlation.kind === 'antoine') {
+    const logFactor = correlation.log === 'log10' ? LN10 : 1;
+    return new CompiledCorrelation(
+      correlation.tMinC,
+      correlation.tMaxC,
+      true,
+      correlation.a * logFactor + Math.log(kPaPerUnit(correlation.pressureUnit)),
+      correlation.b * logFactor,
+      correlation.temperatureUnit === 'K' ? correlation.c : correlation.c - KELVIN_OFFSET,
+      0,
+      0,
+    );
+  }
+  return new CompiledCorrelation(
+    correlation.tMinC,
+    correlation.tMaxC,
+    false,
+    correlation.c1 + Math.log(0.001),
+    correlation.c2,
+    correlation.c3,
+    correlation.c4,
+    correlation.c5,
+  );
+}
+
+function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): number {
+  const tempK = tempC + KELVIN_OFFSET;
+  if (compiled.antoine) {
+    const denominator = tempK + compiled.k2;
+    return denominator <= 0 ? Number.NaN : Math.exp(compiled.k0 - compiled.k1 / denominator);
+  }
+  const exponent = compiled.k4;
+  // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
+  let power: number;
+  if (exponent === 2) power = tempK * tempK;
+  else if (exponent === 6) {
+    const cube = tempK * tempK * tempK;
+    power = cube * cube;
+  } else if (exponent === 1) power = tempK;
+  else power = Math.pow(tempK, exponent);
+  return Math.exp(compiled.k0 + compiled.k1 / tempK + compiled.k2 * Math.log(tempK) + compiled.k3 * power);
+}
+
+/**
+ * Property sets already checked, with their compiled correlations. Library entries are static
+ * data evaluated millions of times (every location × substance × temperature), so each object is
+ * validated and compiled once and then treated as an immutable value: to change a property,
+ * build a new object rather than editing one in place.
+ */
+const compiledProperties = new WeakMap<VaporProperties, CompiledCorrelation[]>();
+let lastProps: VaporProperties | undefined;
+let lastCompiled: CompiledCorrelation[] = [];
+
+/** Checks every field of the property set; throws HazardInputError on the first bad one. */
+export function validateVaporProperties(props: VaporProperties): void {
+  if (compiledProperties.get(props) === undefined) compileProperties(props);
+}
+
+function compileProperties(props: VaporProperties): CompiledCorrelation[] {
+  if (props === null || typeof props !== 'object') {
+    throw new HazardInputError('empty-input', 'props', 'Vapor properties are missing');
+  }
+  assertPositive(props.molarMassGPerMol, 'props.molarMassGPerMol');
+  const correlations = props.correlations;
+  const compiled: CompiledCorrelation[] = [];
+  if (correlations !== undefined) {
+    if (!Array.isArray(correlations)) {
+      throw new HazardInputError('invalid-correlation', 'props.correlations', 'props.correlations must be an array');
+    }
+    for (let i = 0; i < correlations.length; i++) {
+      validateCorrelation(correlations[i], i);
+      compiled.push(compileCorrelation(correlations[i]));
+    }
+  }
+  if (props.normalBoilingPointC !== undefined) assertTempC(props.normalBoilingPointC, 'props.normalBoilingPointC');
+  if (props.enthalpyOfVaporizationKJPerMol !== undefined) {
+    assertPositive(props.enthalpyOfVaporizationKJPerMol, 'props.enthalpyOfVaporizationKJPerMol');
+  }
+  assertOptionalFinite(props.meltingPointC, 'props.meltingPointC');
+  assertOptionalFinite(props.flashPointC, 'props.flashPointC');
+  if (props.lflVolPercent !== undefined) assertPositive(props.lflVolPercent, 'props.lflVolPercent');
+  if (props.uflVolPercent !== undefined) assertPositive(props.uflVolPercent, 'props.uflVolPercent');
+  compiledProperties.set(props, compiled);
+  return compiled;
+}
+
+/**
+ * Evaluates one correlation in kPa, without range checks. Returns NaN where the Antoine form is
+ * undefined (T + C ≤ 0), which the callers turn into an error or a zero.
+ */
+export function evaluateCorrelationKPa(correlation: VaporPressureCorrelation, tempC: number): number {
+  if (correlation.kind === 'antoine') {
+    const tempInUnit = correlation.temperatureUnit === 'K' ? tempC + KELVIN_OFFSET : tempC;
+    const denominator = tempInUnit + correlation.c;
+    if (denominator <= 0) return Number.NaN;
+    const exponent = correlation.a - correlation.b / denominator;
+    const pressureInUnit = correlation.log === 'log10' ? Math.exp(exponent * LN10) : Math.exp(exponent);
+    return pressureInUnit * kPaPerUnit(correlation.pressureUnit);
+  }
+  const tempK = tempC + KELVIN_OFFSET;
+  const exponent = correlation.c5;
+  // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
+  let power: number;
+  if (exponent === 2) power = tempK * tempK;
+  else if (exponent === 6) {
+    const cube = tempK * tempK * tempK;
+    power = cube * cube;
+  } else if (exponent === 1) power = tempK;
+  else power = Math.pow(tempK, exponent);
+  const lnPressurePa = correlation.c1 + correlation.c2 / tempK + correlation.c3 * Math.log(tempK) + correlation.c4 * power;
+  return Math.exp(lnPressurePa) * 0.001;
+}
+
+function rangeWarning(correlation: VaporPressureCorrelation, tempC: number): string {
+  return `${CORRELATION_LABEL[correlation.kind]} range is ${formatNumber(correlation.tMinC)}\u2026${formatNumber(
+    correlation.tMaxC,
+  )} °C; ${formatNumber(tempC)} °C is extrapolated`;
+}
+
+function supercooledWarning(meltingPointC: number, tempC: number): string {
+  return `${formatNumber(tempC)} °C is below the melting point (${formatNumber(
+    meltingPointC,
+  )} °C): the value is that of the supercooled liquid; the solid's vapor pressure is lower`;
+}
+
+/**
+ * The correlation to use at tempC: the first whose range covers it (returns its index i ≥ 0),
+ * else the one whose range is nearest (returns −(i + 1), i.e. "extrapolated").
+ */
+function chooseCorrelation(correlations: readonly { tMinC: number; tMaxC: number }[], tempC: number): number {
+  const count = correlations.length;
+  for (let i = 0; i < count; i++) {
+    const correlation = correlations[i];
+    if (tempC >= correlation.tMinC && tempC <= correlation.tMaxC) return i;
+  }
+  let bestIndex = 0;
+  let bestDistance = Number.POSITIVE_INFINITY;
+  for (let i = 0; i < count; i++) {
+    const correlation = correlations[i];
+    const distance = tempC < correlation.tMinC ? correlation.tMinC - tempC : tempC - correlation.tMaxC;
+    if (distance < bestDistance) {
+      bestDistance = distance;
+      bestIndex = i;
+    }
+  }
+  return -(bestIndex + 1);
+}
+
+/** The correlation saturationPressure would use at tempC (null when it falls back to Clausius–Clapeyron). */
+export function selectCorrelation(
+  props: VaporProperties,
+  tempC: number,
+): { correlation: VaporPressureCorrelation; index: number; covered: boolean } | null {
+  validateVaporProperties(props);
+  const correlations = props.correlations;
+  if (correlations === undefined || correlations.length === 0) return null;
+  const choice = chooseCorrelation(correlations, tempC);
+  const index = choice >= 0 ? choice : -choice - 1;
+  return { correlation: correlations[index], index, covered: choice >= 0 };
+}
+
+function assertUsablePressure(pressureKPa: number, correlation: VaporPressureCorrelation | null, tempC: number): void {
+  if (Number.isNaN(pressureKPa) && correlation?.kind === 'antoine') {
+    throw new HazardInputError(
+      'correlation-singular',
+      'tempC',
+      `The Antoine equation is undefined at ${formatNumber(tempC)} °C (T + C ≤ 0); ${rangeWarning(correlation, tempC)} too far`,
+    );
+  }
+  if (!Number.isFinite(pressureKPa) || pressureKPa <= 0) {
+    throw new HazardInputError(
+      'out-of-range',
+      'tempC',
+      `No finite vapor pressure can be computed at ${formatNumber(tempC)} °C; the temperature is far outside the data`,
+    );
+  }
+}
+
+/**
+ * Integrated Clausius–Clapeyron equation with constant ΔHvap:
+ * ln(P/P₀) = −(ΔHvap/R)·(1/T − 1/T₀) (e.g. OpenStax Chemistry 2e §10.3; Atkins, Physical Chemistry).
+ * Returns P in kPa.
+ */
+export function integratedClausiusClapeyron(
+  ref: { tempC: number; pressureKPa: number; enthalpyKJPerMol: number },
+  tempC: number,
+): number {
+  if (ref === null || typeof ref !== 'object') throw new HazardInputError('empty-input', 'ref', 'The reference point is missing');
+  assertTempC(ref.tempC, 'ref.tempC');
+  assertPositive(ref.pressureKPa, 'ref.pressureKPa');
+  assertPositive(ref.enthalpyKJPerMol, 'ref.enthalpyKJPerMol');
+  assertTempC(tempC);
+  const pressureKPa = clausiusClapeyronKPa(ref.tempC, ref.pressureKPa, ref.enthalpyKJPerMol, tempC);
+  assertUsablePressure(pressureKPa, null, tempC);
+  return pressureKPa;
+}
+
+function clausiusClapeyronKPa(refTempC: number, refPressureKPa: number, enthalpyKJPerMol: number, tempC: number): number {
+  const refTempK = refTempC + KELVIN_OFFSET;
+  const tempK = tempC + KELVIN_OFFSET;
+  return refPressureKPa * Math.exp(((-enthalpyKJPerMol * 1000) / GAS_CONSTANT_J_PER_MOL_K) * (1 / tempK - 1 / refTempK));
+}
+
+/**
+ * The same equation solved for T: 1/T = 1/T₀ − R·ln(P/P₀)/ΔHvap. Returns °C.
+ * (OpenStax Chemistry 2e §10.3, "Estimating Temperature (or Vapor Pressure)".)
+ */
+export function clausiusClapeyronTemperatureC(
+  ref: { tempC: number; pressureKPa: number; enthalpyKJPerMol: number },
+  pressureKPa: number,
+): number {
+  assertTempC(ref.tempC, 'ref.tempC');
+  assertPositive(ref.pressureKPa, 'ref.pressureKPa');
+  assertPositive(ref.enthalpyKJPerMol, 'ref.enthalpyKJPerMol');
+  assertPositive(pressureKPa, 'pressureKPa');
+  const inverseK =
+    1 / (ref.tempC + KELVIN_OFFSET) - (GAS_CONSTANT_J_PER_MOL_K * Math.log(pressureKPa / ref.pressureKPa)) / (ref.enthalpyKJPerMol * 1000);
+  if (!(inverseK > 0)) {
+    throw new HazardInputError('out-of-range', 'pressureKPa', `No temperature reaches ${pressureKPa} kPa with this reference point`);
+  }
+  return 1 / inverseK - KELVIN_OFFSET;
+}
+
+/** Trouton's rule (common practice): ΔHvap ≈ 88 J·mol⁻¹·K⁻¹ × Tb, in kJ/mol. */
+export function troutonEnthalpyKJPerMol(normalBoilingPointC: number): number {
+  assertTempC(normalBoilingPointC, 'normalBoilingPointC');
+  return (TROUTON_ENTROPY_J_PER_MOL_K * (normalBoilingPointC + KELVIN_OFFSET)) / 1000;
+}
+
+// Side results of computeSaturationKPa, read immediately by the two public wrappers. Using
+// module-level scratch instead of a returned object keeps the hot path free of an allocation;
+// everything here is synchronous, so no other call can interleave.
+let scratchMethod: SaturationPressureMethod = 'antoine';
+/**
+ * Results without warnings share this one frozen empty array, so the hot path allocates nothing
+ * but the result object. Treat every result's `warnings` as read-only: copy it to add to it.
+ */
+const NO_WARNINGS = Object.freeze([]) as unknown as string[];
+let scratchExtrapolated = false;
+let scratchWarnings: string[] | undefined;
+
+function computeSaturationKPa(props: VaporProperties, tempC: number): number {
+  assertTempC(tempC);
+  // One-entry identity check in front of the WeakMap: callers usually evaluate one substance at
+  // several temperatures, or its pressure and then its concentration, in a row.
+  let compiled: CompiledCorrelation[];
+  if (props === lastProps) compiled = lastCompiled;
+  else {
+    compiled = compiledProperties.get(props) ?? compileProperties(props);
+    lastProps = props;
+    lastCompiled = compiled;
+  }
+  let warnings: string[] | undefined;
+  const meltingPointC = props.meltingPointC;
+  if (meltingPointC !== undefined && tempC < meltingPointC) warnings = [supercooledWarning(meltingPointC, tempC)];
+  if (compiled.length > 0) {
+    const choice = chooseCorrelation(compiled, tempC);
+    const covered = choice >= 0;
+    const index = covered ? choice : -choice - 1;
+    const pressureKPa = evaluateCompiledKPa(compiled[index], tempC);
+    if (!(pressureKPa > 0) || pressureKPa === Number.POSITIVE_INFINITY) {
+      assertUsablePressure(pressureKPa, (props.correlations as VaporPressureCorrelation[])[index], tempC);
+    }
+    if (!covered) {
+      const correlation = (props.correlations as VaporPressureCorrelation[])[index];
+      if (warnings === undefined) warnings = [rangeWarning(correlation, tempC)];
+      else warnings.unshift(rangeWarning(correlation, tempC));
+    }
+    scratchMethod = compiled[index].antoine ? 'antoine' : 'dippr101';
+    scratchExtrapolated = !covered;
+    scratchWarnings = warnings;
+    return pressureKPa;
+  }
+  const boilingPointC = props.normalBoilingPointC;
+  if (boilingPointC === undefined) {
+    throw new HazardInputError(
+      'no-method',
+      'props',
+      'No vapor-pressure method is available: give a correlation, or at least the normal boiling point',
+    );
+  }
+  const known = props.enthalpyOfVaporizationKJPerMol;
+  const enthalpyKJPerMol = known ?? (TROUTON_ENTROPY_J_PER_MOL_K * (boilingPointC + KELVIN_OFFSET)) / 1000;
+  const pressureKPa = clausiusClapeyronKPa(boilingPointC, STANDARD_ATMOSPHERE_KPA, enthalpyKJPerMol, tempC);
+  assertUsablePressure(pressureKPa, null, tempC);
+  const list = warnings ?? [];
+  const fallback = [
+    `No vapor-pressure correlation: integrated Clausius–Clapeyron from the normal boiling point (${formatNumber(
+      boilingPointC,
+    )} °C, 101.325 kPa) with constant ΔHvap = ${formatNumber(enthalpyKJPerMol, 2)} kJ/mol; an estimate that grows less certain away from the boiling point`,
+  ];
+  if (known === undefined) {
+    fallback.push(
+      "ΔHvap estimated by Trouton's rule (88 J/(mol·K) × Tb, common practice): about 25 % off for alcohols and water, and it fails for carboxylic acids",
+    );
+  }
+  list.unshift(...fallback);
+  scratchMethod = known === undefined ? 'clausius-clapeyron-trouton' : 'clausius-clapeyron';
+  scratchExtrapolated = true;
+  scratchWarnings = list;
+  return pressureKPa;
+}
+
+/**
+ * Saturation vapor pressure of the pure liquid at tempC.
+ * Method: the first correlation whose range covers T; else the nearest-range correlation,
+ * extrapolated (warning names the range); else integrated Clausius–Clapeyron from the normal
+ * boiling point (101.325 kPa) with ΔHvap; else the same with ΔHvap from Trouton's rule.
+ */
+export function saturationPressure(props: VaporProperties, tempC: number): SaturationPressureResult {
+  const pressureKPa = computeSaturationKPa(props, tempC);
+  return { pressureKPa, method: scratchMethod, extrapolated: scratchExtrapolated, warnings: scratchWarnings ?? NO_WARNINGS };
+}
+
+/**
+ * Saturation pressure without warnings or validation, for root finding. Returns 0 where an
+ * Antoine form is undefined so that bisection sees "below the target".
+ */
+function saturationPressureForSolverKPa(props: VaporProperties, tempC: number): number {
+  const compiled = compiledProperties.get(props) ?? compileProperties(props);
+  if (compiled.length > 0) {
+    const choice = chooseCorrelation(compiled, tempC);
+    const pressureKPa = evaluateCompiledKPa(compiled[choice >= 0 ? choice : -choice - 1], tempC);
+    return Number.isNaN(pressureKPa) ? 0 : pressureKPa;
+  }
+  const boilingPointC = props.normalBoilingPointC as number;
+  const enthalpyKJPerMol =
+    props.enthalpyOfVaporizationKJPerMol ?? (TROUTON_ENTROPY_J_PER_MOL_K * (boilingPointC + KELVIN_OFFSET)) / 1000;
+  return clausiusClapeyronKPa(boilingPointC, STANDARD_ATMOSPHERE_KPA, enthalpyKJPerMol, tempC);
+}
+
+/**
+ * Temperature (°C) at which the saturation pressure reaches targetKPa, by bisection on the same
+ * method choice as saturationPressure. Used for the boiling temperature at a site's pressure and
+ * for the lower flammable temperature.
+ */
+export function temperatureAtSaturationPressureC(props: VaporProperties, targetKPa: number): number {
+  validateVaporProperties(props);
+  assertPositive(targetKPa, 'targetKPa');
+  if ((props.correlations === undefined || props.correlations.length === 0) && props.normalBoilingPointC === undefined) {
+    throw new HazardInputError('no-method', 'props', 'No vapor-pressure method is available');
+  }
+  const stepK = 25;
+  const minimumC = -KELVIN_OFFSET + 1;
+  const maximumC = 3000;
+  let highC = props.normalBoilingPointC ?? 25;
+  while (saturationPressureForSolverKPa(props, highC) < targetKPa) {
+    highC += stepK;
+    if (highC > maximumC) {
+      throw new HazardInputError('out-of-range', 'targetKPa', `The vapor pressure never reaches ${targetKPa} kPa below ${maximumC} °C`);
+    }
+  }
+  let lowC = highC - stepK;
+  while (lowC > minimumC && saturationPressureForSolverKPa(props, lowC) >= targetKPa) lowC -= stepK;
+  if (lowC <= minimumC) lowC = minimumC;
+  for (let i = 0; i < 100 && highC - lowC > 1e-9; i++) {
+    const midC = 0.5 * (lowC + highC);
+    if (saturationPressureForSolverKPa(props, midC) < targetKPa) lowC = midC;
+    else highC = midC;
+  }
+  return 0.5 * (lowC + highC);
+}
+
+function boilsWarning(tempC: number, pressureKPa: number, ambientPressureKPa: number): string {
+  return `At ${formatNumber(tempC)} °C the vapor pressure (${formatSig(pressureKPa, 4)} kPa) reaches the ambient pressure (${formatSig(
+    ambientPressureKPa,
+    5,
+  )} kPa): the liquid boils, the concentration is capped at 100 % by volume, and a closed container can pressurize`;
+}
+
+/**
+ * Equilibrium (saturated) vapor concentration above the pure liquid in still air:
+ * y = Psat/Patm; ppm = 10⁶·y; mg/m³ = ppm × M / Vm(T) with Vm = R·T/Patm
+ * (rules-and-methods §3.6; e.g. J. Chem. Educ. CLIP "Toluene": 22 torr at 20 °C ≈ 29 000 ppm).
+ */
+export function saturatedConcentration(
+  props: VaporProperties,
+  tempC: number,
+  ambientPressureKPa = STANDARD_ATMOSPHERE_KPA,
+): SaturatedConcentrationResult {
+  if (!(ambientPressureKPa > 0) || ambientPressureKPa === Number.POSITIVE_INFINITY) {
+    throw new HazardInputError(
+      Number.isFinite(ambientPressureKPa) ? 'not-positive' : 'not-finite',
+      'ambientPressureKPa',
+      `ambientPressureKPa must be a finite pressure above zero (got ${String(ambientPressureKPa)})`,
+    );
+  }
+  const pressureKPa = computeSaturationKPa(props, tempC);
+  const boils = pressureKPa >= ambientPressureKPa;
+  const moleFraction = boils ? 1 : pressureKPa / ambientPressureKPa;
+  const ppm = moleFraction * 1e6;
+  // mg/m³ = ppm·M/Vm = y·10⁶·M·Patm/(R·T); with Patm in kPa the 10³ of Pa and the 10³ of g→mg cancel.
+  const mgPerM3 = (ppm * props.molarMassGPerMol * ambientPressureKPa) / (GAS_CONSTANT_J_PER_MOL_K * (tempC + KELVIN_OFFSET));
+  let warnings = scratchWarnings;
+  if (boils) {
+    if (warnings === undefined) warnings = [];
+    warnings.push(boilsWarning(tempC, pressureKPa, ambientPressureKPa));
+  }
+  return {
+    ppm,
+    mgPerM3,
+    volumePercent: moleFraction * 100,
+    boils,
+    pressureKPa,
+    warnings: warnings ?? NO_WARNINGS,
+    method: scratchMethod,
+    extrapolated: scratchExtrapolated,
+  };
+}

@@ -1,0 +1,70 @@
+import { describe, expect, it } from 'vitest';
+import { saturationPressure, validateVaporProperties } from '@/lib/hazard';
+import { substanceLibrary } from '@/db/seed/substance-library';
+import { propsOf } from './library';
+
+// The 41 CAS numbers of the reference substance table (substances.csv), plus CO₂ and N₂.
+const REFERENCE_CAS = [
+  '67-64-1', '67-56-1', '64-17-5', '67-63-0', '71-23-8', '71-36-3', '60-29-7', '109-99-9', '123-91-1', '141-78-6',
+  '79-20-9', '75-05-8', '75-09-2', '67-66-3', '56-23-5', '71-43-2', '108-88-3', '95-47-6', '108-38-3', '106-42-3',
+  '100-41-4', '100-42-5', '109-66-0', '78-78-4', '110-54-3', '142-82-5', '110-82-7', '1634-04-4', '75-15-0', '75-07-0',
+  '64-19-7', '64-18-6', '110-86-1', '121-44-8', '68-12-2', '67-68-5', '7732-18-5', '75-52-5', '78-93-3', '108-10-1',
+  '107-06-2',
+];
+
+describe('substance library seed', () => {
+  it('holds the 41 reference liquids, dry ice and liquid nitrogen, once each', () => {
+    const cas = substanceLibrary.map((seed) => seed.cas);
+    expect(new Set(cas).size).toBe(cas.length);
+    expect([...cas].sort()).toEqual([...REFERENCE_CAS, '124-38-9', '7727-37-9'].sort());
+    expect(substanceLibrary.find((seed) => seed.cas === '124-38-9')?.physicalState).toBe('solid');
+    expect(substanceLibrary.find((seed) => seed.cas === '7727-37-9')?.physicalState).toBe('cryogen');
+  });
+
+  it.each(substanceLibrary.map((seed) => [seed.name, seed] as const))('%s: every value has a source', (_name, seed) => {
+    const valueFields = Object.keys(seed).filter((key) => key !== 'sources');
+    for (const field of valueFields) expect(seed.sources[field], `${seed.name}.${field}`).toBeTruthy();
+    for (const correlation of seed.correlations) expect(correlation.source).toBeTruthy();
+    for (const limit of seed.exposureLimits) expect(limit.source).toBeTruthy();
+  });
+
+  it.each(substanceLibrary.map((seed) => [seed.name, seed] as const))('%s: valid engine input', (_name, seed) => {
+    expect(() => validateVaporProperties(propsOf(seed))).not.toThrow();
+    expect(seed.molarMassGPerMol).toBeGreaterThan(0);
+  });
+
+  it('every liquid has a correlation covering 20 °C, listed first', () => {
+    for (const seed of substanceLibrary.filter((entry) => entry.physicalState === 'liquid')) {
+      const first = seed.correlations[0];
+      expect(first.tMinC <= 20 && first.tMaxC >= 20, seed.name).toBe(true);
+      expect(saturationPressure(propsOf(seed), 20).extrapolated, seed.name).toBe(false);
+    }
+  });
+
+  it('warm storeroom (40 °C) is covered without extrapolation for every liquid', () => {
+    for (const seed of substanceLibrary.filter((entry) => entry.physicalState === 'liquid')) {
+      expect(saturationPressure(propsOf(seed), 40).extrapolated, seed.name).toBe(false);
+    }
+  });
+
+  it('refrigerator (4 °C) is covered for every liquid that is liquid at 4 °C, except pyridine', () => {
+    const uncovered = substanceLibrary
+      .filter((seed) => seed.physicalState === 'liquid' && (seed.meltingPointC ?? -999) < 4)
+      .filter((seed) => saturationPressure(propsOf(seed), 4).extrapolated)
+      .map((seed) => seed.name);
+    expect(uncovered).toEqual(['pyridine']);
+  });
+
+  it('keeps disagreeing flammability values beside the primary ones (acetone UFL 14.3 IEC vs 12.8 NFPA 497)', () => {
+    const acetone = substanceLibrary.find((seed) => seed.cas === '67-64-1')!;
+    expect(acetone.uflVolPercent).toBe(14.3);
+    expect(acetone.alternativeFlammability.find((alt) => alt.source.startsWith('NFPA 497'))?.uflVolPercent).toBe(12.8);
+  });
+
+  it('marks values recalled from memory', () => {
+    const pyridine = substanceLibrary.find((seed) => seed.cas === '110-86-1')!;
+    expect(pyridine.sources.meltingPointC).toMatch(/memory/);
+    const co2 = substanceLibrary.find((seed) => seed.cas === '124-38-9')!;
+    expect(co2.sources.enthalpyOfVaporizationKJPerMol).toMatch(/memory/);
+  });
+});
