@@ -247,6 +247,15 @@ export type StoredFile = typeof files.$inferSelect;
 
 export const PHYSICAL_STATES = ["liquid", "solid", "cryogen", "gas"] as const;
 
+export type SubstanceAlternative = {
+  source: string;
+  flashPointC?: number;
+  lflVolPercent?: number;
+  uflVolPercent?: number;
+  autoignitionC?: number;
+  recalledFromMemory?: string[];
+};
+
 /** Stored form of a vapor-pressure correlation (mirrors lib/hazard's VaporPressureCorrelation). */
 export type StoredCorrelation = Record<string, unknown> & { kind: string; tMinC: number; tMaxC: number; source?: string };
 
@@ -272,6 +281,8 @@ export const substances = sqliteTable(
     correlations: text("correlations", { mode: "json" }).$type<StoredCorrelation[]>().notNull().default(sql`'[]'`),
     /** Source of every value: field name → citation. */
     sources: text("sources", { mode: "json" }).$type<Record<string, string>>().notNull().default(sql`'{}'`),
+    /** Flammability values from other sources, kept beside the primary ones for a safety officer to choose. */
+    alternatives: text("alternatives", { mode: "json" }).$type<SubstanceAlternative[]>().notNull().default(sql`'[]'`),
     notes: text("notes"),
     sdsFileId: integer("sds_file_id").references(() => files.id, { onDelete: "set null" }),
     retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
@@ -306,6 +317,8 @@ export const exposureLimits = sqliteTable(
     /** Issuing body, e.g. OSHA, NIOSH, or the organisation itself. */
     body: text("body").notNull(),
     source: text("source").notNull(),
+    /** Averaging period or basis where it differs from the usual one, e.g. "[10%LEL]". */
+    note: text("note"),
   },
   (t) => [index("exposure_limits_substance_idx").on(t.substanceId), check("exposure_limits_value_positive", sql`${t.value} > 0`)],
 );

@@ -8,6 +8,7 @@ import { count } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { rooms, sites, storageUnits, users, type NewRoom, type NewStorageUnit, type Role } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
+import { seedSubstanceLibrary } from "./substances";
 
 export const DEMO_PASSWORD = "headroom-demo";
 
@@ -149,8 +150,21 @@ export async function isDatabaseEmpty(db: Db): Promise<boolean> {
   return (await db.$count(users)) === 0;
 }
 
-/** Seeds the demo organisation into an empty database, in one transaction. Returns false if not empty. */
+/**
+ * Loads the substance library when the substances table is empty, then the demo organisation when
+ * there are no users yet, each in one transaction. Returns whether the organisation was seeded.
+ */
 export async function seedDemo(db: Db, options: { bcryptCost?: number } = {}): Promise<boolean> {
+  db.transaction((tx) => {
+    const loaded = seedSubstanceLibrary(tx);
+    if (loaded > 0) {
+      recordAudit(tx, { system: "substance library" }, {
+        action: "seed",
+        entityType: "substance",
+        summary: `Loaded the substance library (${loaded} substances, every value with its source)`,
+      });
+    }
+  });
   if (!(await isDatabaseEmpty(db))) return false;
   const cost = options.bcryptCost ?? 12;
   const hash = await bcrypt.hash(DEMO_PASSWORD, cost);

@@ -5,7 +5,9 @@
  */
 import fs from "node:fs";
 import path from "node:path";
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { seedSubstanceLibrary } from "@/db/seed/substances";
 import { can, ROLES, type Action } from "@/lib/auth/permissions";
 import { call, makeUser, sessionCookieFor } from "./helpers/world";
 
@@ -18,6 +20,9 @@ const ROUTES: Entry[] = [
   { file: "me/route.ts", method: "GET", path: "/api/v1/me", action: "profile.update" },
   { file: "users/route.ts", method: "GET", path: "/api/v1/users", action: "users.manage" },
   { file: "users/route.ts", method: "POST", path: "/api/v1/users", action: "users.manage", body: { email: "new.person@example.test", name: "New Person", role: "researcher" } },
+  { file: "substances/route.ts", method: "GET", path: "/api/v1/substances?q=acet", action: "substances.read" },
+  { file: "substances/[id]/route.ts", method: "GET", path: "/api/v1/substances/1", action: "substances.read", params: { id: "1" } },
+  { file: "substances/[id]/vapor-pressure/route.ts", method: "GET", path: "/api/v1/substances/1/vapor-pressure?tempC=20", action: "substances.read", params: { id: "1" } },
   // The catch-all answers 404 for unknown paths whoever asks.
   ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
 ];
@@ -38,6 +43,10 @@ async function handlerFor(entry: Entry): Promise<Handler> {
   if (!handler) throw new Error(`${entry.file} has no ${entry.method}`);
   return handler;
 }
+
+beforeAll(() => {
+  getDb().transaction((tx) => seedSubstanceLibrary(tx));
+});
 
 describe("the /api/v1 access table", () => {
   it("lists every exported handler of every route file", async () => {
@@ -72,7 +81,7 @@ describe.each(ROUTES.filter((r) => r.action !== "public" && r.action !== "none")
 
   it.each(refused)("answers 403 for the %s role", async (role) => {
     const cookie = await sessionCookieFor(makeUser(role));
-    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body: entry.body, cookie });
+    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body: entry.body, cookie, params: entry.params });
     expect(response.status).toBe(403);
     expect(response.body).toEqual({ error: { code: "forbidden", message: expect.any(String) } });
   });
@@ -80,7 +89,7 @@ describe.each(ROUTES.filter((r) => r.action !== "public" && r.action !== "none")
   it.each(allowed)("lets the %s role through", async (role) => {
     const cookie = await sessionCookieFor(makeUser(role));
     const body = entry.body && typeof entry.body === "object" ? { ...entry.body, email: `${role}.${Math.random().toString(36).slice(2)}@example.test` } : entry.body;
-    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body, cookie });
+    const response = await call(await handlerFor(entry), { method: entry.method, path: entry.path, body, cookie, params: entry.params });
     expect(response.status).toBeLessThan(300);
   });
 });

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
 import { listSubstancesBrief } from "@/db/queries/inventory";
 import { requirePagePermission } from "@/lib/auth/page";
@@ -30,7 +31,11 @@ export default async function SubstancesPage() {
               <tbody className="tabular">
                 {rows.map((s) => (
                   <tr key={s.id} className="border-b border-ink-100 last:border-0">
-                    <td className="px-4 py-2 font-medium">{s.name}</td>
+                    <td className="px-4 py-2 font-medium">
+                      <Link href={`/substances/${s.id}`} className="text-accent-800 hover:underline">
+                        {s.name}
+                      </Link>
+                    </td>
                     <td className="px-4 py-2 font-mono text-xs">{s.cas ?? "—"}</td>
                     <td className="px-4 py-2 text-right">{formatTempC(s.normalBoilingPointC)}</td>
                     <td className="px-4 py-2 text-right">{formatTempC(s.flashPointC)}</td>

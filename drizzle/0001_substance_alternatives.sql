@@ -1,0 +1,2 @@
+ALTER TABLE `exposure_limits` ADD `note` text;--> statement-breakpoint
+ALTER TABLE `substances` ADD `alternatives` text DEFAULT '[]' NOT NULL;
