@@ -84,6 +84,9 @@ export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowe
       <figcaption className="mt-2 text-xs text-ink-600">
         Solid line: within the correlation&apos;s range. Dashed: extrapolated or estimated. Red dashed line: the LFL as a partial pressure at{" "}
         {formatNumber(ambientPressureKPa, 4)} kPa; where the curve crosses it is the lower flammable temperature (LFT).
+        {lowerFlammableTemperatureC != null && !lftOnChart
+          ? ` The LFT, ${formatNumber(lowerFlammableTemperatureC, 3)} °C, is ${lowerFlammableTemperatureC < -40 ? "below" : "above"} the chart's range.`
+          : ""}
       </figcaption>
     </figure>
   );

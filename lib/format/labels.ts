@@ -23,3 +23,10 @@ export const ROOM_KIND_LABELS: Record<RoomKind, string> = {
   corridor: "Corridor",
   other: "Other",
 };
+
+export const VAPOR_METHOD_LABELS: Record<string, string> = {
+  antoine: "Antoine equation",
+  dippr101: "DIPPR 101 equation",
+  "clausius-clapeyron": "Clausius–Clapeyron from the boiling point",
+  "clausius-clapeyron-trouton": "Clausius–Clapeyron with Trouton's rule (estimate)",
+};

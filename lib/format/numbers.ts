@@ -4,8 +4,12 @@
  */
 const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
 
-/** 3 significant figures by default; ×10ⁿ notation from 10⁵ up or below 10⁻³. */
+/** 3 significant figures by default; ×10ⁿ notation from 10⁵ up or below 10⁻³; a true minus sign. */
 export function formatNumber(value: number | null | undefined, significant = 3): string {
+  return formatMagnitude(value, significant).replace(/^-/, "−");
+}
+
+function formatMagnitude(value: number | null | undefined, significant: number): string {
   if (value == null || !Number.isFinite(value)) return "—";
   if (value === 0) return "0";
   const magnitude = Math.abs(value);

@@ -6,6 +6,7 @@ import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getSubstance } from "@/db/queries/substances";
 import { requirePagePermission } from "@/lib/auth/page";
+import { VAPOR_METHOD_LABELS } from "@/lib/format/labels";
 import { formatNumber, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
 import { idParam } from "@/lib/http/paging";
@@ -92,7 +93,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
         <div className="rounded-lg border border-ink-200 bg-white px-4 py-3">
           <dt className="text-xs font-medium uppercase tracking-wide text-ink-600">Psat at 20 °C</dt>
           <dd className="tabular mt-1 text-xl font-semibold">{at20 ? formatQuantity(at20.pressureKPa, "kPa") : "—"}</dd>
-          <dd className="text-xs text-ink-600">{at20 ? `${at20.method}${at20.extrapolated ? ", extrapolated" : ""}` : at20Error}</dd>
+          <dd className="text-xs text-ink-600">{at20 ? `${VAPOR_METHOD_LABELS[at20.method] ?? at20.method}${at20.extrapolated ? ", extrapolated" : ""}` : at20Error}</dd>
         </div>
         <div className="rounded-lg border border-ink-200 bg-white px-4 py-3">
           <dt className="text-xs font-medium uppercase tracking-wide text-ink-600">Saturated at 20 °C, 1 atm</dt>
@@ -139,7 +140,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
                   <td className="tabular whitespace-nowrap py-2 pr-3 text-right font-medium">
                     {p.temp ? formatTempC(values[p.key]) : formatQuantity(values[p.key], p.unit, p.digits ?? 3)}
                   </td>
-                  <td className="py-2 text-xs text-ink-600">{sourceFor(row.sources, p.key) ?? "source not recorded"}</td>
+                  <td className="py-2 text-xs text-ink-600 [overflow-wrap:anywhere]">{sourceFor(row.sources, p.key) ?? "source not recorded"}</td>
                 </tr>
               ))}
             </tbody>
@@ -159,7 +160,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
                         {l.body} {l.kind}
                       </th>
                       <td className="tabular whitespace-nowrap py-2 pr-3 text-right">{formatQuantity(l.value, l.unit === "mg/m3" ? "mg/m³" : l.unit, 4)}</td>
-                      <td className="py-2 text-xs text-ink-600">
+                      <td className="py-2 text-xs text-ink-600 [overflow-wrap:anywhere]">
                         {l.note ? `${l.note} · ` : ""}
                         {l.source}
                       </td>
@@ -175,7 +176,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
                 <li key={index}>
                   <p className="font-medium">{correlationText(corr)}</p>
                   <p className="tabular text-xs text-ink-700">valid {rangeText(corr)}</p>
-                  {corr.source ? <p className="text-xs text-ink-600">{corr.source}</p> : null}
+                  {corr.source ? <p className="text-xs text-ink-600 [overflow-wrap:anywhere]">{corr.source}</p> : null}
                 </li>
               ))}
             </ol>
@@ -186,7 +187,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
       {row.alternatives.length || row.notes ? (
         <Card title="Other sources and notes">
           {row.alternatives.map((alt, i) => (
-            <p key={i} className="tabular mb-2 text-sm text-ink-700">
+            <p key={i} className="tabular mb-2 text-sm text-ink-700 [overflow-wrap:anywhere]">
               {alt.source}: {alt.flashPointC != null ? `flash point ${formatTempC(alt.flashPointC)}; ` : ""}
               {alt.lflVolPercent != null ? `LFL ${formatNumber(alt.lflVolPercent, 2)} % vol; ` : ""}
               {alt.uflVolPercent != null ? `UFL ${formatNumber(alt.uflVolPercent, 3)} % vol; ` : ""}
