@@ -4,6 +4,16 @@ import type { DbOrTx } from "@/db/client";
 import { exposureLimits, substances } from "@/db/schema";
 import { substanceLibrary, type SubstanceSeed } from "./substance-library";
 
+/** The library names a few source keys after its own fields; the table's columns differ. */
+function sourcesByColumn(seed: SubstanceSeed): Record<string, string> {
+  const renamed: Record<string, string> = {
+    autoignitionC: "autoignitionTempC",
+    liquidDensityGPerMl: "liquidDensityKgPerM3",
+    ...(seed.physicalState === "solid" ? { enthalpyOfVaporizationKJPerMol: "enthalpyOfSublimationKJPerMol" } : {}),
+  };
+  return Object.fromEntries(Object.entries(seed.sources).map(([key, source]) => [renamed[key] ?? key, source]));
+}
+
 export function substanceRow(seed: SubstanceSeed): typeof substances.$inferInsert {
   const isSublimingSolid = seed.physicalState === "solid";
   return {
@@ -23,7 +33,7 @@ export function substanceRow(seed: SubstanceSeed): typeof substances.$inferInser
     uflVolPercent: seed.uflVolPercent ?? null,
     autoignitionTempC: seed.autoignitionC ?? null,
     correlations: seed.correlations as unknown as typeof substances.$inferInsert["correlations"],
-    sources: seed.sources,
+    sources: sourcesByColumn(seed),
     alternatives: seed.alternativeFlammability,
     notes: seed.notes.length ? seed.notes.join("\n") : null,
   };

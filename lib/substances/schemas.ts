@@ -1,5 +1,7 @@
 import { z } from "zod";
+import { EXPOSURE_LIMIT_KINDS, EXPOSURE_LIMIT_UNITS, PHYSICAL_STATES } from "@/db/schema";
 import { pagingSchema } from "@/lib/http/paging";
+import { optionalNumber, optionalText, requiredNumber, requiredText } from "@/lib/validation/fields";
 
 export const substanceListQuerySchema = pagingSchema.extend({
   q: z.string().trim().max(200, "q is at most 200 characters.").optional(),
@@ -28,3 +30,112 @@ export const vaporPressureQuerySchema = z.object({
     .refine((p) => p === undefined || Number.isFinite(p), "ambientPressureKPa must be a number, in kPa.")
     .refine((p) => p === undefined || (p >= 50 && p <= 120), "ambientPressureKPa must be between 50 and 120 kPa."),
 });
+
+// ----- writing substances (safety officers) ----------------------------------------------------
+
+/** CAS registry number: digits-digits-check digit, where the check digit is Σ(digit × position from the right) mod 10. */
+export function isValidCasNumber(cas: string): boolean {
+  const match = /^(\d{2,7})-(\d{2})-(\d)$/.exec(cas);
+  if (!match) return false;
+  const digits = (match[1] + match[2]).split("").reverse();
+  const sum = digits.reduce((total, d, i) => total + Number(d) * (i + 1), 0);
+  return sum % 10 === Number(match[3]);
+}
+
+const n = (label: string, unit: string, min: number, max: number) => optionalNumber({ label, unit, min, max });
+
+/** Property fields a safety officer edits; each one with a value needs a source. */
+export const SUBSTANCE_VALUE_FIELDS = [
+  "molarMassGPerMol",
+  "normalBoilingPointC",
+  "meltingPointC",
+  "enthalpyOfVaporizationKJPerMol",
+  "enthalpyOfSublimationKJPerMol",
+  "liquidDensityKgPerM3",
+  "flashPointC",
+  "lflVolPercent",
+  "uflVolPercent",
+  "autoignitionTempC",
+] as const;
+
+const correlationSchema = z
+  .object({
+    kind: z.enum(["antoine", "dippr101"]),
+    tMinC: z.number(),
+    tMaxC: z.number(),
+    source: z.string().trim().min(1, "Each correlation needs its source."),
+  })
+  .passthrough();
+
+const substanceFields = {
+  cas: z
+    .union([z.string(), z.null()])
+    .optional()
+    .transform((v) => (v == null || v.trim() === "" ? (v === undefined ? undefined : null) : v.trim()))
+    .refine((v) => v == null || isValidCasNumber(v), "Enter a valid CAS number, like 67-64-1 (its last digit is a check digit)."),
+  name: requiredText("Name", 120),
+  synonyms: z
+    .union([z.array(z.string()), z.string()])
+    .optional()
+    .transform((v) =>
+      v === undefined ? undefined : (Array.isArray(v) ? v : v.split(/[,;\n]/)).map((s) => s.trim()).filter((s) => s.length > 0),
+    ),
+  formula: optionalText("Formula", 60),
+  physicalState: z.enum(PHYSICAL_STATES).optional(),
+  molarMassGPerMol: requiredNumber({ label: "Molar mass", unit: "g/mol", exclusiveMin: 0, max: 5000 }),
+  normalBoilingPointC: n("Normal boiling point", "°C", -273, 1000),
+  meltingPointC: n("Melting point", "°C", -273, 1000),
+  enthalpyOfVaporizationKJPerMol: optionalNumber({ label: "Enthalpy of vaporization", unit: "kJ/mol", exclusiveMin: 0, max: 500 }),
+  enthalpyOfSublimationKJPerMol: optionalNumber({ label: "Enthalpy of sublimation", unit: "kJ/mol", exclusiveMin: 0, max: 500 }),
+  liquidDensityKgPerM3: optionalNumber({ label: "Liquid density", unit: "kg/m³", exclusiveMin: 0, max: 25_000 }),
+  flashPointC: n("Flash point", "°C", -200, 500),
+  lflVolPercent: optionalNumber({ label: "LFL", unit: "% vol", exclusiveMin: 0, max: 100 }),
+  uflVolPercent: optionalNumber({ label: "UFL", unit: "% vol", exclusiveMin: 0, max: 100 }),
+  autoignitionTempC: n("Autoignition temperature", "°C", -50, 1500),
+  correlations: z
+    .union([z.array(correlationSchema), z.string()])
+    .optional()
+    .transform((v, ctx) => {
+      if (v === undefined || Array.isArray(v)) return v;
+      if (v.trim() === "") return [];
+      try {
+        const parsed = z.array(correlationSchema).safeParse(JSON.parse(v));
+        if (parsed.success) return parsed.data;
+        ctx.addIssue({ code: "custom", message: parsed.error.issues[0]?.message ?? "Invalid correlations." });
+      } catch {
+        ctx.addIssue({ code: "custom", message: "Correlations must be a JSON list, like the example." });
+      }
+      return z.NEVER;
+    }),
+  sources: z.record(z.string(), z.string().trim().max(1000)).optional(),
+  exposureLimits: z
+    .array(
+      z.object({
+        kind: z.enum(EXPOSURE_LIMIT_KINDS),
+        value: requiredNumber({ label: "Limit", exclusiveMin: 0, max: 1e6 }),
+        unit: z.enum(EXPOSURE_LIMIT_UNITS),
+        body: requiredText("Issuing body", 60),
+        source: requiredText("Source", 1000),
+        note: optionalText("Note", 200),
+      }),
+    )
+    .optional(),
+  notes: optionalText("Notes", 4000),
+};
+
+function sourcesCoverValues(value: Record<string, unknown>, ctx: z.RefinementCtx): void {
+  const sources = (value.sources ?? {}) as Record<string, string>;
+  for (const field of SUBSTANCE_VALUE_FIELDS) {
+    if (value[field] != null && !sources[field]?.trim()) {
+      ctx.addIssue({ code: "custom", path: [`sources.${field}`], message: "Give the source of this value." });
+    }
+  }
+  const lfl = value.lflVolPercent as number | null | undefined;
+  const ufl = value.uflVolPercent as number | null | undefined;
+  if (lfl != null && ufl != null && ufl <= lfl) ctx.addIssue({ code: "custom", path: ["uflVolPercent"], message: "The UFL must be above the LFL." });
+}
+
+export const substanceCreateSchema = z.object(substanceFields).superRefine(sourcesCoverValues);
+/** An update sends the whole edited record (the form shows every field), so the same rules apply. */
+export const substanceUpdateSchema = z.object(substanceFields).superRefine(sourcesCoverValues);
+export type SubstanceWriteInput = z.output<typeof substanceCreateSchema>;

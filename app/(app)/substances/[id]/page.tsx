@@ -31,18 +31,6 @@ const PROPERTY_ROWS: { key: string; label: string; unit: string; digits?: number
   { key: "autoignitionTempC", label: "Autoignition temperature", unit: "°C", temp: true },
 ];
 
-/** Source keys in the library use the seed's field names; a few differ from the column names. */
-const SOURCE_KEYS: Record<string, string[]> = {
-  autoignitionTempC: ["autoignitionTempC", "autoignitionC"],
-  enthalpyOfSublimationKJPerMol: ["enthalpyOfSublimationKJPerMol", "enthalpyOfVaporizationKJPerMol"],
-  liquidDensityKgPerM3: ["liquidDensityKgPerM3", "liquidDensityGPerMl"],
-};
-
-function sourceFor(sources: Record<string, string>, key: string): string | undefined {
-  for (const k of SOURCE_KEYS[key] ?? [key]) if (sources[k]) return sources[k];
-  return undefined;
-}
-
 function rangeText(c: Record<string, unknown>): string {
   return `${formatTempC(c.tMinC as number)} … ${formatTempC(c.tMaxC as number)}`;
 }
@@ -140,7 +128,7 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
                   <td className="tabular whitespace-nowrap py-2 pr-3 text-right font-medium">
                     {p.temp ? formatTempC(values[p.key]) : formatQuantity(values[p.key], p.unit, p.digits ?? 3)}
                   </td>
-                  <td className="py-2 text-xs text-ink-600 [overflow-wrap:anywhere]">{sourceFor(row.sources, p.key) ?? "source not recorded"}</td>
+                  <td className="py-2 text-xs text-ink-600 [overflow-wrap:anywhere]">{row.sources[p.key] ?? "source not recorded"}</td>
                 </tr>
               ))}
             </tbody>

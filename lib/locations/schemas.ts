@@ -1,0 +1,65 @@
+/** One schema per form, shared by the forms, the server actions and the JSON API. */
+import { z } from "zod";
+import { ROOM_KINDS, STORAGE_UNIT_KINDS } from "@/db/schema";
+import { codeText, optionalId, optionalNumber, optionalText, requiredId, requiredNumber, requiredText, yesNo } from "@/lib/validation/fields";
+
+export const siteFields = {
+  name: requiredText("Name", 120),
+  address: optionalText("Address", 300),
+  elevationM: optionalNumber({ label: "Elevation", unit: "m", min: -500, max: 6000 }),
+  atmosphericPressureKPa: optionalNumber({ label: "Atmospheric pressure", unit: "kPa", min: 50, max: 110 }),
+};
+export const siteCreateSchema = z.object(siteFields);
+export const siteUpdateSchema = z.object(siteFields).partial();
+
+const tempC = (label: string) => optionalNumber({ label, unit: "°C", min: -200, max: 100 });
+
+const roomFields = {
+  siteId: requiredId("site"),
+  code: codeText("Room code"),
+  name: requiredText("Room name", 120),
+  kind: z.enum(ROOM_KINDS, { error: "Choose the kind of room." }),
+  floorAreaM2: optionalNumber({ label: "Floor area", unit: "m²", exclusiveMin: 0, max: 100_000 }),
+  heightM: optionalNumber({ label: "Height", unit: "m", min: 1.5, max: 30 }),
+  airChangesPerHour: optionalNumber({ label: "Air changes per hour", unit: "per hour", min: 0, max: 100 }),
+  mixingFactor: optionalNumber({ label: "Mixing factor", exclusiveMin: 0, max: 1 }),
+  designMaxTempC: tempC("Design maximum temperature"),
+  sprinklered: yesNo("Sprinklered"),
+  setMinC: tempC("Set range minimum"),
+  setMaxC: tempC("Set range maximum"),
+  excursionThresholdC: tempC("Excursion threshold"),
+  excursionMinDurationMin: optionalNumber({ label: "Minimum excursion duration", unit: "min", min: 1, max: 10_080, integer: true }),
+  facilitiesContactId: optionalId("facilities contact"),
+  notes: optionalText("Notes"),
+};
+
+function setRangeOrdered(value: { setMinC?: number | null; setMaxC?: number | null }, ctx: z.RefinementCtx) {
+  if (value.setMinC != null && value.setMaxC != null && value.setMinC > value.setMaxC) {
+    ctx.addIssue({ code: "custom", path: ["setMaxC"], message: "The set range maximum must not be below its minimum." });
+  }
+}
+
+export const roomCreateSchema = z.object(roomFields).superRefine(setRangeOrdered);
+export const roomUpdateSchema = z.object(roomFields).partial().superRefine(setRangeOrdered);
+
+const unitFields = {
+  roomId: requiredId("room"),
+  code: codeText("Unit code"),
+  name: requiredText("Unit name", 120),
+  kind: z.enum(STORAGE_UNIT_KINDS, { error: "Choose the kind of storage unit." }),
+  internalVolumeL: optionalNumber({ label: "Internal volume", unit: "L", exclusiveMin: 0, max: 100_000 }),
+  setMinC: tempC("Set range minimum"),
+  setMaxC: tempC("Set range maximum"),
+  excursionThresholdC: tempC("Excursion threshold"),
+  excursionMinDurationMin: optionalNumber({ label: "Minimum excursion duration", unit: "min", min: 1, max: 10_080, integer: true }),
+  ventilated: yesNo("Ventilated"),
+  ignitionSourceFree: yesNo("Interior free of ignition sources"),
+  ownerId: optionalId("owner"),
+  notes: optionalText("Notes"),
+};
+export const storageUnitCreateSchema = z.object(unitFields).superRefine(setRangeOrdered);
+export const storageUnitUpdateSchema = z.object(unitFields).partial().superRefine(setRangeOrdered);
+
+export type SiteInput = z.output<typeof siteCreateSchema>;
+export type RoomInput = z.output<typeof roomCreateSchema>;
+export type StorageUnitInput = z.output<typeof storageUnitCreateSchema>;

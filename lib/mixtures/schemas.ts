@@ -1,0 +1,34 @@
+import { z } from "zod";
+import { FRACTION_BASES } from "@/db/schema";
+import { optionalText, requiredId, requiredNumber, requiredText } from "@/lib/validation/fields";
+import { checkFractionSum } from "./fractions";
+
+export const mixtureCreateSchema = z
+  .object({
+    name: requiredText("Name", 120),
+    description: optionalText("Description", 1000),
+    fractionBasis: z.enum(FRACTION_BASES, { error: "Choose mass or mole fractions." }),
+    components: z
+      .array(
+        z.object({
+          substanceId: requiredId("substance"),
+          fraction: requiredNumber({ label: "Fraction", exclusiveMin: 0, max: 1 }),
+        }),
+        { error: "Add the mixture's components." },
+      )
+      .min(1, "Add at least one component.")
+      .max(20, "A mixture has at most 20 components."),
+  })
+  .superRefine((value, ctx) => {
+    const seen = new Set<number>();
+    value.components.forEach((component, index) => {
+      if (seen.has(component.substanceId)) {
+        ctx.addIssue({ code: "custom", path: ["components", index, "substanceId"], message: "This substance is listed twice." });
+      }
+      seen.add(component.substanceId);
+    });
+    const check = checkFractionSum(value.components.map((c) => c.fraction));
+    if (!check.ok) ctx.addIssue({ code: "custom", path: ["components"], message: check.message });
+  });
+
+export type MixtureInput = z.output<typeof mixtureCreateSchema>;
