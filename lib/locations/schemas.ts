@@ -1,7 +1,7 @@
 /** One schema per form, shared by the forms, the server actions and the JSON API. */
 import { z } from "zod";
 import { ROOM_KINDS, STORAGE_UNIT_KINDS } from "@/db/schema";
-import { codeText, optionalId, optionalNumber, optionalText, requiredId, requiredNumber, requiredText, yesNo } from "@/lib/validation/fields";
+import { codeText, optionalId, optionalNumber, optionalText, requiredId, requiredText, yesNo } from "@/lib/validation/fields";
 
 export const siteFields = {
   name: requiredText("Name", 120),

@@ -17,7 +17,7 @@ import * as unitsRoute from "@/app/api/v1/storage-units/route";
 import * as sitesRoute from "@/app/api/v1/sites/route";
 import * as mixturesRoute from "@/app/api/v1/mixtures/route";
 import * as substanceRoute from "@/app/api/v1/substances/[id]/route";
-import { call, makeUser, sessionCookieFor } from "./helpers/world";
+import { call, sessionCookieFor } from "./helpers/world";
 
 const cookies = {} as Record<Role, string>;
 const userIds = {} as Record<Role, number>;
