@@ -22,11 +22,33 @@ const createdAt = () => integer("created_at", { mode: "timestamp_ms" }).notNull(
 const updatedAt = () => integer("updated_at", { mode: "timestamp_ms" }).notNull().default(nowMs);
 
 import { ROLES, type Role } from "../lib/auth/roles";
+import {
+  ALERT_DELIVERIES,
+  AMOUNT_UNITS,
+  CONTAINER_KINDS,
+  CONTAINER_STATES,
+  EMAIL_STATUSES,
+  EXPOSURE_LIMIT_KINDS,
+  EXPOSURE_LIMIT_UNITS,
+  FINDING_EVENT_KINDS,
+  FINDING_STATUSES,
+  FRACTION_BASES,
+  JOB_STATUSES,
+  PHYSICAL_STATES,
+  QUANTITY_LIMIT_SCOPES,
+  ROOM_KINDS,
+  SCENARIOS,
+  SEVERITIES,
+  STORAGE_UNIT_KINDS,
+  USER_TOKEN_KINDS,
+  type LiquidClass,
+} from "./enums";
 
 export { ROLES, type Role };
+export {
+  ALERT_DELIVERIES, type AlertDelivery, USER_TOKEN_KINDS, type UserTokenKind, ROOM_KINDS, type RoomKind, STORAGE_UNIT_KINDS, type StorageUnitKind, PHYSICAL_STATES, EXPOSURE_LIMIT_KINDS, EXPOSURE_LIMIT_UNITS, FRACTION_BASES, AMOUNT_UNITS, type AmountUnit, CONTAINER_KINDS, CONTAINER_STATES, type ContainerState, SEVERITIES, type Severity, FINDING_STATUSES, type FindingStatus, SCENARIOS, type Scenario, FINDING_EVENT_KINDS, EMAIL_STATUSES, LIQUID_CLASSES, type LiquidClass, QUANTITY_LIMIT_SCOPES, JOB_STATUSES,
+} from "./enums";
 
-export const ALERT_DELIVERIES = ["immediate", "digest", "off"] as const;
-export type AlertDelivery = (typeof ALERT_DELIVERIES)[number];
 
 // ---------------------------------------------------------------------------------------------
 // People, sign-in and access
@@ -57,8 +79,6 @@ export const users = sqliteTable(
 export type User = typeof users.$inferSelect;
 export type NewUser = typeof users.$inferInsert;
 
-export const USER_TOKEN_KINDS = ["invitation", "password_reset"] as const;
-export type UserTokenKind = (typeof USER_TOKEN_KINDS)[number];
 
 /** Single-use links (invitations, password resets). Only a SHA-256 of the token is stored. */
 export const userTokens = sqliteTable(
@@ -131,8 +151,6 @@ export const sites = sqliteTable(
 export type Site = typeof sites.$inferSelect;
 export type NewSite = typeof sites.$inferInsert;
 
-export const ROOM_KINDS = ["storeroom", "laboratory", "cold_room", "corridor", "other"] as const;
-export type RoomKind = (typeof ROOM_KINDS)[number];
 
 export const rooms = sqliteTable(
   "rooms",
@@ -172,21 +190,6 @@ export const rooms = sqliteTable(
 export type Room = typeof rooms.$inferSelect;
 export type NewRoom = typeof rooms.$inferInsert;
 
-export const STORAGE_UNIT_KINDS = [
-  "open_shelving",
-  "flammable_cabinet",
-  "corrosives_cabinet",
-  "ventilated_cabinet",
-  "domestic_refrigerator",
-  "flammable_storage_refrigerator",
-  "explosion_proof_refrigerator",
-  "freezer_minus_20",
-  "freezer_minus_80",
-  "cryogen_area",
-  "fume_hood",
-  "other",
-] as const;
-export type StorageUnitKind = (typeof STORAGE_UNIT_KINDS)[number];
 
 export const storageUnits = sqliteTable(
   "storage_units",
@@ -245,7 +248,6 @@ export type StoredFile = typeof files.$inferSelect;
 // Substances and mixtures
 // ---------------------------------------------------------------------------------------------
 
-export const PHYSICAL_STATES = ["liquid", "solid", "cryogen", "gas"] as const;
 
 export type SubstanceAlternative = {
   source: string;
@@ -301,8 +303,6 @@ export const substances = sqliteTable(
 export type Substance = typeof substances.$inferSelect;
 export type NewSubstance = typeof substances.$inferInsert;
 
-export const EXPOSURE_LIMIT_KINDS = ["TWA", "STEL", "ceiling", "IDLH"] as const;
-export const EXPOSURE_LIMIT_UNITS = ["ppm", "mg/m3"] as const;
 
 export const exposureLimits = sqliteTable(
   "exposure_limits",
@@ -324,7 +324,6 @@ export const exposureLimits = sqliteTable(
 );
 export type ExposureLimit = typeof exposureLimits.$inferSelect;
 
-export const FRACTION_BASES = ["mass", "mole"] as const;
 
 export const mixtures = sqliteTable(
   "mixtures",
@@ -366,24 +365,6 @@ export type MixtureComponent = typeof mixtureComponents.$inferSelect;
 // Containers
 // ---------------------------------------------------------------------------------------------
 
-export const AMOUNT_UNITS = ["mL", "L", "g", "kg"] as const;
-export type AmountUnit = (typeof AMOUNT_UNITS)[number];
-export const CONTAINER_KINDS = [
-  "glass_bottle",
-  "plastic_bottle",
-  "metal_can",
-  "safety_can",
-  "carboy",
-  "drum",
-  "ampoule",
-  "vial",
-  "dewar",
-  "gas_cylinder",
-  "bag",
-  "other",
-] as const;
-export const CONTAINER_STATES = ["sealed", "opened", "in_use", "empty", "disposed"] as const;
-export type ContainerState = (typeof CONTAINER_STATES)[number];
 
 export const containers = sqliteTable(
   "containers",
@@ -531,12 +512,6 @@ export type Excursion = typeof excursions.$inferSelect;
 // The register
 // ---------------------------------------------------------------------------------------------
 
-export const SEVERITIES = ["critical", "high", "moderate", "low"] as const;
-export type Severity = (typeof SEVERITIES)[number];
-export const FINDING_STATUSES = ["open", "acknowledged", "mitigating", "resolved", "risk_accepted"] as const;
-export type FindingStatus = (typeof FINDING_STATUSES)[number];
-export const SCENARIOS = ["room_worst_case", "in_control", "control_lost", "spill"] as const;
-export type Scenario = (typeof SCENARIOS)[number];
 
 export const findings = sqliteTable(
   "findings",
@@ -587,18 +562,6 @@ export const findings = sqliteTable(
 export type Finding = typeof findings.$inferSelect;
 export type NewFinding = typeof findings.$inferInsert;
 
-export const FINDING_EVENT_KINDS = [
-  "raised",
-  "updated",
-  "acknowledged",
-  "mitigation_started",
-  "resolved",
-  "auto_resolved",
-  "reopened",
-  "risk_accepted",
-  "comment",
-  "assigned",
-] as const;
 
 export const findingEvents = sqliteTable(
   "finding_events",
@@ -624,7 +587,6 @@ export type FindingEvent = typeof findingEvents.$inferSelect;
 // E-mail outbox, audit log, settings, quantity limits, background jobs
 // ---------------------------------------------------------------------------------------------
 
-export const EMAIL_STATUSES = ["queued", "sending", "sent"] as const;
 
 export const emailMessages = sqliteTable(
   "email_messages",
@@ -685,9 +647,6 @@ export const settings = sqliteTable("settings", {
   updatedById: integer("updated_by_id").references(() => users.id, { onDelete: "set null" }),
 }, (t) => [index("settings_updated_by_idx").on(t.updatedById)]);
 
-export const LIQUID_CLASSES = ["IA", "IB", "IC", "II", "IIIA", "IIIB"] as const;
-export type LiquidClass = (typeof LIQUID_CLASSES)[number];
-export const QUANTITY_LIMIT_SCOPES = ["room", "flammable_cabinet", "storage_unit"] as const;
 
 /** Maximum volumes per location kind and liquid class, set by each organisation from its local code. */
 export const quantityLimits = sqliteTable(
@@ -708,7 +667,6 @@ export const quantityLimits = sqliteTable(
 );
 export type QuantityLimit = typeof quantityLimits.$inferSelect;
 
-export const JOB_STATUSES = ["queued", "running", "done", "failed"] as const;
 
 export const jobs = sqliteTable(
   "jobs",

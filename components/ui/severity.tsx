@@ -1,5 +1,5 @@
 import { Diamond, Info, OctagonExclamationPoint, TriangleExclamationPoint, type LucideIcon } from "lucide-react";
-import type { Severity } from "@/db/schema";
+import type { Severity } from "@/db/enums";
 
 /** Severity is always a word, an icon and a colour together, so it reads without colour and in print. */
 export const SEVERITY_STYLE: Record<Severity, { label: string; icon: LucideIcon; text: string; bg: string; border: string }> = {

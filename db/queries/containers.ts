@@ -1,6 +1,6 @@
 import "server-only";
 import { alias } from "drizzle-orm/sqlite-core";
-import { desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { containerMoves, containers, mixtures, rooms, sites, storageUnits, substances, users } from "@/db/schema";
 
@@ -71,4 +71,15 @@ export function getContainer(id: number) {
 export function findContainerIdByLabel(label: string): number | null {
   const row = getDb().select({ id: containers.id }).from(containers).where(eq(containers.label, label.trim())).get();
   return row?.id ?? null;
+}
+
+/** Containers stored in a room or one of its units (not disposed), for the room and unit pages. */
+export function containersAt(where: { roomId?: number; storageUnitId?: number }, limit = 500) {
+  const condition = where.storageUnitId ? eq(containers.storageUnitId, where.storageUnitId) : eq(rooms.id, where.roomId ?? -1);
+  return containerSelect()
+    .where(and(condition, ne(containers.state, "disposed")))
+    .orderBy(asc(storageUnits.code), asc(containers.label))
+    .limit(limit)
+    .all()
+    .map(flatten);
 }

@@ -1,5 +1,5 @@
 /** Plain-word labels for stored codes. */
-import type { RoomKind, StorageUnitKind } from "@/db/schema";
+import type { RoomKind, StorageUnitKind } from "@/db/enums";
 
 export const STORAGE_UNIT_KIND_LABELS: Record<StorageUnitKind, string> = {
   open_shelving: "Open shelving",

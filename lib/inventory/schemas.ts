@@ -1,6 +1,6 @@
 /** Container schemas shared by the container form, the server actions and the JSON API. */
 import { z } from "zod";
-import { AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES } from "@/db/schema";
+import { AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES } from "@/db/enums";
 import { optionalDate, optionalId, optionalNumber, optionalText, requiredId, requiredNumber } from "@/lib/validation/fields";
 
 const VOLUME_UNITS = new Set(["mL", "L"]);
@@ -77,6 +77,13 @@ export const containerUpdateSchema = z
   .object(containerFields)
   .omit({ storageUnitId: true })
   .partial()
+  .superRefine((v, ctx) => checkContainerRules(v, ctx, true));
+/** The edit form: the update fields plus the container's id. */
+export const containerEditFormSchema = z
+  .object(containerFields)
+  .omit({ storageUnitId: true })
+  .partial()
+  .extend({ id: requiredId("container") })
   .superRefine((v, ctx) => checkContainerRules(v, ctx, true));
 export const containerMoveSchema = z.object({ storageUnitId: requiredId("storage unit") });
 export const containerStateSchema = z.object({ state: z.enum(CONTAINER_STATES, { error: "Choose a state." }) });

@@ -1,6 +1,6 @@
 /** One schema per form, shared by the forms, the server actions and the JSON API. */
 import { z } from "zod";
-import { ROOM_KINDS, STORAGE_UNIT_KINDS } from "@/db/schema";
+import { ROOM_KINDS, STORAGE_UNIT_KINDS } from "@/db/enums";
 import { codeText, optionalId, optionalNumber, optionalText, requiredId, requiredText, yesNo } from "@/lib/validation/fields";
 
 export const siteFields = {
@@ -41,6 +41,8 @@ function setRangeOrdered(value: { setMinC?: number | null; setMaxC?: number | nu
 
 export const roomCreateSchema = z.object(roomFields).superRefine(setRangeOrdered);
 export const roomUpdateSchema = z.object(roomFields).partial().superRefine(setRangeOrdered);
+/** The room edit form sends every field, plus the room's id. */
+export const roomEditFormSchema = z.object({ ...roomFields, id: requiredId("room") }).superRefine(setRangeOrdered);
 
 const unitFields = {
   roomId: requiredId("room"),
@@ -59,6 +61,7 @@ const unitFields = {
 };
 export const storageUnitCreateSchema = z.object(unitFields).superRefine(setRangeOrdered);
 export const storageUnitUpdateSchema = z.object(unitFields).partial().superRefine(setRangeOrdered);
+export const storageUnitEditFormSchema = z.object({ ...unitFields, id: requiredId("storage unit") }).superRefine(setRangeOrdered);
 
 export type SiteInput = z.output<typeof siteCreateSchema>;
 export type RoomInput = z.output<typeof roomCreateSchema>;

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { FRACTION_BASES } from "@/db/schema";
+import { FRACTION_BASES } from "@/db/enums";
 import { optionalText, requiredId, requiredNumber, requiredText } from "@/lib/validation/fields";
 import { checkFractionSum } from "./fractions";
 

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { EXPOSURE_LIMIT_KINDS, EXPOSURE_LIMIT_UNITS, PHYSICAL_STATES } from "@/db/schema";
+import { EXPOSURE_LIMIT_KINDS, EXPOSURE_LIMIT_UNITS, PHYSICAL_STATES } from "@/db/enums";
 import { pagingSchema } from "@/lib/http/paging";
 import { optionalNumber, optionalText, requiredNumber, requiredText } from "@/lib/validation/fields";
 

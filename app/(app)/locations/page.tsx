@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
 import { locationsTree } from "@/db/queries/locations";
 import { requirePagePermission } from "@/lib/auth/page";
@@ -39,10 +40,10 @@ export default async function LocationsPage() {
               <Card
                 key={room.id}
                 title={
-                  <span>
+                  <Link href={`/locations/rooms/${room.id}`} className="hover:underline">
                     <span className="font-mono text-ink-700">{room.code}</span> {room.name}
                     <span className="ml-2 text-xs font-normal text-ink-600">{ROOM_KIND_LABELS[room.kind]}</span>
-                  </span>
+                  </Link>
                 }
               >
                 <dl className="tabular mb-4 grid grid-cols-2 gap-x-6 gap-y-2 text-sm sm:grid-cols-3 lg:grid-cols-6">
@@ -87,7 +88,9 @@ export default async function LocationsPage() {
                       {units.map(({ unit, containerCount }) => (
                         <tr key={unit.id} className="border-t border-ink-100">
                           <td className="px-4 py-2">
-                            <span className="font-mono text-ink-700">{unit.code}</span> {unit.name}
+                            <Link href={`/locations/units/${unit.id}`} className="text-accent-800 hover:underline">
+                              <span className="font-mono">{unit.code}</span> {unit.name}
+                            </Link>
                           </td>
                           <td className="px-4 py-2 text-ink-700">{STORAGE_UNIT_KIND_LABELS[unit.kind]}</td>
                           <td className="px-4 py-2 text-right">{formatQuantity(unit.internalVolumeL, "L")}</td>
