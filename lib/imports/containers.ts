@@ -176,6 +176,8 @@ export type ValidContainerRow = {
   openedAt: number | null;
   expiresAt: number | null;
   notes: string | null;
+  /** Fields the row left empty, so they hold the default; an update of an existing container should keep its own. */
+  defaulted: ("containerKind" | "state")[];
 };
 
 export type ContainerValidation = {
@@ -464,5 +466,9 @@ function validateContainerRow(
     openedAt,
     expiresAt,
     notes: notes === "" ? null : notes,
+    defaulted: [
+      ...(cell("container_kind") === "" ? (["containerKind"] as const) : []),
+      ...(cell("state") === "" ? (["state"] as const) : []),
+    ],
   };
 }
