@@ -43,15 +43,17 @@ export class IssueList {
 }
 
 /** A row with more values than the header has names usually hides an unquoted comma. */
-export function reportExtraCells(row: ParsedRow, headers: string[], issues: IssueList): void {
+export function reportExtraCells(table: ParsedTable, row: ParsedRow, issues: IssueList): void {
   if (!row.extraCells) return;
-  const last = headers[headers.length - 1] ?? "";
+  const { headers } = table;
+  const extra = `(extra: “${row.extraCells.filter((v) => v !== "").join("”, “")}”)`;
   issues.add(
     row,
-    last,
-    `This row has ${headers.length + row.extraCells.length} values but the header names ${headers.length} ` +
-      `columns (extra: “${row.extraCells.filter((v) => v !== "").join("”, “")}”). ` +
-      "A value that contains the delimiter must be in double quotes.",
+    headers[headers.length - 1] ?? "",
+    table.format === "csv"
+      ? `This row has ${headers.length + row.extraCells.length} values but the header names ${headers.length} ` +
+          `columns ${extra}. A value that contains the delimiter must be in double quotes.`
+      : `This row has values to the right of the last named column ${extra}. Name their column or delete them.`,
     row.extraCells.join(","),
   );
 }

@@ -249,7 +249,7 @@ export function validateContainerRows(table: ParsedTable, lookups: ContainerLook
   const firstLineByLabel = new Map<string, number>();
   const rows: ValidContainerRow[] = [];
   for (const row of table.rows) {
-    reportExtraCells(row, table.headers, issues);
+    reportExtraCells(table, row, issues);
     const valid = validateContainerRow(row, table.headers, lookups, issues, firstLineByLabel);
     if (valid && !issues.has(row.line)) rows.push(valid);
   }

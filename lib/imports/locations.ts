@@ -281,9 +281,11 @@ export function validateLocationRows(table: ParsedTable, lookups: LocationLookup
   const rooms = new Map<string, RoomDraft>();
   const units: ValidUnit[] = [];
   const unitLines = new Map<string, number>();
+  const roomsByFoldedCode = new Map<string, RoomDraft>();
+  const unitsByFoldedCode = new Map<string, ValidUnit>();
 
   for (const row of table.rows) {
-    reportExtraCells(row, table.headers, issues);
+    reportExtraCells(table, row, issues);
     const cell = (column: string) => row.cells[column] ?? "";
 
     const siteText = collapseSpaces(cell("site"));
@@ -302,8 +304,12 @@ export function validateLocationRows(table: ParsedTable, lookups: LocationLookup
       const roomKey = `${siteKey}\u0000${code}`;
       room = rooms.get(roomKey);
       if (!room) {
+        const foldedKey = `${siteKey}\u0000${code.toLowerCase()}`;
+        const twin = roomsByFoldedCode.get(foldedKey);
+        if (twin) issues.add(row, "room_code", capitalsOnly("Room code", code, twin.code, twin.lines[0]));
         room = { siteName, code, lines: [], fields: new Map(), firstRow: row };
         rooms.set(roomKey, room);
+        if (!twin) roomsByFoldedCode.set(foldedKey, room);
       }
       room.lines.push(row.line);
     }
@@ -333,6 +339,12 @@ export function validateLocationRows(table: ParsedTable, lookups: LocationLookup
     if (unit && room) {
       const unitKey = `${room.siteName.toLowerCase()}\u0000${room.code}\u0000${unit.code}`;
       const first = unitLines.get(unitKey);
+      const foldedKey = `${room.siteName.toLowerCase()}\u0000${room.code}\u0000${unit.code.toLowerCase()}`;
+      const twin = unitsByFoldedCode.get(foldedKey);
+      if (twin && twin.code !== unit.code) {
+        issues.add(row, "unit_code", capitalsOnly("Unit code", unit.code, twin.code, twin.line));
+      }
+      if (!twin) unitsByFoldedCode.set(foldedKey, unit);
       if (first !== undefined) {
         issues.add(
           row,
@@ -415,6 +427,14 @@ export function validateLocationRows(table: ParsedTable, lookups: LocationLookup
     rowCount: table.rows.length,
     notices,
   };
+}
+
+/** Codes are kept exactly as written, so two spellings would make two rooms or units. */
+function capitalsOnly(what: string, code: string, earlier: string, line: number): string {
+  return (
+    `${what} ${code} differs from ${earlier} on line ${line} only in capital letters. ` +
+    "Write the same code the same way each time, or choose clearly different codes."
+  );
 }
 
 function validateUnit(row: ParsedRow, room: RoomDraft | undefined, issues: IssueList): ValidUnit | undefined {

@@ -130,13 +130,18 @@ function detectDelimiter(text: string): string {
   return counts[0].n > 0 ? counts[0].d : ",";
 }
 
+/** A first line "sep=;" names the delimiter; spreadsheet programs hide it, so it takes no line number. */
+const SEPARATOR_LINE = /^sep=(.)\r?\n/i;
+
 function readCsvGrid(bytes: Uint8Array): Grid {
-  const text = decodeUtf8(bytes);
-  const result = Papa.parse<string[]>(text, {
-    delimiter: detectDelimiter(text),
-    header: false,
-    skipEmptyLines: false,
-  });
+  let text = decodeUtf8(bytes);
+  let delimiter: string;
+  const separatorLine = text.match(SEPARATOR_LINE);
+  if (separatorLine) {
+    delimiter = separatorLine[1];
+    text = text.slice(separatorLine[0].length);
+  } else delimiter = detectDelimiter(text);
+  const result = Papa.parse<string[]>(text, { delimiter, header: false, skipEmptyLines: false });
   const quoteError = result.errors.find((e) => e.type === "Quotes");
   if (quoteError) {
     const line = (quoteError.row ?? 0) + 1;

@@ -361,6 +361,14 @@ describe("validating container rows", () => {
     ]);
   });
 
+  it("says where extra values sit in a workbook row", () => {
+    const table = { ...containerTable([{}]), format: "xlsx" as const };
+    table.rows[0].extraCells = ["", "stray"];
+    expect(validateContainerRows(table, lookups).issues[0].message).toBe(
+      "This row has values to the right of the last named column (extra: “stray”). Name their column or delete them.",
+    );
+  });
+
   it("refuses a file without the required columns, naming all of them", () => {
     const table = { format: "csv" as const, headers: ["label", "amout", "notes"], rows: [] };
     let error: unknown;

@@ -269,6 +269,46 @@ describe("validating location rows", () => {
     expect(result.units.map((u) => u.line)).toEqual([2]);
   });
 
+  it("reports room and unit codes that differ only in capital letters", () => {
+    const issues = issuesFor([
+      { ...ROOM, ...CABINET },
+      { ...ROOM, room_code: "b-014" },
+      { ...ROOM, ...FRIDGE },
+      { ...ROOM, ...FRIDGE, unit_code: "fr-2" },
+    ]);
+    expect(issues).toEqual([
+      {
+        line: 3,
+        column: "room_code",
+        value: "b-014",
+        message:
+          "Room code b-014 differs from B-014 on line 2 only in capital letters. Write the same code the same way each time, or choose clearly different codes.",
+      },
+      {
+        line: 5,
+        column: "unit_code",
+        value: "fr-2",
+        message:
+          "Unit code fr-2 differs from FR-2 on line 4 only in capital letters. Write the same code the same way each time, or choose clearly different codes.",
+      },
+    ]);
+  });
+
+  it("checks a large file quickly", () => {
+    const rows = Array.from({ length: 20_000 }, (_, i) => ({
+      ...ROOM,
+      room_code: `R-${Math.floor(i / 10)}`,
+      ...CABINET,
+      unit_code: `U-${i % 10}`,
+    }));
+    const started = performance.now();
+    const result = validateLocationRows(locationTable(rows), siteLookups);
+    expect(result.issues).toEqual([]);
+    expect(result.rooms).toHaveLength(2000);
+    expect(result.units).toHaveLength(20_000);
+    expect(performance.now() - started).toBeLessThan(3000);
+  });
+
   it("reports a room that has no name on any row", () => {
     expect(onlyIssue([{ site: "North Campus", room_code: "B-020", ...CABINET }])).toEqual({
       line: 2,

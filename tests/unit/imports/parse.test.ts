@@ -52,6 +52,12 @@ describe("reading CSV files", () => {
     ]);
   });
 
+  it("follows a first line naming the delimiter, which a spreadsheet program does not show", async () => {
+    const table = await parseTabularFile(encode("sep=;\nlabel;notes\nHR-1;a, b\n"), "a.csv");
+    expect(table.headers).toEqual(["label", "notes"]);
+    expect(table.rows).toEqual([{ line: 2, cells: { label: "HR-1", notes: "a, b" } }]);
+  });
+
   it("reads tab-separated text pasted from a spreadsheet", async () => {
     const table = await parseTabularFile(encode("label\tamount\nHR-1\t2.5\n"), "paste.txt");
     expect(table.rows).toEqual([{ line: 2, cells: { label: "HR-1", amount: "2.5" } }]);
