@@ -6,6 +6,7 @@ export const IMPORT_FILE_ERROR_CODES = [
   "unsupported_format",
   "not_utf8",
   "unreadable_file",
+  "uncalculated_formulas",
   "malformed_csv",
   "no_header_row",
   "blank_header",

@@ -162,7 +162,8 @@ function readCsvGrid(bytes: Uint8Array): Grid {
 async function readXlsxGrid(bytes: Uint8Array): Promise<Grid> {
   const workbook = new ExcelJS.Workbook();
   try {
-    await workbook.xlsx.load(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as never);
+    // exceljs declares its own Buffer type; a Node Buffer is what it reads.
+    await workbook.xlsx.load(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as unknown as ExcelJS.Buffer);
   } catch {
     throw new ImportFileError(
       "unreadable_file",
@@ -178,12 +179,31 @@ async function readXlsxGrid(bytes: Uint8Array): Promise<Grid> {
   sheet.eachRow({ includeEmpty: false }, (row) => {
     const cells: string[] = [];
     const count = row.cellCount;
-    for (let c = 1; c <= count; c++) cells.push(cellText(row.getCell(c).value));
+    for (let c = 1; c <= count; c++) {
+      const cell = row.getCell(c);
+      if (isUncalculatedFormula(cell.value)) {
+        throw new ImportFileError(
+          "uncalculated_formulas",
+          `Cell ${cell.address} holds a formula whose result was never saved. Open the file in a spreadsheet ` +
+            "program, let it calculate, and save it again (or paste the values in place of the formulas).",
+        );
+      }
+      cells.push(cellText(cell.value));
+    }
     if (grid.length > 0 && cells.some((v) => v.trim() !== "")) dataRows++;
     if (dataRows > MAX_DATA_ROWS) throw tooManyRows();
     grid.push({ cells, line: row.number });
   });
   return grid;
+}
+
+function isUncalculatedFormula(value: ExcelJS.CellValue): boolean {
+  return (
+    typeof value === "object" &&
+    value !== null &&
+    ("formula" in value || "sharedFormula" in value) &&
+    (value as { result?: unknown }).result === undefined
+  );
 }
 
 function cellText(value: ExcelJS.CellValue): string {

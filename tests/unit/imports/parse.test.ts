@@ -158,6 +158,16 @@ describe("reading XLSX files", () => {
     ]);
   });
 
+  it("refuses formulas whose result was never saved, naming the cell", async () => {
+    const bytes = await workbookBytes((sheet) => {
+      sheet.addRow(["label", "amount"]);
+      sheet.addRow(["HR-1", { formula: "2*3" }]);
+    });
+    const error = await fileError(bytes, "generated.xlsx");
+    expect(error.code).toBe("uncalculated_formulas");
+    expect(error.message).toMatch(/^Cell B2 holds a formula whose result was never saved/);
+  });
+
   it("refuses a ZIP archive that is not a workbook", async () => {
     const zipHeader = new Uint8Array([0x50, 0x4b, 0x03, 0x04, 1, 2, 3, 4, 5, 6, 7, 8]);
     const error = await fileError(zipHeader, "photos.zip");
