@@ -51,9 +51,15 @@ function ariaSort(sorted: boolean, dir: SortDir): "ascending" | "descending" | "
   return dir === "asc" ? "ascending" : "descending";
 }
 
+function matchText(total: number, noun: { one: string; other: string }): string {
+  if (total === 0) return `No ${noun.other} match`;
+  return total === 1 ? `1 ${noun.one} matches` : `${formatCount(total)} ${noun.other} match`;
+}
+
 /**
  * The one table for every list: paging, sorting and filtering happen on the server, and the
- * state lives in the page's URL so a view can be bookmarked, shared and reached with Back.
+ * state lives in the page's URL so a view can be bookmarked, shared and reloaded. Changes replace
+ * the history entry rather than stacking one per keystroke or page.
  */
 export function DataTable<Row extends RowData>({
   apiUrl,
@@ -129,14 +135,10 @@ export function DataTable<Row extends RowData>({
 
   const visibleColumns = table.getAllLeafColumns().length;
   const firstLoad = loading && !result;
-  const countText = firstLoad
-    ? "Loading…"
-    : total === 0
-      ? `No ${noun.other} match`
-      : `${formatCount(total)} ${total === 1 ? `${noun.one} matches` : `${noun.other} match`}`;
+  const countText = firstLoad ? "Loading…" : error && !result ? "" : matchText(total, noun);
 
   return (
-    <section aria-labelledby={captionId} className="rounded-lg border border-ink-200 bg-white">
+    <div className="rounded-lg border border-ink-200 bg-white">
       <DataTableToolbar filters={filters} values={state.filters} onChange={onFilterChange} />
 
       <div className="flex items-center justify-between gap-3 px-3 py-2 text-sm">
@@ -221,7 +223,7 @@ export function DataTable<Row extends RowData>({
               </tr>
             ))}
           </thead>
-          <tbody className={`tabular transition-opacity ${loading && result ? "opacity-50" : ""}`}>
+          <tbody className={`tabular transition-opacity ${(loading || error) && result ? "opacity-50" : ""}`}>
             {firstLoad ? (
               <tr>
                 <td colSpan={visibleColumns} className="px-3 py-10 text-center text-ink-500">
@@ -274,7 +276,7 @@ export function DataTable<Row extends RowData>({
         onPage={(page) => table.setPageIndex(page - 1)}
         onPageSize={(size) => table.setPageSize(size)}
       />
-    </section>
+    </div>
   );
 }
 

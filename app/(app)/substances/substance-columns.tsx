@@ -1,7 +1,7 @@
 import Link from "next/link";
 import type { z } from "zod";
 import { createDataTableColumnHelper, type DataTableFilters } from "@/components/data-table";
-import { formatNumber, formatTempC } from "@/lib/format/numbers";
+import { formatTempC } from "@/lib/format/numbers";
 import type { substanceSummary } from "@/lib/substances/present";
 import type { substanceListQuerySchema } from "@/lib/substances/schemas";
 
@@ -10,14 +10,16 @@ export type SubstanceRow = ReturnType<typeof substanceSummary>;
 
 type SubstanceSortKey = z.output<typeof substanceListQuerySchema>["sort"];
 
-/** Column ids the API sorts by; the type keeps them in step with the API's schema. */
+/**
+ * Column ids the API sorts by; the type keeps them in step with the API's schema. The API also
+ * sorts by molar mass, which this table does not show.
+ */
 export const SUBSTANCE_SORTABLE = [
   "name",
   "cas",
   "normalBoilingPointC",
   "flashPointC",
   "lflVolPercent",
-  "molarMassGPerMol",
 ] as const satisfies readonly SubstanceSortKey[];
 
 export const SUBSTANCE_FILTERS: DataTableFilters = {
@@ -43,6 +45,14 @@ function tempValue(value: number | null): string {
   return formatTempC(value).replace(/ °C$/, "");
 }
 
+/**
+ * Two significant figures, as the published LFLs carry them; trailing zeros kept (4.0, not 4) so
+ * the column reads evenly.
+ */
+function lflValue(value: number | null): string {
+  return value == null || !Number.isFinite(value) ? "—" : value.toPrecision(2);
+}
+
 /** H2O → H<sub>2</sub>O: a formula reads as chemists write it. */
 function Formula({ formula }: { formula: string | null }) {
   if (!formula) return <span className="text-ink-400">—</span>;
@@ -59,7 +69,7 @@ export function getSubstanceColumns() {
   return column.columns([
     column.accessor("name", {
       header: "Name",
-      meta: { rowHeader: true, className: "min-w-48" },
+      meta: { rowHeader: true, className: "min-w-40" },
       cell: ({ row }) => (
         <Link href={`/substances/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
           {row.original.name}
@@ -76,11 +86,6 @@ export function getSubstanceColumns() {
       meta: { className: "whitespace-nowrap" },
       cell: ({ getValue }) => <Formula formula={getValue()} />,
     }),
-    column.accessor("molarMassGPerMol", {
-      header: "Molar mass",
-      meta: { align: "end", unit: "g/mol" },
-      cell: ({ getValue }) => formatNumber(getValue(), 4),
-    }),
     column.accessor("normalBoilingPointC", {
       header: "Boiling point",
       meta: { align: "end", unit: "°C" },
@@ -94,7 +99,7 @@ export function getSubstanceColumns() {
     column.accessor("lflVolPercent", {
       header: "LFL",
       meta: { align: "end", unit: "% vol" },
-      cell: ({ getValue }) => formatNumber(getValue(), 2),
+      cell: ({ getValue }) => lflValue(getValue()),
     }),
     column.accessor("ghsFlammableCategory", {
       header: "GHS category",
