@@ -200,7 +200,7 @@ export function DataTable<Row extends RowData>({
                       scope="col"
                       colSpan={header.colSpan > 1 ? header.colSpan : undefined}
                       aria-sort={canSort ? ariaSort(sorted, state.dir) : undefined}
-                      className={`sticky top-0 z-10 whitespace-nowrap bg-ink-50 px-3 py-0 text-xs font-semibold text-ink-700 shadow-[inset_0_-1px_0_var(--color-ink-200)] ${end ? "text-right" : "text-left"}`}
+                      className={`sticky top-0 whitespace-nowrap bg-ink-50 px-3 py-0 text-xs font-semibold text-ink-700 shadow-[inset_0_-1px_0_var(--color-ink-200)] ${meta?.rowHeader ? "left-0 z-20" : "z-10"} ${end ? "text-right" : "text-left"}`}
                     >
                       {canSort ? (
                         <button
@@ -247,12 +247,13 @@ export function DataTable<Row extends RowData>({
               </tr>
             ) : (
               table.getRowModel().rows.map((row) => (
-                <tr key={row.id} className="hover:bg-accent-50/60">
+                <tr key={row.id} className="group hover:bg-accent-50">
                   {row.getAllCells().map((cell) => {
                     const meta = cell.column.columnDef.meta;
                     const className = `border-b border-ink-100 px-3 py-1.5 align-baseline ${meta?.align === "end" ? "text-right whitespace-nowrap" : "text-left"} ${meta?.className ?? ""}`;
                     return meta?.rowHeader ? (
-                      <th key={cell.id} scope="row" className={`${className} font-medium`}>
+                      // The row header stays in view when the table scrolls sideways on a narrow screen.
+                      <th key={cell.id} scope="row" className={`${className} sticky left-0 z-[1] bg-white font-medium group-hover:bg-accent-50`}>
                         <table.FlexRender cell={cell} />
                       </th>
                     ) : (

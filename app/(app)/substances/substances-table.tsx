@@ -19,7 +19,7 @@ export function SubstancesTable() {
       filters={SUBSTANCE_FILTERS}
       rowKey={rowKey}
       noun={noun}
-      emptyMessage="No substance matches this search."
+      emptyMessage="No substance in the library matches."
     />
   );
 }
