@@ -1,15 +1,20 @@
 import { z } from "zod";
 import { EXPOSURE_LIMIT_KINDS, EXPOSURE_LIMIT_UNITS, PHYSICAL_STATES } from "@/db/enums";
-import { pagingSchema } from "@/lib/http/paging";
+import { listQuerySchema } from "@/lib/http/list-query";
 import { optionalNumber, optionalText, requiredNumber, requiredText } from "@/lib/validation/fields";
 
-export const substanceListQuerySchema = pagingSchema.extend({
-  q: z.string().trim().max(200, "q is at most 200 characters.").optional(),
-  cas: z
-    .string()
-    .trim()
-    .regex(/^\d{2,7}-\d{2}-\d$/, "cas must look like 67-64-1.")
-    .optional(),
+export const substanceListQuerySchema = listQuerySchema({
+  sortable: ["name", "cas", "normalBoilingPointC", "flashPointC", "lflVolPercent", "molarMassGPerMol"],
+  defaultSort: "name",
+  filters: {
+    q: z.string().trim().max(200, "q is at most 200 characters.").optional(),
+    cas: z
+      .string()
+      .trim()
+      .regex(/^\d{2,7}-\d{2}-\d$/, "cas must look like 67-64-1.")
+      .optional(),
+    ghs: z.enum(["1", "2", "3", "4", "none"], { error: "ghs must be 1, 2, 3, 4 or none." }).optional(),
+  },
 });
 
 const TEMP_REQUIRED = "tempC is required, in °C (for example tempC=20).";

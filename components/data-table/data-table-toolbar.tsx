@@ -1,0 +1,114 @@
+"use client";
+
+import { Search } from "lucide-react";
+import { useCallback, useEffect, useId, useState, type FormEvent } from "react";
+import { SEARCH_MAX_LENGTH, SEARCH_PARAM, type DataTableFilters } from "./url-state";
+
+export const SEARCH_DEBOUNCE_MS = 250;
+
+export const controlClass =
+  "h-9 rounded-md border border-ink-300 bg-white px-2.5 text-sm text-ink-900 shadow-xs placeholder:text-ink-400 focus:border-accent-600 focus:outline-none focus:ring-2 focus:ring-accent-200";
+
+/** The search box: typing is applied after a short pause, Enter applies at once. */
+function SearchBox({
+  value,
+  label,
+  placeholder,
+  onSearch,
+}: {
+  value: string;
+  label: string;
+  placeholder?: string;
+  onSearch: (text: string) => void;
+}) {
+  const id = useId();
+  const [text, setText] = useState(value);
+  const [seen, setSeen] = useState(value);
+  const [sent, setSent] = useState(value);
+  // The URL changed under us (back button, "clear filters"): show its value, unless it is only
+  // the echo of what this box sent while the user kept typing.
+  if (value !== seen) {
+    setSeen(value);
+    if (value !== sent) setText(value);
+  }
+
+  useEffect(() => {
+    const wanted = text.trim();
+    if (wanted === value) return;
+    const timer = setTimeout(() => {
+      setSent(wanted);
+      onSearch(wanted);
+    }, SEARCH_DEBOUNCE_MS);
+    return () => clearTimeout(timer);
+  }, [text, value, onSearch]);
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    const wanted = text.trim();
+    if (wanted === value) return;
+    setSent(wanted);
+    onSearch(wanted);
+  }
+
+  return (
+    <form role="search" onSubmit={submit} className="flex min-w-0 flex-1 flex-col gap-1 sm:max-w-sm">
+      <label htmlFor={id} className="text-xs font-medium text-ink-700">
+        {label}
+      </label>
+      <div className="relative">
+        <Search aria-hidden="true" className="pointer-events-none absolute top-1/2 left-2.5 size-4 -translate-y-1/2 text-ink-400" />
+        <input
+          id={id}
+          type="search"
+          name={SEARCH_PARAM}
+          value={text}
+          maxLength={SEARCH_MAX_LENGTH}
+          placeholder={placeholder}
+          autoComplete="off"
+          spellCheck={false}
+          onChange={(event) => setText(event.target.value)}
+          className={`${controlClass} w-full pl-8`}
+        />
+      </div>
+    </form>
+  );
+}
+
+export function DataTableToolbar({
+  filters,
+  values,
+  onChange,
+}: {
+  filters: DataTableFilters;
+  values: Record<string, string>;
+  onChange: (param: string, value: string) => void;
+}) {
+  const baseId = useId();
+  const onSearch = useCallback((text: string) => onChange(SEARCH_PARAM, text), [onChange]);
+  if (!filters.search && !filters.selects?.length) return null;
+  return (
+    <div className="flex flex-wrap items-end gap-3 border-b border-ink-200 px-3 py-3">
+      {filters.search ? (
+        <SearchBox value={values[SEARCH_PARAM] ?? ""} label={filters.search.label} placeholder={filters.search.placeholder} onSearch={onSearch} />
+      ) : null}
+      {(filters.selects ?? []).map((select) => {
+        const id = `${baseId}-${select.param}`;
+        return (
+          <div key={select.param} className="flex flex-col gap-1">
+            <label htmlFor={id} className="text-xs font-medium text-ink-700">
+              {select.label}
+            </label>
+            <select id={id} value={values[select.param] ?? ""} onChange={(event) => onChange(select.param, event.target.value)} className={`${controlClass} pr-8`}>
+              <option value="">{select.allLabel ?? "All"}</option>
+              {select.options.map((option) => (
+                <option key={option.value} value={option.value}>
+                  {option.label}
+                </option>
+              ))}
+            </select>
+          </div>
+        );
+      })}
+    </div>
+  );
+}
