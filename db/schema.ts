@@ -398,6 +398,7 @@ export const containers = sqliteTable(
     index("containers_mixture_idx").on(t.mixtureId),
     index("containers_storage_unit_idx").on(t.storageUnitId, t.state),
     index("containers_owner_idx").on(t.ownerId),
+    index("containers_updated_at_idx").on(t.updatedAt),
     index("containers_sds_file_idx").on(t.sdsFileId),
     check(
       "containers_one_content",

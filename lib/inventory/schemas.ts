@@ -1,6 +1,7 @@
 /** Container schemas shared by the container form, the server actions and the JSON API. */
 import { z } from "zod";
 import { AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES } from "@/db/enums";
+import { listQuerySchema } from "@/lib/http/list-query";
 import { optionalDate, optionalId, optionalNumber, optionalText, requiredId, requiredNumber } from "@/lib/validation/fields";
 
 const VOLUME_UNITS = new Set(["mL", "L"]);
@@ -90,3 +91,29 @@ export const containerStateSchema = z.object({ state: z.enum(CONTAINER_STATES, {
 
 export type ContainerCreateInput = z.output<typeof containerCreateSchema>;
 export type ContainerUpdateInput = z.output<typeof containerUpdateSchema>;
+
+export const CONTAINER_SORTABLE = ["label", "substance", "amount", "state", "location", "owner", "updatedAt", "expiresAt"] as const;
+
+const optionalFilterId = z
+  .string()
+  .optional()
+  .transform((v) => (v === undefined || v === "" ? undefined : Number(v)))
+  .refine((v) => v === undefined || (Number.isInteger(v) && v > 0), "Must be a positive whole number.");
+
+/** GET /api/v1/containers: paging, sorting and filters. */
+export const containerListQuerySchema = listQuerySchema({
+  sortable: CONTAINER_SORTABLE,
+  defaultSort: "updatedAt",
+  defaultDir: "desc",
+  filters: {
+    q: z.string().trim().max(100, "q is at most 100 characters.").optional(),
+    state: z.enum([...CONTAINER_STATES, "live", "all"], { error: "state must be one of sealed, opened, in_use, empty, disposed, live or all." }).optional(),
+    siteId: optionalFilterId,
+    roomId: optionalFilterId,
+    storageUnitId: optionalFilterId,
+    ownerId: optionalFilterId,
+    substanceId: optionalFilterId,
+    mine: z.enum(["1", "0", "true", "false"]).optional().transform((v) => v === "1" || v === "true"),
+  },
+});
+export type ContainerListQuery = z.output<typeof containerListQuerySchema>;

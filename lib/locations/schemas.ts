@@ -1,6 +1,7 @@
 /** One schema per form, shared by the forms, the server actions and the JSON API. */
 import { z } from "zod";
 import { ROOM_KINDS, STORAGE_UNIT_KINDS } from "@/db/enums";
+import { listQuerySchema } from "@/lib/http/list-query";
 import { codeText, optionalId, optionalNumber, optionalText, requiredId, requiredText, yesNo } from "@/lib/validation/fields";
 
 export const siteFields = {
@@ -66,3 +67,22 @@ export const storageUnitEditFormSchema = z.object({ ...unitFields, id: requiredI
 export type SiteInput = z.output<typeof siteCreateSchema>;
 export type RoomInput = z.output<typeof roomCreateSchema>;
 export type StorageUnitInput = z.output<typeof storageUnitCreateSchema>;
+
+const filterId = z
+  .string()
+  .optional()
+  .transform((v) => (v === undefined || v === "" ? undefined : Number(v)))
+  .refine((v) => v === undefined || (Number.isInteger(v) && v > 0), "Must be a positive whole number.");
+const search = z.string().trim().max(100, "q is at most 100 characters.").optional();
+
+export const siteListQuerySchema = listQuerySchema({ sortable: ["name"], defaultSort: "name", filters: { q: search } });
+export const roomListQuerySchema = listQuerySchema({
+  sortable: ["code", "name", "site", "designMaxTempC"],
+  defaultSort: "code",
+  filters: { q: search, siteId: filterId, kind: z.enum(ROOM_KINDS).optional() },
+});
+export const storageUnitListQuerySchema = listQuerySchema({
+  sortable: ["code", "name", "kind", "room"],
+  defaultSort: "room",
+  filters: { q: search, siteId: filterId, roomId: filterId, kind: z.enum(STORAGE_UNIT_KINDS).optional() },
+});

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { FRACTION_BASES } from "@/db/enums";
 import { optionalText, requiredId, requiredNumber, requiredText } from "@/lib/validation/fields";
+import { listQuerySchema } from "@/lib/http/list-query";
 import { checkFractionSum } from "./fractions";
 
 export const mixtureCreateSchema = z
@@ -32,3 +33,9 @@ export const mixtureCreateSchema = z
   });
 
 export type MixtureInput = z.output<typeof mixtureCreateSchema>;
+
+export const mixtureListQuerySchema = listQuerySchema({
+  sortable: ["name", "createdAt"],
+  defaultSort: "name",
+  filters: { q: z.string().trim().max(100, "q is at most 100 characters.").optional() },
+});

@@ -1,0 +1,1 @@
+CREATE INDEX `containers_updated_at_idx` ON `containers` (`updated_at`);
