@@ -570,7 +570,7 @@ function boilsWarning(tempC: number, pressureKPa: number, ambientPressureKPa: nu
 /**
  * Equilibrium (saturated) vapor concentration above the pure liquid in still air:
  * y = Psat/Patm; ppm = 10⁶·y; mg/m³ = ppm × M / Vm(T) with Vm = R·T/Patm
- * (rules-and-methods §3.6; e.g. J. Chem. Educ. CLIP "Toluene": 22 torr at 20 °C ≈ 29 000 ppm).
+ * (Dalton's law; Vm as in NIOSH NMAM Appendix A; e.g. J. Chem. Educ. CLIP "Toluene": 22 torr at 20 °C ≈ 29 000 ppm).
  */
 export function saturatedConcentration(
   props: VaporProperties,
