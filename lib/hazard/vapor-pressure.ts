@@ -180,7 +180,7 @@ function assertOptionalFinite(value: number | undefined, field: string): void {
 }
 
 // Forms of a compiled correlation. Perry's DIPPR-101 sets use C5 = 1, 2 or 6; for those the power
-// T^C5 is a product (several times faster than Math.pow, and exact for these integer exponents).
+// T^C5 is a product, several times faster than Math.pow.
 const FORM_ANTOINE = 0;
 const FORM_DIPPR_T1 = 1;
 const FORM_DIPPR_T2 = 2;
