@@ -192,18 +192,33 @@ const FORM_DIPPR_POW = 4;
  * switches and sees a single object layout:
  * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4.
  */
-class CompiledCorrelation {
-  constructor(
-    readonly tMinC: number,
-    readonly tMaxC: number,
-    readonly form: number,
-    readonly method: 'antoine' | 'dippr101',
-    readonly k0: number,
-    readonly k1: number,
-    readonly k2: number,
-    readonly k3: number,
-    readonly k4: number,
-  ) {}
+type CompiledCorrelation = {
+  readonly tMinC: number;
+  readonly tMaxC: number;
+  readonly form: number;
+  readonly method: 'antoine' | 'dippr101';
+  readonly k0: number;
+  readonly k1: number;
+  readonly k2: number;
+  readonly k3: number;
+  readonly k4: number;
+};
+
+// Compiled objects are built by these factories as object literals, not as classes: a class
+// field is first defined as undefined and only then set, which makes V8 store every number in it
+// boxed; a literal's numeric fields stay unboxed doubles. One factory, one object layout.
+function newCompiledCorrelation(
+  tMinC: number,
+  tMaxC: number,
+  form: number,
+  method: 'antoine' | 'dippr101',
+  k0: number,
+  k1: number,
+  k2: number,
+  k3: number,
+  k4: number,
+): CompiledCorrelation {
+  return { tMinC, tMaxC, form, method, k0, k1, k2, k3, k4 };
 }
 
 function dipprForm(exponent: number): number {
@@ -216,7 +231,7 @@ function dipprForm(exponent: number): number {
 function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorrelation {
   if (correlation.kind === 'antoine') {
     const logFactor = correlation.log === 'log10' ? LN10 : 1;
-    return new CompiledCorrelation(
+    return newCompiledCorrelation(
       correlation.tMinC,
       correlation.tMaxC,
       FORM_ANTOINE,
@@ -228,7 +243,7 @@ function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorr
       0,
     );
   }
-  return new CompiledCorrelation(
+  return newCompiledCorrelation(
     correlation.tMinC,
     correlation.tMaxC,
     dipprForm(correlation.c5),
@@ -265,14 +280,12 @@ function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): numb
  * API payloads, test literals); reading them only here keeps the hot path's property loads
  * monomorphic.
  */
-class CompiledProperties {
-  constructor(
-    readonly correlations: CompiledCorrelation[],
-    /** −Infinity when no melting point is given, so `tempC < meltingPointC` is simply false. */
-    readonly meltingPointC: number,
-    readonly molarMassGPerMol: number,
-  ) {}
-}
+type CompiledProperties = {
+  readonly correlations: CompiledCorrelation[];
+  /** −Infinity when no melting point is given, so `tempC < meltingPointC` is simply false. */
+  readonly meltingPointC: number;
+  readonly molarMassGPerMol: number;
+};
 
 /**
  * Property sets already checked, with their compiled correlations. Library entries are static
@@ -326,11 +339,11 @@ function compileProperties(props: VaporProperties): CompiledProperties {
   assertOptionalFinite(props.flashPointC, 'props.flashPointC');
   if (props.lflVolPercent !== undefined) assertPositive(props.lflVolPercent, 'props.lflVolPercent');
   if (props.uflVolPercent !== undefined) assertPositive(props.uflVolPercent, 'props.uflVolPercent');
-  const result = new CompiledProperties(
-    compiled,
-    props.meltingPointC === undefined ? Number.NEGATIVE_INFINITY : props.meltingPointC,
-    props.molarMassGPerMol,
-  );
+  const result: CompiledProperties = {
+    correlations: compiled,
+    meltingPointC: props.meltingPointC === undefined ? Number.NEGATIVE_INFINITY : props.meltingPointC,
+    molarMassGPerMol: props.molarMassGPerMol,
+  };
   compiledProperties.set(props, result);
   return result;
 }
