@@ -28,7 +28,7 @@ export const CARBON_DIOXIDE_NIOSH_LIMITS: readonly ExposureLimit[] = [
 /**
  * Gas volume per volume of liquid nitrogen at a reference temperature: ρ/M × Vm(T, P). With
  * 806.5 kg/m³ it gives ≈ 692 at 20 °C and ≈ 704 at 25 °C; published round figures are 682–700
- * (rules-and-methods §6.2), which is why the reference temperature is an input.
+ * (Univ. of Oxford Safety Office S4/03; OSTI 45495), which is why the reference temperature is an input.
  */
 export function liquidNitrogenExpansionRatio(input: {
   liquidDensityKgPerM3?: number;
@@ -154,7 +154,8 @@ export function liquidNitrogenRelease(input: {
 /**
  * Steady continuous release of an inert gas into a ventilated room (fresh-air dilution):
  * O₂ = O₂,air × (1 − L/(N·V)), L the release rate in m³/h, N the air changes per hour
- * (rules-and-methods §6.3, from the leak-rate form ṅ = N·V·(1 − C_f/0.21)).
+ * (rearranged from the published leak-rate form ṅ = N·V·(1 − C_f/0.21), casualprocessengineer.com
+ * "Oxygen depletion in a fixed volume due to inert gas leak").
  */
 export function oxygenWithSteadyRelease(input: {
   gasReleaseM3PerH: number;
@@ -177,7 +178,7 @@ export function oxygenWithSteadyRelease(input: {
     deficient: oxygenPercent < threshold,
     trace: {
       method: 'Oxygen with a steady inert-gas release and ventilation',
-      source: 'Fresh-air dilution of a steady leak, C_f = 0.21·(1 − ṅ/(N·V)) (rules-and-methods §6.3)',
+      source: 'Fresh-air dilution of a steady leak, C_f = 0.21·(1 − ṅ/(N·V)), rearranged from ṅ = N·V·(1 − C_f/0.21) (casualprocessengineer.com, oxygen depletion due to inert gas leak)',
       inputs: [
         traceValue('Gas release rate', 'L', input.gasReleaseM3PerH, 'm³/h'),
         traceValue('Room volume', 'V', input.roomVolumeM3, 'm³'),
@@ -250,7 +251,7 @@ export function dryIceRelease(input: {
     limitRatios,
     trace: {
       method: 'Dry ice subliming in a closed room',
-      source: 'Ideal-gas volume of the sublimed CO₂; CO₂ ppm = V_CO₂/V_room × 10⁶ (rules-and-methods §6.4–6.5); limits NIOSH IDLH documentation (1994) unless configured',
+      source: 'Ideal-gas volume of the sublimed CO₂; CO₂ ppm = V_CO₂/V_room × 10⁶ (Univ. of Maine at Fort Kent, "Dry Ice: The Cold Facts"; Univ. of York Biology, Dry ice); limits NIOSH IDLH documentation (1994) unless configured',
       inputs: [
         traceValue('Dry ice', 'm', input.massKg, 'kg'),
         traceValue('Room volume', 'V_room', input.roomVolumeM3, 'm³'),

@@ -38,8 +38,8 @@ function releasableMassG(containers: EnclosureContainer[], scenario: EnclosureSc
 /**
  * Closed-enclosure worst case for one substance in a unit's free volume: the vapor cannot exceed
  * the saturation concentration, nor the concentration reached if the releasable inventory
- * evaporated completely: C = min(C_sat, m·Vm/(M·V_free)) (rules-and-methods §5.1, after
- * Popendorf's closed-room bound). A bound ("maximum possible"), not an expected value.
+ * evaporated completely: C = min(C_sat, m·Vm/(M·V_free)) (after Popendorf's closed-room worst case,
+ * Taylor & Francis, ISBN 9781351238052). A bound ("maximum possible"), not an expected value.
  */
 export function enclosureBound(input: {
   props: VaporProperties;
@@ -89,7 +89,7 @@ export function enclosureBound(input: {
     boils: saturation.result.boils,
     trace: {
       method: 'Closed-enclosure bound',
-      source: 'C = min(C_sat, m·Vm/(M·V_free)), rules-and-methods §5.1 (closed-room worst case, Popendorf)',
+      source: 'C = min(C_sat, m·Vm/(M·V_free)) (closed-room worst case after Popendorf, Taylor & Francis, ISBN 9781351238052)',
       inputs: [
         ...saturation.trace.inputs,
         traceValue('Free volume of the enclosure', 'V_free', input.freeVolumeM3, 'm³'),

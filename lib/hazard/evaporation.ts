@@ -135,8 +135,8 @@ export function epaRmpEvaporationRate(input: PoolInput): EvaporationRateResult &
  * Mackay & Matsugu (1973, Can. J. Chem. Eng.) mass-transfer correlation as usually quoted:
  * k_m = 0.0292·U^0.78·X^(−0.11)·Sc^(−0.67), k_m and U in m/h, X the pool diameter in m, Sc the
  * gas-phase Schmidt number; flux into clean air N = k_m·A·Psat·M/(R·T).
- * The coefficients are recalled in the reference notes, not read from the paper: verify before
- * relying on the absolute value.
+ * The coefficients are recalled from memory, not read from the paper: verify before relying on
+ * the absolute value.
  */
 export function mackayMatsuguEvaporationRate(
   input: PoolInput & { schmidtNumber: number; poolDiameterM?: number },

@@ -88,7 +88,7 @@ export type LflFractionResult = {
 
 /**
  * Fraction of the LFL for one or more vapors in the same air: Σ Cᵢ/LFLᵢ (for a single vapor C/LFL).
- * The sum form follows from Le Chatelier's rule with yᵢ = Cᵢ/ΣC (rules-and-methods §3.4).
+ * The sum form follows from Le Chatelier's rule with yᵢ = Cᵢ/ΣC (Headroom's derivation).
  * Alarm fractions are settings (commonly 0.10 and 0.25; OSHA 1910.146 uses 10 %, NYC Fire Code
  * 25 %) and are passed in, never assumed.
  */
@@ -115,7 +115,7 @@ export function lflFraction(input: {
     alarmFractionsReached: alarms.filter((fraction) => fractionOfLfl >= fraction),
     trace: {
       method: 'Fraction of the lower flammable limit',
-      source: "Le Chatelier's rule in its additive form Σ Cᵢ/LFLᵢ (rules-and-methods §3.4)",
+      source: "Le Chatelier's rule in its additive form Σ Cᵢ/LFLᵢ (derived from LFL_mix = 1/Σ(yᵢ/LFLᵢ) with yᵢ = Cᵢ/ΣC)",
       inputs: input.components.flatMap((component, i) => [
         traceValue(`Concentration of ${component.name ?? `vapor ${i + 1}`}`, `C${i + 1}`, component.concentrationPpm, 'ppm'),
         traceValue(`LFL of ${component.name ?? `vapor ${i + 1}`}`, `LFL${i + 1}`, component.lflVolPercent, '% by volume'),

@@ -42,7 +42,7 @@ function validateLimit(limit: ExposureLimit, field: string): void {
   if (limit.referenceTempC !== undefined) assertTempC(limit.referenceTempC, `${field}.referenceTempC`);
 }
 
-/** An exposure limit in ppm; mg/m³ limits are converted at their reference conditions (rules-and-methods §2.5). */
+/** An exposure limit in ppm; mg/m³ limits are converted at their reference conditions (CCOHS OSH Answers; NIOSH NMAM Appendix A). */
 export function exposureLimitPpm(limit: ExposureLimit, molarMassGPerMol: number): number {
   validateLimit(limit, 'limit');
   if (limit.unit === 'ppm') return limit.value;

@@ -42,7 +42,8 @@ export type QuantityRollUpResult = {
 
 /**
  * Sum of liquid volume by NFPA 30 class and GHS category for one room, cabinet or control area,
- * checked against the configured limits (rules-and-methods §7; NFPA 30, OSHA 29 CFR 1910.106(d)(3)).
+ * checked against the configured limits (NFPA 30, NFPA 45, OSHA 29 CFR 1910.106(d)(3); the figures depend
+ * on the code edition and the jurisdiction, so they are settings).
  */
 export function rollUpQuantities(input: { items: QuantityItem[]; limits: QuantityLimit[] }): QuantityRollUpResult {
   if (!Array.isArray(input.items)) throw new HazardInputError('empty-input', 'items', 'items must be an array');

@@ -145,7 +145,7 @@ export function wellMixedRoom(input: {
     trace: {
       method: 'Well-mixed room model',
       source:
-        'AIHA, Mathematical Models for Estimating Occupational Exposure to Chemicals (2nd ed.); mass balance V·dC = G·dt − k·Q·C·dt (rules-and-methods §4.3)',
+        'AIHA, Mathematical Models for Estimating Occupational Exposure to Chemicals (2nd ed.); mass balance V·dC = G·dt − k·Q·C·dt (Univ. of Toledo dilution-ventilation formulae)',
       inputs: [
         traceValue('Generation (evaporation) rate', 'G', input.generationRateGPerS, 'g/s'),
         traceValue('Room volume', 'V', input.roomVolumeM3, 'm³'),

@@ -149,7 +149,7 @@ export function traceSaturatedConcentration(input: {
     result,
     trace: {
       method: `Saturated vapor concentration${input.substanceName ? ` of ${input.substanceName}` : ''} (${result.method})`,
-      source: `${METHOD_SOURCES[result.method]}; y = Psat/Patm and mg/m³ = ppm × M/Vm (rules-and-methods §3.6, CCOHS OSH Answers)`,
+      source: `${METHOD_SOURCES[result.method]}; y = Psat/Patm and mg/m³ = ppm × M/Vm (Dalton's law; mg/m³ from ppm as in CCOHS OSH Answers and NIOSH NMAM Appendix A)`,
       inputs,
       steps,
       result: traceValue('Saturated concentration', 'C_sat', result.ppm, 'ppm'),

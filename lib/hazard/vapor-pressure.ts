@@ -123,6 +123,7 @@ export type SaturatedConcentrationResult = {
 export const TROUTON_ENTROPY_J_PER_MOL_K = 88;
 
 const LN10 = Math.LN10;
+const LN_KPA_PER_PA = Math.log(0.001);
 
 const CORRELATION_LABEL = { antoine: 'Antoine', dippr101: 'DIPPR-101' } as const;
 
@@ -178,31 +179,63 @@ function assertOptionalFinite(value: number | undefined, field: string): void {
   }
 }
 
+// Forms of a compiled correlation. Perry's DIPPR-101 sets use C5 = 1, 2 or 6; for those the power
+// T^C5 is a product, several times faster than Math.pow.
+const FORM_ANTOINE = 0;
+const FORM_DIPPR_T1 = 1;
+const FORM_DIPPR_T2 = 2;
+const FORM_DIPPR_T6 = 3;
+const FORM_DIPPR_POW = 4;
+
 /**
  * A correlation reduced to plain numbers in one fixed shape, so the hot path does no unit
  * switches and sees a single object layout:
  * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4.
  */
-class CompiledCorrelation {
-  constructor(
-    readonly tMinC: number,
-    readonly tMaxC: number,
-    readonly antoine: boolean,
-    readonly k0: number,
-    readonly k1: number,
-    readonly k2: number,
-    readonly k3: number,
-    readonly k4: number,
-  ) {}
+type CompiledCorrelation = {
+  readonly tMinC: number;
+  readonly tMaxC: number;
+  readonly form: number;
+  readonly method: 'antoine' | 'dippr101';
+  readonly k0: number;
+  readonly k1: number;
+  readonly k2: number;
+  readonly k3: number;
+  readonly k4: number;
+};
+
+// Compiled objects are built by these factories as object literals, not as classes: a class
+// field is first defined as undefined and only then set, which makes V8 store every number in it
+// boxed; a literal's numeric fields stay unboxed doubles. One factory, one object layout.
+function newCompiledCorrelation(
+  tMinC: number,
+  tMaxC: number,
+  form: number,
+  method: 'antoine' | 'dippr101',
+  k0: number,
+  k1: number,
+  k2: number,
+  k3: number,
+  k4: number,
+): CompiledCorrelation {
+  return { tMinC, tMaxC, form, method, k0, k1, k2, k3, k4 };
+}
+
+function dipprForm(exponent: number): number {
+  if (exponent === 2) return FORM_DIPPR_T2;
+  if (exponent === 6) return FORM_DIPPR_T6;
+  if (exponent === 1) return FORM_DIPPR_T1;
+  return FORM_DIPPR_POW;
 }
 
 function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorrelation {
   if (correlation.kind === 'antoine') {
     const logFactor = correlation.log === 'log10' ? LN10 : 1;
-    return new CompiledCorrelation(
+    return newCompiledCorrelation(
       correlation.tMinC,
       correlation.tMaxC,
-      true,
+      FORM_ANTOINE,
+      'antoine',
       correlation.a * logFactor + Math.log(kPaPerUnit(correlation.pressureUnit)),
       correlation.b * logFactor,
       correlation.temperatureUnit === 'K' ? correlation.c : correlation.c - KELVIN_OFFSET,
@@ -210,11 +243,12 @@ function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorr
       0,
     );
   }
-  return new CompiledCorrelation(
+  return newCompiledCorrelation(
     correlation.tMinC,
     correlation.tMaxC,
-    false,
-    correlation.c1 + Math.log(0.001),
+    dipprForm(correlation.c5),
+    'dippr101',
+    correlation.c1 + LN_KPA_PER_PA,
     correlation.c2,
     correlation.c3,
     correlation.c4,
@@ -222,23 +256,36 @@ function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorr
   );
 }
 
+/** ln(P/kPa) of one compiled correlation; NaN where the Antoine form is undefined (T + C ≤ 0). */
 function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): number {
   const tempK = tempC + KELVIN_OFFSET;
-  if (compiled.antoine) {
+  const form = compiled.form;
+  if (form === FORM_ANTOINE) {
     const denominator = tempK + compiled.k2;
     return denominator <= 0 ? Number.NaN : Math.exp(compiled.k0 - compiled.k1 / denominator);
   }
-  const exponent = compiled.k4;
-  // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
   let power: number;
-  if (exponent === 2) power = tempK * tempK;
-  else if (exponent === 6) {
+  if (form === FORM_DIPPR_T2) power = tempK * tempK;
+  else if (form === FORM_DIPPR_T6) {
     const cube = tempK * tempK * tempK;
     power = cube * cube;
-  } else if (exponent === 1) power = tempK;
-  else power = Math.pow(tempK, exponent);
+  } else if (form === FORM_DIPPR_T1) power = tempK;
+  else power = Math.pow(tempK, compiled.k4);
   return Math.exp(compiled.k0 + compiled.k1 / tempK + compiled.k2 * Math.log(tempK) + compiled.k3 * power);
 }
+
+/**
+ * What the hot path needs of a property set, read once when the set is first seen: its compiled
+ * correlations and the two scalars it uses. Property objects arrive in many shapes (seed rows,
+ * API payloads, test literals); reading them only here keeps the hot path's property loads
+ * monomorphic.
+ */
+type CompiledProperties = {
+  readonly correlations: CompiledCorrelation[];
+  /** −Infinity when no melting point is given, so `tempC < meltingPointC` is simply false. */
+  readonly meltingPointC: number;
+  readonly molarMassGPerMol: number;
+};
 
 /**
  * Property sets already checked, with their compiled correlations. Library entries are static
@@ -246,16 +293,29 @@ function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): numb
  * validated and compiled once and then treated as an immutable value: to change a property,
  * build a new object rather than editing one in place.
  */
-const compiledProperties = new WeakMap<VaporProperties, CompiledCorrelation[]>();
-let lastProps: VaporProperties | undefined;
-let lastCompiled: CompiledCorrelation[] = [];
+const compiledProperties = new WeakMap<VaporProperties, CompiledProperties>();
+
+/**
+ * One-entry identity cache in front of the WeakMap: callers usually evaluate one substance at
+ * several temperatures, or its pressure and then its concentration, in a row. A const object
+ * rather than module-level `let`s, whose every read would carry a not-yet-initialised check.
+ */
+const lastSeen: { props: VaporProperties | null; compiled: CompiledProperties | null } = { props: null, compiled: null };
+
+function compiledFor(props: VaporProperties): CompiledProperties {
+  if (props === lastSeen.props) return lastSeen.compiled as CompiledProperties;
+  const compiled = compiledProperties.get(props) ?? compileProperties(props);
+  lastSeen.props = props;
+  lastSeen.compiled = compiled;
+  return compiled;
+}
 
 /** Checks every field of the property set; throws HazardInputError on the first bad one. */
 export function validateVaporProperties(props: VaporProperties): void {
   if (compiledProperties.get(props) === undefined) compileProperties(props);
 }
 
-function compileProperties(props: VaporProperties): CompiledCorrelation[] {
+function compileProperties(props: VaporProperties): CompiledProperties {
   if (props === null || typeof props !== 'object') {
     throw new HazardInputError('empty-input', 'props', 'Vapor properties are missing');
   }
@@ -279,8 +339,13 @@ function compileProperties(props: VaporProperties): CompiledCorrelation[] {
   assertOptionalFinite(props.flashPointC, 'props.flashPointC');
   if (props.lflVolPercent !== undefined) assertPositive(props.lflVolPercent, 'props.lflVolPercent');
   if (props.uflVolPercent !== undefined) assertPositive(props.uflVolPercent, 'props.uflVolPercent');
-  compiledProperties.set(props, compiled);
-  return compiled;
+  const result: CompiledProperties = {
+    correlations: compiled,
+    meltingPointC: props.meltingPointC === undefined ? Number.NEGATIVE_INFINITY : props.meltingPointC,
+    molarMassGPerMol: props.molarMassGPerMol,
+  };
+  compiledProperties.set(props, result);
+  return result;
 }
 
 /**
@@ -426,32 +491,63 @@ export function troutonEnthalpyKJPerMol(normalBoilingPointC: number): number {
   return (TROUTON_ENTROPY_J_PER_MOL_K * (normalBoilingPointC + KELVIN_OFFSET)) / 1000;
 }
 
-// Side results of computeSaturationKPa, read immediately by the two public wrappers. Using
-// module-level scratch instead of a returned object keeps the hot path free of an allocation;
-// everything here is synchronous, so no other call can interleave.
-let scratchMethod: SaturationPressureMethod = 'antoine';
+// Side results of computeSaturationKPa (the general path), read immediately by the two public
+// wrappers. Module-level scratch of one fixed shape instead of a returned object keeps that path
+// free of an allocation; everything here is synchronous, so no other call can interleave.
+const scratch: { method: SaturationPressureMethod; extrapolated: boolean; warnings: string[] | undefined } = {
+  method: 'antoine',
+  extrapolated: false,
+  warnings: undefined,
+};
 /**
  * Results without warnings share this one frozen empty array, so the hot path allocates nothing
  * but the result object. Treat every result's `warnings` as read-only: copy it to add to it.
  */
 const NO_WARNINGS = Object.freeze([]) as unknown as string[];
-let scratchExtrapolated = false;
-let scratchWarnings: string[] | undefined;
 
-function computeSaturationKPa(props: VaporProperties, tempC: number): number {
-  assertTempC(tempC);
-  // One-entry identity check in front of the WeakMap: callers usually evaluate one substance at
-  // several temperatures, or its pressure and then its concentration, in a row.
-  let compiled: CompiledCorrelation[];
-  if (props === lastProps) compiled = lastCompiled;
-  else {
-    compiled = compiledProperties.get(props) ?? compileProperties(props);
-    lastProps = props;
-    lastCompiled = compiled;
+/**
+ * The common case, checked before anything else: the first correlation whose range covers tempC,
+ * with the liquid above its melting point. Null sends the caller down the general path, which
+ * makes the same choice (and also handles extrapolation, warnings, errors and the fallbacks).
+ */
+function coveringCorrelation(compiled: CompiledProperties, tempC: number): CompiledCorrelation | null {
+  if (tempC < compiled.meltingPointC) return null;
+  const correlations = compiled.correlations;
+  const count = correlations.length;
+  for (let i = 0; i < count; i++) {
+    const correlation = correlations[i];
+    if (tempC >= correlation.tMinC && tempC <= correlation.tMaxC) return correlation;
   }
+  return null;
+}
+
+/**
+ * The last covered evaluation. The register asks for a substance's pressure and then for its
+ * concentration at the same temperature (lib/substances does the same); the second call then
+ * reuses the pressure instead of evaluating exp/ln again. Keyed on the compiled correlation,
+ * which belongs to one immutable property set, and on the exact temperature, so the value
+ * returned is bit-for-bit what a fresh evaluation would give.
+ */
+const lastEvaluation: { correlation: CompiledCorrelation | null; tempC: number; pressureKPa: number } = {
+  correlation: null,
+  tempC: 0.5,
+  pressureKPa: 0.5,
+};
+
+function coveredPressureKPa(correlation: CompiledCorrelation, tempC: number): number {
+  if (correlation === lastEvaluation.correlation && tempC === lastEvaluation.tempC) return lastEvaluation.pressureKPa;
+  const pressureKPa = evaluateCompiledKPa(correlation, tempC);
+  lastEvaluation.correlation = correlation;
+  lastEvaluation.tempC = tempC;
+  lastEvaluation.pressureKPa = pressureKPa;
+  return pressureKPa;
+}
+
+function computeSaturationKPa(props: VaporProperties, compiledProps: CompiledProperties, tempC: number): number {
+  const compiled = compiledProps.correlations;
   let warnings: string[] | undefined;
-  const meltingPointC = props.meltingPointC;
-  if (meltingPointC !== undefined && tempC < meltingPointC) warnings = [supercooledWarning(meltingPointC, tempC)];
+  const meltingPointC = compiledProps.meltingPointC;
+  if (tempC < meltingPointC) warnings = [supercooledWarning(meltingPointC, tempC)];
   if (compiled.length > 0) {
     const choice = chooseCorrelation(compiled, tempC);
     const covered = choice >= 0;
@@ -465,9 +561,9 @@ function computeSaturationKPa(props: VaporProperties, tempC: number): number {
       if (warnings === undefined) warnings = [rangeWarning(correlation, tempC)];
       else warnings.unshift(rangeWarning(correlation, tempC));
     }
-    scratchMethod = compiled[index].antoine ? 'antoine' : 'dippr101';
-    scratchExtrapolated = !covered;
-    scratchWarnings = warnings;
+    scratch.method = compiled[index].method;
+    scratch.extrapolated = !covered;
+    scratch.warnings = warnings;
     return pressureKPa;
   }
   const boilingPointC = props.normalBoilingPointC;
@@ -494,9 +590,9 @@ function computeSaturationKPa(props: VaporProperties, tempC: number): number {
     );
   }
   list.unshift(...fallback);
-  scratchMethod = known === undefined ? 'clausius-clapeyron-trouton' : 'clausius-clapeyron';
-  scratchExtrapolated = true;
-  scratchWarnings = list;
+  scratch.method = known === undefined ? 'clausius-clapeyron-trouton' : 'clausius-clapeyron';
+  scratch.extrapolated = true;
+  scratch.warnings = list;
   return pressureKPa;
 }
 
@@ -507,8 +603,17 @@ function computeSaturationKPa(props: VaporProperties, tempC: number): number {
  * boiling point (101.325 kPa) with ΔHvap; else the same with ΔHvap from Trouton's rule.
  */
 export function saturationPressure(props: VaporProperties, tempC: number): SaturationPressureResult {
-  const pressureKPa = computeSaturationKPa(props, tempC);
-  return { pressureKPa, method: scratchMethod, extrapolated: scratchExtrapolated, warnings: scratchWarnings ?? NO_WARNINGS };
+  assertTempC(tempC);
+  const compiled = compiledFor(props);
+  const correlation = coveringCorrelation(compiled, tempC);
+  if (correlation !== null) {
+    const pressureKPa = coveredPressureKPa(correlation, tempC);
+    if (pressureKPa > 0 && pressureKPa !== Number.POSITIVE_INFINITY) {
+      return { pressureKPa, method: correlation.method, extrapolated: false, warnings: NO_WARNINGS };
+    }
+  }
+  const pressureKPa = computeSaturationKPa(props, compiled, tempC);
+  return { pressureKPa, method: scratch.method, extrapolated: scratch.extrapolated, warnings: scratch.warnings ?? NO_WARNINGS };
 }
 
 /**
@@ -516,7 +621,7 @@ export function saturationPressure(props: VaporProperties, tempC: number): Satur
  * Antoine form is undefined so that bisection sees "below the target".
  */
 function saturationPressureForSolverKPa(props: VaporProperties, tempC: number): number {
-  const compiled = compiledProperties.get(props) ?? compileProperties(props);
+  const compiled = compiledFor(props).correlations;
   if (compiled.length > 0) {
     const choice = chooseCorrelation(compiled, tempC);
     const pressureKPa = evaluateCompiledKPa(compiled[choice >= 0 ? choice : -choice - 1], tempC);
@@ -570,7 +675,7 @@ function boilsWarning(tempC: number, pressureKPa: number, ambientPressureKPa: nu
 /**
  * Equilibrium (saturated) vapor concentration above the pure liquid in still air:
  * y = Psat/Patm; ppm = 10⁶·y; mg/m³ = ppm × M / Vm(T) with Vm = R·T/Patm
- * (rules-and-methods §3.6; e.g. J. Chem. Educ. CLIP "Toluene": 22 torr at 20 °C ≈ 29 000 ppm).
+ * (Dalton's law; Vm as in NIOSH NMAM Appendix A; e.g. J. Chem. Educ. CLIP "Toluene": 22 torr at 20 °C ≈ 29 000 ppm).
  */
 export function saturatedConcentration(
   props: VaporProperties,
@@ -584,13 +689,32 @@ export function saturatedConcentration(
       `ambientPressureKPa must be a finite pressure above zero (got ${String(ambientPressureKPa)})`,
     );
   }
-  const pressureKPa = computeSaturationKPa(props, tempC);
+  assertTempC(tempC);
+  const compiled = compiledFor(props);
+  // mg/m³ = ppm·M/Vm = y·10⁶·M·Patm/(R·T); with Patm in kPa the 10³ of Pa and the 10³ of g→mg cancel.
+  const correlation = coveringCorrelation(compiled, tempC);
+  if (correlation !== null) {
+    const pressureKPa = coveredPressureKPa(correlation, tempC);
+    if (pressureKPa > 0 && pressureKPa < ambientPressureKPa) {
+      const ppm = (pressureKPa / ambientPressureKPa) * 1e6;
+      return {
+        ppm,
+        mgPerM3: (ppm * compiled.molarMassGPerMol * ambientPressureKPa) / (GAS_CONSTANT_J_PER_MOL_K * (tempC + KELVIN_OFFSET)),
+        volumePercent: (pressureKPa / ambientPressureKPa) * 100,
+        boils: false,
+        pressureKPa,
+        warnings: NO_WARNINGS,
+        method: correlation.method,
+        extrapolated: false,
+      };
+    }
+  }
+  const pressureKPa = computeSaturationKPa(props, compiled, tempC);
   const boils = pressureKPa >= ambientPressureKPa;
   const moleFraction = boils ? 1 : pressureKPa / ambientPressureKPa;
   const ppm = moleFraction * 1e6;
-  // mg/m³ = ppm·M/Vm = y·10⁶·M·Patm/(R·T); with Patm in kPa the 10³ of Pa and the 10³ of g→mg cancel.
-  const mgPerM3 = (ppm * props.molarMassGPerMol * ambientPressureKPa) / (GAS_CONSTANT_J_PER_MOL_K * (tempC + KELVIN_OFFSET));
-  let warnings = scratchWarnings;
+  const mgPerM3 = (ppm * compiled.molarMassGPerMol * ambientPressureKPa) / (GAS_CONSTANT_J_PER_MOL_K * (tempC + KELVIN_OFFSET));
+  let warnings = scratch.warnings;
   if (boils) {
     if (warnings === undefined) warnings = [];
     warnings.push(boilsWarning(tempC, pressureKPa, ambientPressureKPa));
@@ -602,7 +726,7 @@ export function saturatedConcentration(
     boils,
     pressureKPa,
     warnings: warnings ?? NO_WARNINGS,
-    method: scratchMethod,
-    extrapolated: scratchExtrapolated,
+    method: scratch.method,
+    extrapolated: scratch.extrapolated,
   };
 }

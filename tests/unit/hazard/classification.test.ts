@@ -4,7 +4,7 @@ import { CAS, seedByCas } from './library';
 
 describe('GHS flammable-liquid category (UN GHS 2.6 / OSHA 29 CFR 1910.106(a)(19))', () => {
   it.each([
-    // Test cases of rules-and-methods §1.5 (derived from the published criteria).
+    // Headroom's edge cases, derived from the published GHS and NFPA 30 criteria.
     [22.9, 80, 2],
     [10, 36, 2],
     [60.0, 150, 3],
@@ -25,7 +25,7 @@ describe('GHS flammable-liquid category (UN GHS 2.6 / OSHA 29 CFR 1910.106(a)(19
 
 describe('NFPA 30 liquid class', () => {
   it.each([
-    // rules-and-methods §1.5 test cases
+    // Headroom's edge cases, derived from the published GHS and NFPA 30 criteria
     [22.9, 80, 'IC'],
     [10, 36, 'IA'],
     [60.0, 150, 'IIIA'],

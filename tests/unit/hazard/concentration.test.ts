@@ -32,7 +32,7 @@ describe('saturatedConcentration (worked examples)', () => {
   });
 
   it('N,N-dimethylformamide at 20 °C: 3,550 ppm (NIOSH IDLH documentation, A.D. Little), implied 2.70 mmHg', () => {
-    // Tolerance 0.5 % as the worked example suggests (the implied pressure is rounded to 2.70).
+    // Tolerance 0.5 %: the implied pressure is rounded to 2.70.
     expect(relativeDeviation(saturatedConcentration(fixedVaporPressure(2.7, 73.095), 20).ppm, 3550)).toBeLessThan(0.005);
   });
 
@@ -40,7 +40,7 @@ describe('saturatedConcentration (worked examples)', () => {
     expect(relativeDeviation(saturatedConcentration(fixedVaporPressure(1.98, 132.16), 20).ppm, 2600)).toBeLessThan(0.005);
   });
 
-  it('mg/m³ of the saturated vapor depends only on Psat and T, not on Patm (worked example 2d)', () => {
+  it('mg/m³ of the saturated vapor depends only on Psat and T, not on Patm (ideal-gas identity, mg/m³ = Psat·M/(R·T))', () => {
     const props = fixedVaporPressure(22, 92.14);
     const sea = saturatedConcentration(props, 20, 101.325);
     const altitude = saturatedConcentration(props, 20, 83.4);
@@ -71,7 +71,7 @@ describe('saturatedConcentration (worked examples)', () => {
 
 describe('ppm ↔ mg/m³', () => {
   it('1,4-dioxane: 1 ppm = 3.6 mg/m³ at 25 °C (US EPA Air Toxics hazard summary; 88.106/24.45 = 3.6035)', () => {
-    // Tolerance 0.2 %: R·T/P = 24.465 L/mol vs the rounded 24.45 (CCOHS; worked example 3b).
+    // Tolerance 0.2 %: R·T/P = 24.465 L/mol vs the rounded 24.45 (CCOHS OSH Answers).
     expect(relativeDeviation(ppmToMgPerM3(1, 88.106), 3.6035)).toBeLessThan(0.002);
   });
 
@@ -99,12 +99,12 @@ describe('ppm ↔ mg/m³', () => {
     ['styrene REL', 50, 104.152, 215],
     ['n-hexane REL', 50, 86.178, 180],
   ])('%s %s ppm = %s g/mol → %s mg/m³ (NIOSH)', (_name, ppm, molarMass, mgPerM3) => {
-    // Tolerance 2.5 %: the two-significant-figure rounding of the printed mg/m³ (worked example 3c).
+    // Tolerance 2.5 %: the two-significant-figure rounding of the printed mg/m³ (NIOSH).
     expect(relativeDeviation(ppmToMgPerM3(ppm, molarMass), mgPerM3)).toBeLessThan(0.025);
   });
 
   it('general T and P form (CCOHS: mg/m³ = P[mmHg] × MW × ppm / (62.4 × (273.2 + T)))', () => {
-    // Tolerance 0.2 % between formulations (R = 62.4 and 273.2 are rounded), as worked example 3b says.
+    // Tolerance 0.2 % between formulations (CCOHS rounds R to 62.4 and the offset to 273.2).
     const ccohs = (ppm: number, molarMass: number, tempC: number, pressureMmHg: number) =>
       (pressureMmHg * molarMass * ppm) / (62.4 * (273.2 + tempC));
     expect(relativeDeviation(ppmToMgPerM3(100, 92.14, 4, 700 * MMHG_KPA), ccohs(100, 92.14, 4, 700))).toBeLessThan(0.002);
@@ -128,11 +128,11 @@ describe('ppm ↔ mg/m³', () => {
   });
 
   it.each([
-    // rules-and-methods §2.5, from 62.36·T/760 (derived): cold-storage molar volumes.
+    // Cold-storage molar volumes derived from NIOSH NMAM Appendix A's Vm = 62.36·T/760 (our arithmetic).
     [4, 22.74],
     [-20, 20.77],
     [-80, 15.85],
-  ])('molar volume at %s °C is %s L/mol (derived table in the reference notes)', (tempC, litres) => {
+  ])('molar volume at %s °C is %s L/mol (derived from NIOSH NMAM Appendix A)', (tempC, litres) => {
     expect(relativeDeviation(molarVolumeLPerMol(tempC, 101.325), litres)).toBeLessThan(0.0005);
   });
 });

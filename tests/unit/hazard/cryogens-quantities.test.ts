@@ -11,7 +11,7 @@ import {
 import { relativeDeviation, seedByCas, CAS } from './library';
 
 describe('liquid nitrogen', () => {
-  it('expansion ratio ≈ 692 at 20 °C and ≈ 704 at 25 °C from 806.5 kg/m³ (rules-and-methods §6.2, derived)', () => {
+  it('expansion ratio ≈ 692 at 20 °C and ≈ 704 at 25 °C from 806.5 kg/m³ (UW-Madison LN₂ data; derived)', () => {
     expect(relativeDeviation(liquidNitrogenExpansionRatio(), 692.5)).toBeLessThan(0.001);
     expect(relativeDeviation(liquidNitrogenExpansionRatio({ referenceTempC: 25 }), 704.3)).toBeLessThan(0.001);
     // 1 L LN₂ = 24.54 ft³ N₂ at 70 °F (UW-Madison data) = 695 L: within 0.2 % at 21.1 °C.
@@ -22,7 +22,7 @@ describe('liquid nitrogen', () => {
     expect(seedByCas(CAS.nitrogen).liquidDensityKgPerM3).toBe(806.5);
   });
 
-  it('linear displacement formula: V_gas/V_room = 0.2 gives 16.8 % from 21 % (rules-and-methods §6.3)', () => {
+  it('linear displacement formula: V_gas/V_room = 0.2 gives 16.8 % from 21 % (Univ. of Oxford Safety Office S4/03 Appendix 1)', () => {
     const result = oxygenAfterRelease({ gasVolumeM3: 20, roomVolumeM3: 100, baselineOxygenPercent: 21 });
     expect(result.oxygenPercent).toBeCloseTo(16.8, 10);
     expect(result.deficient).toBe(true);
@@ -50,7 +50,7 @@ describe('liquid nitrogen', () => {
 });
 
 describe('dry ice', () => {
-  it('2.27 kg (5 lb) subliming in a sealed 22.5 m³ cold room: 1.24 m³ CO₂, ≈ 55 000 ppm, above the IDLH (rules-and-methods §6.4)', () => {
+  it('2.27 kg (5 lb) subliming in a sealed 22.5 m³ cold room: 1.24 m³ CO₂, ≈ 55 000 ppm, above the IDLH (our illustration; the room is hypothetical)', () => {
     // By hand: 2270/44.009 × 24.055 L = 1240.8 L; /22.5 m³ = 55 146 ppm. Published illustration 5.5 %.
     const result = dryIceRelease({ massKg: 2.27, roomVolumeM3: 22.5 });
     expect(result.gasVolumeM3).toBeCloseTo(1.24, 2);
@@ -65,11 +65,11 @@ describe('dry ice', () => {
     expect(result.oxygenDeficient).toBe(false);
   });
 
-  it('0.546 m³ of gas per kg at 20 °C (rules-and-methods §6.4, ideal gas)', () => {
+  it('0.546 m³ of gas per kg at 20 °C (ideal gas; Univ. of Maine at Fort Kent and Univ. of York agree within 2 %)', () => {
     expect(relativeDeviation(dryIceRelease({ massKg: 1, roomVolumeM3: 100 }).gasVolumeM3, 0.546)).toBeLessThan(0.002);
   });
 
-  it('O₂ reaches 19.5 % only at about 67 000 ppm CO₂ (rules-and-methods §6.4, derived)', () => {
+  it('O₂ reaches 19.5 % only at about 67 000 ppm CO₂ (derived: 20.9·(1 − x) = 19.5)', () => {
     const result = oxygenAfterRelease({ gasVolumeM3: 6.7, roomVolumeM3: 100 });
     expect(result.oxygenPercent).toBeCloseTo(19.5, 1);
   });

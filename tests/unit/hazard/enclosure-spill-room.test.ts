@@ -13,7 +13,7 @@ describe('closed-enclosure bound C = min(C_sat, m·Vm/(M·V_free))', () => {
   const acetone = propsByCas(CAS.acetone);
 
   it('inventory-limited: 10 g of acetone in a 0.15 m³ refrigerator at 4 °C', () => {
-    // By hand: Vm(4 °C) = 22.74 L/mol (rules-and-methods §2.5 table); (10/58.08) × 22.74 /
+    // By hand: Vm(4 °C) = 22.74 L/mol (62.36·T/760, NIOSH NMAM Appendix A); (10/58.08) × 22.74 /
     // (1000 × 0.15) × 10⁶ = 26 104 ppm, below C_sat (≈ 10 % by volume at 4 °C). Tolerance 0.01 %.
     const result = enclosureBound({
       props: acetone,
@@ -142,7 +142,7 @@ describe('spill pool and evaporation', () => {
 describe('well-mixed room model', () => {
   // By hand: G = 1 g/s, V = 100 m³, 6 ACH → Q = 0.16667 m³/s; k = 0.5 → k·Q = 0.08333 m³/s;
   // C_ss = 1000 mg/s / 0.08333 = 12 000 mg/m³; at t = V/(kQ) = 1200 s, C = C_ss(1 − e⁻¹) = 7585.5;
-  // t95 = ln 20 × 1200 = 3594.9 s (≈ 3.0 V/Q′, rules-and-methods §4.3).
+  // t95 = ln 20 × 1200 = 3594.9 s (≈ 3.0 V/Q′, solution of the AIHA well-mixed room mass balance).
   const base = { generationRateGPerS: 1, roomVolumeM3: 100, airChangesPerHour: 6, mixingFactor: 0.5, molarMassGPerMol: 92.14, tempC: 25 };
 
   it('steady state and transient', () => {

@@ -13,7 +13,7 @@ import { CAS, propsByCas, propsOf, relativeDeviation } from './library';
 describe("Le Chatelier's rule", () => {
   // Crowl & Louvar, Chemical Process Safety, ch. 6 example (values from memory): 0.8 % hexane,
   // 2.0 % methane, 0.5 % ethylene in air. Recomputed: LFL_mix 2.738 %, UFL_mix 12.91 %.
-  // Tolerance 0.5 % as suggested in the worked examples.
+  // Tolerance 0.5 %.
   const gas = [
     { name: 'hexane', moleFraction: 0.8, lfl: 1.2, ufl: 7.5 },
     { name: 'methane', moleFraction: 2.0, lfl: 5.3, ufl: 15.0 },
@@ -28,7 +28,7 @@ describe("Le Chatelier's rule", () => {
     const ufl = leChatelierLflVolPercent(gas.map((c) => ({ moleFraction: c.moleFraction, lflVolPercent: c.ufl })));
     expect(relativeDeviation(ufl, 12.91)).toBeLessThan(0.005);
   });
-  it('newer ethylene limits 2.7 % give 2.685 % (worked example 5a)', () => {
+  it('newer ethylene limits 2.7 % give 2.685 % (same Crowl & Louvar mixture, recomputed)', () => {
     const lfl = leChatelierLflVolPercent([
       { moleFraction: 0.8, lflVolPercent: 1.2 },
       { moleFraction: 2.0, lflVolPercent: 5.3 },
@@ -48,7 +48,7 @@ describe("Le Chatelier's rule", () => {
 });
 
 describe('fraction of the LFL', () => {
-  it('saturated toluene at 20 °C is about 2.6 × the NPG LFL of 1.1 % (worked example 2a)', () => {
+  it('saturated toluene at 20 °C is about 2.6 × the NPG LFL of 1.1 % (J. Chem. Educ. CLIP "Toluene": 22 torr ≈ 29 000 ppm)', () => {
     const result = lflFraction({ components: [{ concentrationPpm: 28947, lflVolPercent: 1.1 }], alarmFractions: [0.25, 0.1] });
     expect(result.fractionOfLfl).toBeCloseTo(28947 / 11000, 10);
     expect(result.fractionOfLfl).toBeCloseTo(2.6, 1);
@@ -84,7 +84,7 @@ describe('lower flammable temperature (Psat(T_L)/Patm = LFL)', () => {
     'lies within 7 K of the closed-cup flash point for %s (IEC 60079-20-1 values)',
     (cas) => {
       // Consistency check, not a published equality: "for liquids the LFL is typically close to the
-      // saturated vapor concentration at the flash point" (rules-and-methods §3.5, secondary source);
+      // saturated vapor concentration at the flash point" (Lower flammable limit, encyclopedia mirror at questionai.com, a secondary source);
       // closed-cup flash points sit a few kelvin above the equilibrium value. 7 K is that spread.
       const seed = substanceLibrary.find((entry) => entry.cas === cas)!;
       const tempC = lowerFlammableTemperatureC(propsOf(seed)) as number;

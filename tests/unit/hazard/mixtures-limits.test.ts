@@ -80,7 +80,7 @@ describe('exposure limits', () => {
     expect(result.trace.steps[0].substituted).toContain('0.925');
   });
 
-  it('saturated toluene at 20 °C is about 290 × the NIOSH REL of 100 ppm (worked example 2a)', () => {
+  it('saturated toluene at 20 °C is about 290 × the NIOSH REL of 100 ppm (J. Chem. Educ. CLIP "Toluene": 22 torr ≈ 29 000 ppm)', () => {
     const toluene = seedByCas(CAS.toluene);
     const nioshTwa = toluene.exposureLimits.find((limit) => limit.body === 'NIOSH' && limit.kind === 'TWA')!;
     const result = exposureRatios({ concentrationPpm: 28947, molarMassGPerMol: toluene.molarMassGPerMol, limits: [nioshTwa] });

