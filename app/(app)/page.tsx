@@ -131,7 +131,14 @@ export default async function OverviewPage() {
 
         <div className="space-y-6">
           {showAudit ? (
-            <Card title="Recent activity">
+            <Card
+              title="Recent activity"
+              action={
+                <Link href="/exports/audit" className="text-xs font-medium text-accent-700 hover:underline">
+                  Audit log
+                </Link>
+              }
+            >
               {events.length === 0 ? (
                 <p className="text-sm text-ink-600">No activity recorded yet.</p>
               ) : (

@@ -81,6 +81,13 @@ export function ConfigForm<S extends z.ZodObject>({
 }) {
   const { form, fields, pending, lastResult } = useServerForm(schema, action, { id, defaultValue });
   const all = fields as unknown as Record<string, FieldMetadata<unknown>>;
+  // "sources.flashPointC" → the flashPointC field of the sources fieldset.
+  const fieldFor = (name: string): FieldMetadata<unknown> => {
+    const [head, ...rest] = name.split(".");
+    let field = all[head];
+    for (const part of rest) field = (field as unknown as { getFieldset: () => Record<string, FieldMetadata<unknown>> }).getFieldset()[part];
+    return field;
+  };
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
   return (
     <form {...getFormProps(form)} action={action as never} noValidate className="space-y-6">
@@ -92,7 +99,7 @@ export function ConfigForm<S extends z.ZodObject>({
         <fieldset key={section.legend ?? index} className="grid gap-4 sm:grid-cols-3">
           {section.legend ? <legend className="mb-2 text-sm font-semibold text-ink-900">{section.legend}</legend> : null}
           {section.fields.map((config) => {
-            const field = all[config.name];
+            const field = fieldFor(config.name);
             return (
               <div key={config.name} className={SPAN[config.span ?? 1]}>
                 <Field id={field.id} label={config.label} hint={config.hint} errors={field.errors}>

@@ -10,7 +10,10 @@ export const mixtureCreateSchema = z
     description: optionalText("Description", 1000),
     fractionBasis: z.enum(FRACTION_BASES, { error: "Choose mass or mole fractions." }),
     components: z
-      .array(
+      .preprocess(
+        // Blank rows of the form (no substance and no fraction) are not components.
+        (rows) => (Array.isArray(rows) ? rows.filter((r) => r && typeof r === "object" && ((r as Record<string, unknown>).substanceId || (r as Record<string, unknown>).fraction)) : rows),
+        z.array(
         z.object({
           substanceId: requiredId("substance"),
           fraction: requiredNumber({ label: "Fraction", exclusiveMin: 0, max: 1 }),
@@ -18,7 +21,7 @@ export const mixtureCreateSchema = z
         { error: "Add the mixture's components." },
       )
       .min(1, "Add at least one component.")
-      .max(20, "A mixture has at most 20 components."),
+      .max(20, "A mixture has at most 20 components.")),
   })
   .superRefine((value, ctx) => {
     const seen = new Set<number>();

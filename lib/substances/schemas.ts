@@ -143,4 +143,9 @@ function sourcesCoverValues(value: Record<string, unknown>, ctx: z.RefinementCtx
 export const substanceCreateSchema = z.object(substanceFields).superRefine(sourcesCoverValues);
 /** An update sends the whole edited record (the form shows every field), so the same rules apply. */
 export const substanceUpdateSchema = z.object(substanceFields).superRefine(sourcesCoverValues);
+/** The edit form: the whole record plus its id. */
+export const substanceEditFormSchema = z
+  .object({ ...substanceFields, id: z.coerce.number().int().positive() })
+  .superRefine(sourcesCoverValues);
+export const substanceRetireFormSchema = z.object({ id: z.coerce.number().int().positive(), retired: z.enum(["true", "false"]).transform((v) => v === "true") });
 export type SubstanceWriteInput = z.output<typeof substanceCreateSchema>;

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePagePermission } from "@/lib/auth/page";
+import { ExportsTabs } from "./exports-tabs";
 
 export const metadata: Metadata = { title: "Exports" };
 
@@ -19,7 +20,8 @@ export default async function ExportsPage() {
   await requirePagePermission("exports.download");
   return (
     <div className="space-y-5">
-      <PageHeader title="Exports" description="The register as an Excel workbook for audits: numbers as numbers, units in the headers, frozen header rows and filters." />
+      <PageHeader title="Exports and audit" description="The register as an Excel workbook for audits: numbers as numbers, units in the headers, frozen header rows and filters." />
+      <ExportsTabs current="workbook" />
       <Card title="Register workbook">
         <p className="mb-3 text-sm text-ink-700">The workbook holds these sheets:</p>
         <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-[10rem_minmax(0,1fr)]">

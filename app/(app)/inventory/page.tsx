@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { Suspense } from "react";
 import { buttonClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { siteOptions } from "@/db/queries/options";
@@ -18,15 +19,22 @@ export default async function InventoryPage() {
         title="Inventory"
         description="Containers of volatile liquids by storage unit: what is stored where, how much, and who owns it."
         actions={
-          can(user.role, "containers.write") ? (
-            <Link href="/inventory/new" className={buttonClass("primary")}>
-              Log a container
+          <>
+            <Link href="/inventory/mixtures" className={buttonClass("secondary")}>
+              Mixtures
             </Link>
-          ) : undefined
+            {can(user.role, "containers.write") ? (
+              <Link href="/inventory/new" className={buttonClass("primary")}>
+                Log a container
+              </Link>
+            ) : null}
+          </>
         }
       />
       <LabelLookup />
-      <ContainersTable sites={siteOptions()} showMine={user.role === "researcher" || can(user.role, "containers.write")} />
+      <Suspense fallback={<p className="rounded-lg border border-ink-200 bg-white px-4 py-10 text-center text-sm text-ink-500">Loading containers…</p>}>
+        <ContainersTable sites={siteOptions()} showMine={can(user.role, "containers.write")} />
+      </Suspense>
     </div>
   );
 }

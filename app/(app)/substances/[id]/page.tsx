@@ -1,7 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { AuditTrail } from "@/components/audit-trail";
 import { VaporPressureChart } from "@/components/charts/vapor-pressure-chart";
+import { buttonClass } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/form-message";
+import { auditTrail } from "@/db/queries/audit";
+import { can } from "@/lib/auth/permissions";
+import { RetireSubstanceButton } from "./retire-button";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getSubstance } from "@/db/queries/substances";
@@ -42,8 +48,9 @@ function correlationText(c: Record<string, unknown>): string {
   return `Antoine: ${log}(P/${String(c.pressureUnit)}) = A − B/(${t} + C)`;
 }
 
-export default async function SubstancePage({ params }: { params: Promise<{ id: string }> }) {
-  await requirePagePermission("substances.read");
+export default async function SubstancePage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ saved?: string }> }) {
+  const { user } = await requirePagePermission("substances.read");
+  const { saved } = await searchParams;
   const id = idParam((await params).id);
   const row = id ? getSubstance(id) : null;
   if (!row) notFound();
@@ -72,10 +79,21 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
           <span className="tabular">
             CAS {row.cas ?? "—"} · {row.formula ?? "—"}
             {row.synonyms.length ? ` · also ${row.synonyms.join(", ")}` : ""}
-            {row.retiredAt ? " · retired" : ""}
+            {row.retiredAt ? " · retired: not offered for new containers" : ""}
           </span>
         }
+        actions={
+          can(user.role, "substances.write") ? (
+            <>
+              <Link href={`/substances/${row.id}/edit`} className={buttonClass("secondary")}>
+                Correct values
+              </Link>
+              <RetireSubstanceButton id={row.id} retired={row.retiredAt != null} />
+            </>
+          ) : undefined
+        }
       />
+      {saved ? <FormMessage success="Saved. The previous values are in the history below." /> : null}
 
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <div className="rounded-lg border border-ink-200 bg-white px-4 py-3">
@@ -186,6 +204,9 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
           {row.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{row.notes}</p> : null}
         </Card>
       ) : null}
+      <Card title="History">
+        <AuditTrail events={auditTrail("substance", row.id)} />
+      </Card>
       <Caution />
     </div>
   );
