@@ -2,10 +2,12 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { VaporPressureChart } from "@/components/charts/vapor-pressure-chart";
+import { SdsAttachment } from "@/components/sds-attachment";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getSubstance } from "@/db/queries/substances";
 import { requirePagePermission } from "@/lib/auth/page";
+import { substanceSds } from "@/lib/files/service";
 import { VAPOR_METHOD_LABELS } from "@/lib/format/labels";
 import { formatNumber, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
@@ -43,7 +45,7 @@ function correlationText(c: Record<string, unknown>): string {
 }
 
 export default async function SubstancePage({ params }: { params: Promise<{ id: string }> }) {
-  await requirePagePermission("substances.read");
+  const { user } = await requirePagePermission("substances.read");
   const id = idParam((await params).id);
   const row = id ? getSubstance(id) : null;
   if (!row) notFound();
@@ -171,6 +173,10 @@ export default async function SubstancePage({ params }: { params: Promise<{ id: 
           </Card>
         </div>
       </div>
+
+      <Card title="Safety data sheet">
+        <SdsAttachment target={{ kind: "substance", id: row.id }} {...substanceSds(user, row.id)} />
+      </Card>
 
       {row.alternatives.length || row.notes ? (
         <Card title="Other sources and notes">
