@@ -1,4 +1,6 @@
 import "server-only";
+import path from "node:path";
+import { databasePath } from "@/db/client";
 
 /** Settings read from the environment, with the defaults that make a fresh clone work. */
 export const DEV_SESSION_SECRET = "headroom-development-secret-not-for-production-use";
@@ -58,4 +60,9 @@ export function mailFrom(): string {
 export function bcryptCost(): number {
   const cost = Number(process.env.BCRYPT_COST || 12);
   return Number.isInteger(cost) && cost >= 4 && cost <= 15 ? cost : 12;
+}
+
+/** Where uploaded files (safety data sheets) are kept: outside public/, next to the database by default. */
+export function uploadDir(): string {
+  return process.env.UPLOAD_DIR || path.join(path.dirname(databasePath()), "uploads");
 }

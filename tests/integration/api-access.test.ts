@@ -51,6 +51,11 @@ const ROUTES: Entry[] = [
   { file: "mixtures/[id]/route.ts", method: "GET", path: "/api/v1/mixtures/999", action: "inventory.read", params: { id: "999" } },
   { file: "substances/[id]/route.ts", method: "GET", path: "/api/v1/substances/1", action: "substances.read", params: { id: "1" } },
   { file: "substances/[id]/vapor-pressure/route.ts", method: "GET", path: "/api/v1/substances/1/vapor-pressure?tempC=20", action: "substances.read", params: { id: "1" } },
+  // Multipart uploads; with no body an allowed role gets 400 (no file), never 401/403.
+  { file: "containers/[id]/sds/route.ts", method: "POST", path: "/api/v1/containers/999/sds", action: "files.upload", params: { id: "999" } },
+  { file: "substances/[id]/sds/route.ts", method: "POST", path: "/api/v1/substances/999/sds", action: "substances.write", params: { id: "999" } },
+  // Every signed-in role passes the wrapper; who may open a file depends on what it is attached to.
+  { file: "files/[id]/route.ts", method: "GET", path: "/api/v1/files/999", action: "overview.read", params: { id: "999" } },
   // The catch-all answers 404 for unknown paths whoever asks.
   ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
 ];

@@ -2,12 +2,14 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { AuditTrail } from "@/components/audit-trail";
+import { SdsAttachment } from "@/components/sds-attachment";
 import { Card, PageHeader } from "@/components/ui/card";
 import { FormMessage } from "@/components/ui/form-message";
 import { auditTrail } from "@/db/queries/audit";
 import { getContainer } from "@/db/queries/containers";
 import { activeUserOptions, mixtureOptions, storageUnitOptions } from "@/db/queries/options";
 import { requirePagePermission } from "@/lib/auth/page";
+import { containerSds } from "@/lib/files/service";
 import { scopeFor } from "@/lib/auth/permissions";
 import { CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { formatDateTime, formatQuantity } from "@/lib/format/numbers";
@@ -117,6 +119,10 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </ol>
         </Card>
       </div>
+
+      <Card title="Safety data sheet">
+        <SdsAttachment target={{ kind: "container", id: container.id }} {...containerSds(user, container.id)} />
+      </Card>
 
       {mayChange ? (
         <div className="grid gap-6 lg:grid-cols-3">

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { AuditTrail } from "@/components/audit-trail";
 import { VaporPressureChart } from "@/components/charts/vapor-pressure-chart";
+import { SdsAttachment } from "@/components/sds-attachment";
 import { buttonClass } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
 import { auditTrail } from "@/db/queries/audit";
@@ -12,6 +13,7 @@ import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getSubstance } from "@/db/queries/substances";
 import { requirePagePermission } from "@/lib/auth/page";
+import { substanceSds } from "@/lib/files/service";
 import { VAPOR_METHOD_LABELS } from "@/lib/format/labels";
 import { formatNumber, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
@@ -189,6 +191,10 @@ export default async function SubstancePage({ params, searchParams }: { params: 
           </Card>
         </div>
       </div>
+
+      <Card title="Safety data sheet">
+        <SdsAttachment target={{ kind: "substance", id: row.id }} {...substanceSds(user, row.id)} />
+      </Card>
 
       {row.alternatives.length || row.notes ? (
         <Card title="Other sources and notes">

@@ -1,0 +1,64 @@
+import "server-only";
+import { z } from "zod";
+import { fieldErrorsFrom } from "@/lib/auth/guard";
+import { ValidationError } from "@/lib/errors";
+import { FileTooLargeError } from "./errors";
+import type { Upload } from "./storage";
+import { MAX_SDS_BYTES } from "./validate";
+
+/** Room for the multipart boundaries and part headers around the file itself. */
+const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
+
+const sdsFormSchema = z.object({
+  file: z.instanceof(File, { message: "Choose a PDF file to upload." }),
+});
+
+/**
+ * Reads the body, refusing it (413) as soon as it is larger than the limit allows, so an
+ * oversized upload is never held in memory whole; a missing Content-Length does not help.
+ */
+async function readBodyWithin(request: Request, maxBytes: number): Promise<Uint8Array> {
+  const declared = Number(request.headers.get("content-length"));
+  if (Number.isFinite(declared) && declared > maxBytes) throw new FileTooLargeError(MAX_SDS_BYTES);
+  if (!request.body) return new Uint8Array();
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel();
+      throw new FileTooLargeError(MAX_SDS_BYTES);
+    }
+    chunks.push(value);
+  }
+  const body = new Uint8Array(total);
+  let offset = 0;
+  for (const chunk of chunks) {
+    body.set(chunk, offset);
+    offset += chunk.byteLength;
+  }
+  return body;
+}
+
+/** The `file` field of a multipart/form-data request, as an upload for lib/files. */
+export async function readSdsUpload(request: Request): Promise<Upload> {
+  const contentType = request.headers.get("content-type") ?? "";
+  if (!contentType.toLowerCase().startsWith("multipart/form-data")) {
+    throw new ValidationError("Send the file as multipart/form-data in the field “file”.", { file: ["Choose a PDF file to upload."] });
+  }
+  const body = await readBodyWithin(request, MAX_SDS_BYTES + MULTIPART_OVERHEAD_BYTES);
+  let form: FormData;
+  try {
+    form = await new Response(body as BodyInit, { headers: { "content-type": contentType } }).formData();
+  } catch {
+    throw new ValidationError("The upload could not be read as a form.", { file: ["Choose a PDF file to upload."] });
+  }
+  const parsed = sdsFormSchema.safeParse({ file: form.get("file") ?? undefined });
+  if (!parsed.success) throw new ValidationError("Some fields need attention.", fieldErrorsFrom(parsed.error));
+  const file = parsed.data.file;
+  if (file.size > MAX_SDS_BYTES) throw new FileTooLargeError(MAX_SDS_BYTES);
+  return { bytes: new Uint8Array(await file.arrayBuffer()), originalName: file.name, declaredType: file.type || null };
+}
