@@ -44,6 +44,11 @@ const ROUTES: Entry[] = [
   { file: "mixtures/[id]/route.ts", method: "GET", path: "/api/v1/mixtures/999", action: "inventory.read", params: { id: "999" } },
   { file: "substances/[id]/route.ts", method: "GET", path: "/api/v1/substances/1", action: "substances.read", params: { id: "1" } },
   { file: "substances/[id]/vapor-pressure/route.ts", method: "GET", path: "/api/v1/substances/1/vapor-pressure?tempC=20", action: "substances.read", params: { id: "1" } },
+  { file: "imports/containers/preview/route.ts", method: "POST", path: "/api/v1/imports/containers/preview", action: "containers.import" },
+  { file: "imports/containers/route.ts", method: "POST", path: "/api/v1/imports/containers", action: "containers.import" },
+  { file: "imports/locations/preview/route.ts", method: "POST", path: "/api/v1/imports/locations/preview", action: "locations.import" },
+  { file: "imports/locations/route.ts", method: "POST", path: "/api/v1/imports/locations", action: "locations.import" },
+  { file: "imports/templates/[file]/route.ts", method: "GET", path: "/api/v1/imports/templates/none.csv", action: "overview.read", params: { file: "none.csv" } },
   // The catch-all answers 404 for unknown paths whoever asks.
   ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
 ];
