@@ -43,8 +43,10 @@ function chunks<T>(items: readonly T[], size: number): T[][] {
   return out;
 }
 
+const count = (n: number) => n.toLocaleString("en-GB");
+
 function plural(n: number, one: string, many = `${one}s`): string {
-  return `${n.toLocaleString("en-GB")} ${n === 1 ? one : many}`;
+  return `${count(n)} ${n === 1 ? one : many}`;
 }
 
 const byLine = (a: ImportIssue, b: ImportIssue) => a.line - b.line;
@@ -297,8 +299,8 @@ export function writeContainerPlan(
     action: "import",
     entityType: "container",
     summary:
-      `Imported ${plural(total, "container")} from ${fileName} (${counts.created} created, ${counts.updated} updated` +
-      (counts.unchanged ? `, ${counts.unchanged} unchanged)` : ")"),
+      `Imported ${plural(total, "container")} from ${fileName} (${count(counts.created)} created, ${count(counts.updated)} updated` +
+      (counts.unchanged ? `, ${count(counts.unchanged)} unchanged)` : ")"),
     after: { fileName, ...counts },
   });
   return counts;
