@@ -91,13 +91,14 @@ export async function commitContainerImport(actor: SessionUser, bytes: Uint8Arra
   const table = await parseTabularFile(bytes, fileName);
   refuseEmpty(table.rows.length);
   // Immediate: the write lock is taken before the lookups are read, so nothing changes in between.
-  return getDb().transaction(
+  const db = getDb();
+  return db.transaction(
     (tx) => {
       const validation = validateContainerRows(table, loadContainerLookups(tx));
       const plan = planContainerImport(tx, validation.rows);
       const issues = allIssues(validation.issues, plan.issues);
       if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
-      return writeContainerPlan(tx, actor, plan, fileName);
+      return writeContainerPlan(tx, db.$client, actor, plan, fileName);
     },
     { behavior: "immediate" },
   );

@@ -7,7 +7,8 @@
  * a default, keep the existing record's own value, so an import never erases data.
  */
 import "server-only";
-import { and, eq, inArray, ne } from "drizzle-orm";
+import type Database from "better-sqlite3";
+import { and, eq, inArray, ne, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import {
   containerMoves,
@@ -33,9 +34,7 @@ import { foldName } from "./lookups";
 import type { ParsedTable } from "./parse";
 
 /** Rows per multi-row INSERT: well under SQLite's limit on bound parameters. */
-const INSERT_CHUNK = 400;
-/** Labels per `label in (…)` lookup. */
-const LOOKUP_CHUNK = 900;
+const INSERT_CHUNK = 400; // storage units per multi-row insert
 
 function chunks<T>(items: readonly T[], size: number): T[][] {
   const out: T[][] = [];
@@ -104,6 +103,11 @@ export type ContainerImportCounts = { created: number; updated: number; unchange
 
 const toDate = (ms: number | null) => (ms === null ? null : new Date(ms));
 
+function sameValue(a: unknown, b: unknown): boolean {
+  const plain = (v: unknown) => (v instanceof Date ? v.getTime() : (v ?? null));
+  return plain(a) === plain(b);
+}
+
 /** What the row says, leaving out what the row left to a default or left empty. */
 function rowValues(row: ValidContainerRow): Partial<ContainerValues> {
   const values: Partial<ContainerValues> = {
@@ -160,11 +164,16 @@ function capacityIssue(
   return undefined;
 }
 
+/** One query for any number of labels: the labels travel as a single JSON array parameter. */
 function existingByLabel(db: DbOrTx, labels: string[]): Map<string, Container> {
   const found = new Map<string, Container>();
-  for (const part of chunks(labels, LOOKUP_CHUNK)) {
-    for (const row of db.select().from(containers).where(inArray(containers.label, part)).all()) found.set(row.label, row);
-  }
+  if (labels.length === 0) return found;
+  const rows = db
+    .select()
+    .from(containers)
+    .where(sql`${containers.label} in (select value from json_each(${JSON.stringify(labels)}))`)
+    .all();
+  for (const row of rows) found.set(row.label, row);
   return found;
 }
 
@@ -208,12 +217,13 @@ export function planContainerImport(db: DbOrTx, rows: ValidContainerRow[]): Cont
       plan.issues.push(issue);
       continue;
     }
-    const current = Object.fromEntries(Object.keys(values).map((k) => [k, before[k as keyof Container]]));
-    const diff = changedFields(auditSnapshot(current), auditSnapshot(values));
-    if (diff.keys.length === 0) {
+    const differing = (Object.keys(values) as (keyof ContainerValues)[]).filter((k) => !sameValue(before[k], values[k]));
+    if (differing.length === 0) {
       plan.unchanged += 1;
       continue;
     }
+    const current = Object.fromEntries(differing.map((k) => [k, before[k]]));
+    const diff = changedFields(auditSnapshot(current), auditSnapshot(Object.fromEntries(differing.map((k) => [k, values[k]]))));
     const set = Object.fromEntries(diff.keys.map((k) => [k, values[k as keyof ContainerValues]])) as Partial<ContainerValues>;
     plan.updates.push({
       id: before.id,
@@ -233,40 +243,44 @@ export function planContainerImport(db: DbOrTx, rows: ValidContainerRow[]): Cont
 /** Writes a container plan in the caller's transaction: inserts with their first placement, updates with moves and audit. */
 export function writeContainerPlan(
   tx: DbOrTx,
+  sqlite: Database.Database,
   actor: AuditActor & { id: number },
   plan: ContainerPlan,
   fileName: string,
 ): ContainerImportCounts {
   const now = new Date();
-  for (const part of chunks(plan.creates, INSERT_CHUNK)) {
-    const inserted = tx
-      .insert(containers)
-      .values(
-        part.map((row) => ({
-          label: row.label,
-          substanceId: row.substanceId,
-          mixtureId: row.mixtureId,
-          amount: row.amount,
-          amountUnit: row.amountUnit,
-          capacity: row.capacity,
-          capacityUnit: row.capacityUnit,
-          containerKind: row.containerKind,
-          state: row.state,
-          storageUnitId: row.storageUnitId,
-          ownerId: row.ownerId,
-          receivedAt: toDate(row.receivedAt),
-          openedAt: toDate(row.openedAt),
-          expiresAt: toDate(row.expiresAt),
-          notes: row.notes,
-          createdAt: now,
-          updatedAt: now,
-        })),
-      )
-      .returning({ id: containers.id, storageUnitId: containers.storageUnitId })
-      .all();
-    tx.insert(containerMoves)
-      .values(inserted.map((c) => ({ containerId: c.id, fromStorageUnitId: null, toStorageUnitId: c.storageUnitId, movedById: actor.id, movedAt: now })))
-      .run();
+  const nowMs = now.getTime();
+  // Plain prepared statements on the connection that holds the caller's transaction: 10,000
+  // inserts this way take a fraction of the time a query builder needs to render them.
+  const insertContainer = sqlite.prepare(
+    `insert into containers (label, substance_id, mixture_id, amount, amount_unit, capacity, capacity_unit, container_kind,
+       state, storage_unit_id, owner_id, received_at, opened_at, expires_at, notes, created_at, updated_at)
+     values (@label, @substanceId, @mixtureId, @amount, @amountUnit, @capacity, @capacityUnit, @containerKind,
+       @state, @storageUnitId, @ownerId, @receivedAt, @openedAt, @expiresAt, @notes, @now, @now)`,
+  );
+  const insertMove = sqlite.prepare(
+    "insert into container_moves (container_id, from_storage_unit_id, to_storage_unit_id, moved_by_id, moved_at) values (?, null, ?, ?, ?)",
+  );
+  for (const row of plan.creates) {
+    const { lastInsertRowid } = insertContainer.run({
+      label: row.label,
+      substanceId: row.substanceId,
+      mixtureId: row.mixtureId,
+      amount: row.amount,
+      amountUnit: row.amountUnit,
+      capacity: row.capacity,
+      capacityUnit: row.capacityUnit,
+      containerKind: row.containerKind,
+      state: row.state,
+      storageUnitId: row.storageUnitId,
+      ownerId: row.ownerId,
+      receivedAt: row.receivedAt,
+      openedAt: row.openedAt,
+      expiresAt: row.expiresAt,
+      notes: row.notes,
+      now: nowMs,
+    });
+    insertMove.run(lastInsertRowid, row.storageUnitId, actor.id, nowMs);
   }
 
   for (const update of plan.updates) {
