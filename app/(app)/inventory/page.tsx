@@ -19,10 +19,19 @@ export default async function InventoryPage() {
         title="Inventory"
         description="Containers of volatile liquids by storage unit: what is stored where, how much, and who owns it."
         actions={
-          can(user.role, "containers.write") ? (
-            <Link href="/inventory/new" className={buttonClass("primary")}>
-              Log a container
-            </Link>
+          can(user.role, "containers.write") || can(user.role, "containers.import") ? (
+            <>
+              {can(user.role, "containers.import") ? (
+                <Link href="/imports/containers" className={buttonClass("secondary")}>
+                  Import containers
+                </Link>
+              ) : null}
+              {can(user.role, "containers.write") ? (
+                <Link href="/inventory/new" className={buttonClass("primary")}>
+                  Log a container
+                </Link>
+              ) : null}
+            </>
           ) : undefined
         }
       />
