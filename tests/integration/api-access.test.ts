@@ -56,6 +56,11 @@ const ROUTES: Entry[] = [
   { file: "substances/[id]/sds/route.ts", method: "POST", path: "/api/v1/substances/999/sds", action: "substances.write", params: { id: "999" } },
   // Every signed-in role passes the wrapper; who may open a file depends on what it is attached to.
   { file: "files/[id]/route.ts", method: "GET", path: "/api/v1/files/999", action: "overview.read", params: { id: "999" } },
+  { file: "imports/containers/preview/route.ts", method: "POST", path: "/api/v1/imports/containers/preview", action: "containers.import" },
+  { file: "imports/containers/route.ts", method: "POST", path: "/api/v1/imports/containers", action: "containers.import" },
+  { file: "imports/locations/preview/route.ts", method: "POST", path: "/api/v1/imports/locations/preview", action: "locations.import" },
+  { file: "imports/locations/route.ts", method: "POST", path: "/api/v1/imports/locations", action: "locations.import" },
+  { file: "imports/templates/[file]/route.ts", method: "GET", path: "/api/v1/imports/templates/none.csv", action: "overview.read", params: { file: "none.csv" } },
   // The catch-all answers 404 for unknown paths whoever asks.
   ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
 ];

@@ -23,6 +23,11 @@ export default async function InventoryPage() {
             <Link href="/inventory/mixtures" className={buttonClass("secondary")}>
               Mixtures
             </Link>
+            {can(user.role, "containers.import") ? (
+              <Link href="/imports/containers" className={buttonClass("secondary")}>
+                Import containers
+              </Link>
+            ) : null}
             {can(user.role, "containers.write") ? (
               <Link href="/inventory/new" className={buttonClass("primary")}>
                 Log a container

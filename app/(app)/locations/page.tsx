@@ -1,8 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { buttonClass } from "@/components/ui/button";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
 import { locationsTree } from "@/db/queries/locations";
 import { requirePagePermission } from "@/lib/auth/page";
+import { can } from "@/lib/auth/permissions";
 import { ROOM_KIND_LABELS, STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels";
 import { formatCount, formatQuantity, formatTempC } from "@/lib/format/numbers";
 
@@ -14,7 +16,7 @@ function setRange(min: number | null, max: number | null): string {
 }
 
 export default async function LocationsPage() {
-  await requirePagePermission("locations.read");
+  const { user } = await requirePagePermission("locations.read");
   const tree = locationsTree();
   const roomCount = tree.reduce((n, s) => n + s.rooms.length, 0);
   const unitCount = tree.reduce((n, s) => n + s.rooms.reduce((m, r) => m + r.units.length, 0), 0);
@@ -23,6 +25,13 @@ export default async function LocationsPage() {
       <PageHeader
         title="Locations"
         description={`${formatCount(tree.length)} sites, ${formatCount(roomCount)} rooms and ${formatCount(unitCount)} storage units. Room volume and ventilation set how far a spill's vapor is diluted; a unit's set range and rating set what may be stored in it.`}
+        actions={
+          can(user.role, "locations.import") ? (
+            <Link href="/imports/locations" className={buttonClass("secondary")}>
+              Import locations
+            </Link>
+          ) : undefined
+        }
       />
       {tree.length === 0 ? <EmptyState title="No sites yet" /> : null}
       {tree.map(({ site, rooms }) => (
