@@ -50,7 +50,7 @@ test("a researcher logs a container by scanning its label, then finds it again b
   await page.goto("/inventory");
   await page.getByLabel("Scan or type a label").fill("NO-SUCH-LABEL");
   await page.keyboard.press("Enter");
-  await expect(page.getByRole("alert")).toContainText("No container has the label “NO-SUCH-LABEL”.");
+  await expect(page.locator("#label-lookup-error")).toHaveText("No container has the label “NO-SUCH-LABEL”.");
 });
 
 test("an auditor reads inventory, locations and substances but finds no control that changes anything", async ({ page }) => {
