@@ -8,6 +8,7 @@ import { count } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { rooms, sites, storageUnits, users, type NewRoom, type NewStorageUnit, type Role } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
+import { seedDemoInventory } from "./demo-inventory";
 import { seedSubstanceLibrary } from "./substances";
 
 export const DEMO_PASSWORD = "headroom-demo";
@@ -211,10 +212,11 @@ export async function seedDemo(db: Db, options: { bcryptCost?: number } = {}): P
         }
       }
     }
+    const containerCount = seedDemoInventory(tx, { researcherId: people.researcher.id, safetyId: people.safety_officer.id, facilitiesId: people.facilities.id });
     recordAudit(tx, { system: "demo seed" }, {
       action: "seed",
       entityType: "installation",
-      summary: "Loaded the demo organisation (invented data)",
+      summary: `Loaded the demo organisation (invented data): 2 sites, their rooms and units, ${containerCount} containers`,
     });
   });
   return true;

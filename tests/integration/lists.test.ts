@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed/demo";
-import { storageUnits, substances, users, type Role } from "@/db/schema";
+import { containerMoves, containers, storageUnits, substances, users, type Role } from "@/db/schema";
 import * as containersRoute from "@/app/api/v1/containers/route";
 import * as roomsRoute from "@/app/api/v1/rooms/route";
 import * as unitsRoute from "@/app/api/v1/storage-units/route";
@@ -14,6 +14,9 @@ const cookie = {} as Record<Role, string>;
 
 beforeAll(async () => {
   await seedDemo(getDb(), { bcryptCost: 4 });
+  // A controlled set of containers instead of the demo's few hundred.
+  getDb().delete(containerMoves).run();
+  getDb().delete(containers).run();
   for (const role of ["safety_officer", "researcher", "auditor"] as Role[]) {
     cookie[role] = await sessionCookieFor(getDb().select().from(users).where(eq(users.role, role)).get()!);
   }
