@@ -4,8 +4,9 @@
 //   2. A 10,000-row container file imports in under 5 s.
 //
 // Run with `npx tsx --conditions=react-server bench/inventory.ts` (the condition makes
-// `import "server-only"` a no-op). Add `--plans` to print the query plans of every kind of list
-// request.
+// `import "server-only"` a no-op). Options: `--plans` prints the query plans of each kind of list
+// request; `--keep-database` keeps the database file (its path is printed); `--setup-only` stops
+// once the inventory is built (with --keep-database: a database to try queries on in sqlite3).
 //
 // The script builds its own inventory in a temporary database file and deletes it at the end.
 // The list API is called in-process through its route handler, so each latency includes the
@@ -36,6 +37,10 @@ const IMPORT_TARGET_S = 5;
 const DAY_MS = 86_400_000;
 
 const showPlans = process.argv.includes("--plans");
+/** Keep the database file afterwards (its path is printed), e.g. to look at query plans in sqlite3. */
+const keepDatabase = process.argv.includes("--keep-database");
+/** Build the inventory and stop (with --keep-database: a database to experiment on). */
+const setupOnly = process.argv.includes("--setup-only");
 
 // Modules that open the database are imported only now, after the environment above is set.
 async function main(): Promise<void> {
@@ -67,6 +72,7 @@ async function main(): Promise<void> {
   // 1. The inventory: the demo organisation, rooms and units up to 2,000, then 100,000 containers
   // ---------------------------------------------------------------------------------------------
 
+  const loadAtStart = os.loadavg();
   const db = getDb();
   const sqlite = db.$client;
   let startMs = performance.now();
@@ -156,9 +162,13 @@ async function main(): Promise<void> {
   startMs = performance.now();
   sqlite.exec("ANALYZE");
   console.log(`ANALYZE run once after the bulk load, as an installation would after a big import (${fixed(secondsSince(startMs), 2)} s).`);
+  if (setupOnly) {
+    closeDb();
+    return;
+  }
 
   // ---------------------------------------------------------------------------------------------
-  // 2. The container list API: a mix of realistic requests, each at page 1 and page 40
+  // 2. The container list API: a mix of realistic requests, each at page 1 and at a deep page
   // ---------------------------------------------------------------------------------------------
 
   const benchRoomUnit = unitRows.find((u) => u.roomCode.startsWith("L-"))!;
@@ -279,7 +289,8 @@ async function main(): Promise<void> {
   const cpus = os.cpus();
   console.log(
     `\nMachine: Node ${process.version}, ${cpus.length} × ${cpus[0]?.model ?? "unknown CPU"}, ` +
-      `load average ${os.loadavg().map((l) => fixed(l, 2)).join(" / ")} (1 / 5 / 15 min), ` +
+      `load average (1 / 5 / 15 min) ${loadAtStart.map((l) => fixed(l, 2)).join(" / ")} at the start, ` +
+      `${os.loadavg().map((l) => fixed(l, 2)).join(" / ")} at the end, ` +
       `SQLite ${(sqlite.prepare("select sqlite_version() as v").get() as { v: string }).v}.`,
   );
 
@@ -291,4 +302,7 @@ main()
     console.error(error);
     process.exitCode = 1;
   })
-  .finally(() => fs.rmSync(tempDir, { recursive: true, force: true }));
+  .finally(() => {
+    if (keepDatabase) console.log(`Database kept at ${process.env.DATABASE_PATH}`);
+    else fs.rmSync(tempDir, { recursive: true, force: true });
+  });
