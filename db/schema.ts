@@ -399,6 +399,11 @@ export const containers = sqliteTable(
     index("containers_storage_unit_idx").on(t.storageUnitId, t.state),
     index("containers_owner_idx").on(t.ownerId),
     index("containers_updated_at_idx").on(t.updatedAt),
+    // Container list: location order within a unit, one owner's containers newest first, and a
+    // state's containers with what they hold (covering, for the sort by substance).
+    index("containers_storage_unit_label_idx").on(t.storageUnitId, t.label),
+    index("containers_owner_updated_at_idx").on(t.ownerId, t.updatedAt),
+    index("containers_state_content_idx").on(t.state, t.substanceId, t.mixtureId),
     index("containers_sds_file_idx").on(t.sdsFileId),
     check(
       "containers_one_content",

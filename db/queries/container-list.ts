@@ -10,23 +10,31 @@ function escapeLike(text: string): string {
 
 /**
  * Filters of the container list. Label search is a prefix range on the unique label index;
- * substance search goes through the (small) substances table first.
+ * substance search goes through the (small) substances table first. Site and room filters are
+ * written on the location tables when the query joins them, else as a list of storage units.
  */
-function conditions(query: ContainerListQuery, userId: number): SQL | undefined {
+function conditions(query: ContainerListQuery, userId: number, options: { locationJoined?: boolean } = {}): SQL | undefined {
   const db = getDb();
   const parts: (SQL | undefined)[] = [];
   const state = query.state ?? "live";
   if (state === "live") parts.push(ne(containers.state, "disposed"));
   else if (state !== "all") parts.push(eq(containers.state, state));
   if (query.storageUnitId) parts.push(eq(containers.storageUnitId, query.storageUnitId));
-  if (query.roomId) parts.push(inArray(containers.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.roomId, query.roomId))));
-  if (query.siteId) {
-    parts.push(
-      inArray(
-        containers.storageUnitId,
-        db.select({ id: storageUnits.id }).from(storageUnits).innerJoin(rooms, eq(rooms.id, storageUnits.roomId)).where(eq(rooms.siteId, query.siteId)),
-      ),
-    );
+  if (options.locationJoined) {
+    // The query joins the location tables: filtering on them lets SQLite walk site → rooms →
+    // units → containers in location order instead of sorting the site's containers.
+    if (query.roomId) parts.push(eq(storageUnits.roomId, query.roomId));
+    if (query.siteId) parts.push(eq(rooms.siteId, query.siteId));
+  } else {
+    if (query.roomId) parts.push(inArray(containers.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.roomId, query.roomId))));
+    if (query.siteId) {
+      parts.push(
+        inArray(
+          containers.storageUnitId,
+          db.select({ id: storageUnits.id }).from(storageUnits).innerJoin(rooms, eq(rooms.id, storageUnits.roomId)).where(eq(rooms.siteId, query.siteId)),
+        ),
+      );
+    }
   }
   if (query.ownerId) parts.push(eq(containers.ownerId, query.ownerId));
   if (query.mine) parts.push(eq(containers.ownerId, userId));
@@ -34,9 +42,16 @@ function conditions(query: ContainerListQuery, userId: number): SQL | undefined 
   if (query.q) {
     const q = query.q.trim();
     const pattern = `%${escapeLike(q.toLowerCase())}%`;
-    parts.push(
-      or(
-        and(sql`${containers.label} >= ${q}`, sql`${containers.label} < ${q + "\u{10FFFF}"}`),
+    // One branch per index (label, substance, mixture), joined by UNION ALL: written as one OR,
+    // SQLite would test every container against all three.
+    const byLabel = db
+      .select({ id: containers.id })
+      .from(containers)
+      .where(and(sql`${containers.label} >= ${q}`, sql`${containers.label} < ${q + "\u{10FFFF}"}`));
+    const bySubstance = db
+      .select({ id: containers.id })
+      .from(containers)
+      .where(
         inArray(
           containers.substanceId,
           db
@@ -44,9 +59,12 @@ function conditions(query: ContainerListQuery, userId: number): SQL | undefined 
             .from(substances)
             .where(or(sql`lower(${substances.name}) like ${pattern} escape '\\'`, sql`lower(${substances.synonyms}) like ${pattern} escape '\\'`, eq(substances.cas, q))),
         ),
-        inArray(containers.mixtureId, db.select({ id: mixtures.id }).from(mixtures).where(sql`lower(${mixtures.name}) like ${pattern} escape '\\'`)),
-      ),
-    );
+      );
+    const byMixture = db
+      .select({ id: containers.id })
+      .from(containers)
+      .where(inArray(containers.mixtureId, db.select({ id: mixtures.id }).from(mixtures).where(sql`lower(${mixtures.name}) like ${pattern} escape '\\'`)));
+    parts.push(inArray(containers.id, byLabel.unionAll(bySubstance).unionAll(byMixture)));
   }
   return and(...parts);
 }
@@ -74,11 +92,38 @@ function orderBy(query: ContainerListQuery): SQL[] {
   }
 }
 
+/**
+ * One page in two steps: first the ids of the page, joining only the tables the sort needs, then
+ * the 25 full rows by id. Sorting thousands of matches then moves ids, not whole joined rows. The
+ * location joins never drop a container (storage_unit_id is a non-null foreign key), so leaving
+ * them out of the first step changes no answer.
+ */
 export function listContainers(query: ContainerListQuery, userId: number) {
   const db = getDb();
   const where = conditions(query, userId);
   const total = db.select({ n: count() }).from(containers).where(where).get()?.n ?? 0;
-  const rows = db
+
+  let page = db.select({ id: containers.id }).from(containers).$dynamic();
+  if (query.sort === "location") {
+    page = page
+      .innerJoin(storageUnits, eq(storageUnits.id, containers.storageUnitId))
+      .innerJoin(rooms, eq(rooms.id, storageUnits.roomId))
+      .innerJoin(sites, eq(sites.id, rooms.siteId));
+  } else if (query.sort === "substance") {
+    page = page.leftJoin(substances, eq(substances.id, containers.substanceId)).leftJoin(mixtures, eq(mixtures.id, containers.mixtureId));
+  } else if (query.sort === "owner") {
+    page = page.leftJoin(users, eq(users.id, containers.ownerId));
+  }
+  const ids = page
+    .where(query.sort === "location" ? conditions(query, userId, { locationJoined: true }) : where)
+    .orderBy(...orderBy(query))
+    .limit(query.pageSize)
+    .offset((query.page - 1) * query.pageSize)
+    .all()
+    .map((row) => row.id);
+  if (ids.length === 0) return { rows: [], total };
+
+  const found = db
     .select({
       id: containers.id,
       label: containers.label,
@@ -108,11 +153,10 @@ export function listContainers(query: ContainerListQuery, userId: number) {
     .leftJoin(substances, eq(substances.id, containers.substanceId))
     .leftJoin(mixtures, eq(mixtures.id, containers.mixtureId))
     .leftJoin(users, eq(users.id, containers.ownerId))
-    .where(where)
-    .orderBy(...orderBy(query))
-    .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize)
+    .where(inArray(containers.id, ids))
     .all();
+  const byId = new Map(found.map((row) => [row.id, row]));
+  const rows = ids.flatMap((id) => byId.get(id) ?? []);
   return { rows, total };
 }
 
