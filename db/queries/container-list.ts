@@ -3,10 +3,7 @@ import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from "drizz
 import { getDb } from "@/db/client";
 import { containers, mixtures, rooms, sites, storageUnits, substances, users } from "@/db/schema";
 import type { ContainerListQuery } from "@/lib/inventory/schemas";
-
-function escapeLike(text: string): string {
-  return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
-}
+import { escapeLike } from "@/lib/objects";
 
 /**
  * Filters of the container list. Label search is a prefix range on the unique label index;

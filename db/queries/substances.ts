@@ -3,6 +3,7 @@ import { and, asc, count, desc, eq, gt, gte, isNotNull, isNull, like, lt, lte, o
 import type { AnySQLiteColumn } from "drizzle-orm/sqlite-core";
 import { getDb } from "@/db/client";
 import { exposureLimits, substances, type Substance } from "@/db/schema";
+import { escapeLike } from "@/lib/objects";
 
 export type SubstanceSortKey = "name" | "cas" | "normalBoilingPointC" | "flashPointC" | "lflVolPercent" | "molarMassGPerMol";
 export type SubstanceGhsFilter = "1" | "2" | "3" | "4" | "none";
@@ -16,10 +17,6 @@ export type SubstanceListQuery = {
   pageSize: number;
   includeRetired?: boolean;
 };
-
-function escapeLike(text: string): string {
-  return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
-}
 
 const SORT_COLUMNS = {
   name: substances.name,

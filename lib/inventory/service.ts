@@ -19,12 +19,9 @@ import type { SessionUser } from "@/lib/auth/session";
 import { rethrowConstraint } from "@/lib/db-errors";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
 import { sameDimension, toBaseAmount, type ContainerCreateInput, type ContainerUpdateInput } from "./schemas";
+import { withoutUndefined } from "@/lib/objects";
 
 const LABEL_UNIQUE = { "containers.label": { field: "label", message: "A container with this label already exists." } };
-
-function defined<T extends Record<string, unknown>>(input: T): Partial<T> {
-  return Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as Partial<T>;
-}
 
 function unitLabel(tx: DbOrTx, unitId: number): string {
   const row = tx
@@ -124,7 +121,7 @@ export function updateContainer(actor: SessionUser, scope: Scope, id: number, in
       if (scope === "own" && input.ownerId !== undefined && input.ownerId !== actor.id) {
         throw new ForbiddenError("Only a safety officer can hand a container to someone else.");
       }
-      const patch = defined(input);
+      const patch = withoutUndefined(input);
       const merged = { ...before, ...patch };
       const substanceId = merged.substanceId ?? null;
       const mixtureId = merged.mixtureId ?? null;
@@ -142,7 +139,7 @@ export function updateContainer(actor: SessionUser, scope: Scope, id: number, in
         }
       }
       const toDate = (v: number | null | undefined) => (v === undefined ? undefined : v === null ? null : new Date(v));
-      const values = defined({
+      const values = withoutUndefined({
         ...patch,
         receivedAt: toDate(input.receivedAt),
         openedAt: toDate(input.openedAt) ?? (input.state && ["opened", "in_use"].includes(input.state) && !before.openedAt ? new Date() : undefined),

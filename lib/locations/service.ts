@@ -8,17 +8,13 @@ import type { SessionUser } from "@/lib/auth/session";
 import { rethrowConstraint } from "@/lib/db-errors";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
 import type { RoomInput, SiteInput, StorageUnitInput } from "./schemas";
+import { withoutUndefined } from "@/lib/objects";
 
 const SITE_UNIQUE = { "sites.name": { field: "name", message: "A site with this name already exists." } };
 const ROOM_UNIQUE = { "rooms.site_id, rooms.code": { field: "code", message: "This site already has a room with that code." } };
 const UNIT_UNIQUE = {
   "storage_units.room_id, storage_units.code": { field: "code", message: "This room already has a storage unit with that code." },
 };
-
-/** Drops undefined keys so a partial update leaves those columns alone. */
-function defined<T extends Record<string, unknown>>(input: T): Partial<T> {
-  return Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as Partial<T>;
-}
 
 function requireUser(tx: DbOrTx, id: number | null | undefined, field: string, roles?: string[]): void {
   if (id == null) return;
@@ -52,7 +48,7 @@ export function updateSite(actor: SessionUser, id: number, input: Partial<SiteIn
     return getDb().transaction((tx) => {
       const before = tx.select().from(sites).where(eq(sites.id, id)).get();
       if (!before) throw new NotFoundError("That site");
-      const patch = defined({ ...input, atmosphericPressureKPa: input.atmosphericPressureKPa === null ? 101.325 : input.atmosphericPressureKPa });
+      const patch = withoutUndefined({ ...input, atmosphericPressureKPa: input.atmosphericPressureKPa === null ? 101.325 : input.atmosphericPressureKPa });
       const after = tx.update(sites).set({ ...patch, updatedAt: new Date() }).where(eq(sites.id, id)).returning().get();
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
@@ -104,11 +100,11 @@ export function updateRoom(actor: SessionUser, id: number, input: Partial<RoomIn
       if (!before || before.retiredAt) throw new NotFoundError("That room");
       if (input.siteId !== undefined && input.siteId !== before.siteId) requireLiveSite(tx, input.siteId);
       requireUser(tx, input.facilitiesContactId, "facilitiesContactId");
-      const merged = { ...before, ...defined(input) };
+      const merged = { ...before, ...withoutUndefined(input) };
       if (merged.setMinC != null && merged.setMaxC != null && merged.setMinC > merged.setMaxC) {
         throw new ValidationError("The set range maximum must not be below its minimum.", { setMaxC: ["The set range maximum must not be below its minimum."] });
       }
-      const patch = defined({ ...input, mixingFactor: input.mixingFactor === null ? 0.5 : input.mixingFactor });
+      const patch = withoutUndefined({ ...input, mixingFactor: input.mixingFactor === null ? 0.5 : input.mixingFactor });
       const after = tx.update(rooms).set({ ...patch, updatedAt: new Date() }).where(eq(rooms.id, id)).returning().get();
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
@@ -194,11 +190,11 @@ export function updateStorageUnit(actor: SessionUser, id: number, input: Partial
       if (!before || before.retiredAt) throw new NotFoundError("That storage unit");
       if (input.roomId !== undefined && input.roomId !== before.roomId) requireLiveRoom(tx, input.roomId);
       requireUser(tx, input.ownerId, "ownerId");
-      const merged = { ...before, ...defined(input) };
+      const merged = { ...before, ...withoutUndefined(input) };
       if (merged.setMinC != null && merged.setMaxC != null && merged.setMinC > merged.setMaxC) {
         throw new ValidationError("The set range maximum must not be below its minimum.", { setMaxC: ["The set range maximum must not be below its minimum."] });
       }
-      const after = tx.update(storageUnits).set({ ...defined(input), updatedAt: new Date() }).where(eq(storageUnits.id, id)).returning().get();
+      const after = tx.update(storageUnits).set({ ...withoutUndefined(input), updatedAt: new Date() }).where(eq(storageUnits.id, id)).returning().get();
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
         recordAudit(tx, actor, { action: "update", entityType: "storage_unit", entityId: id, summary: `Updated storage unit ${after.code} (${diff.keys.join(", ")})`, before: diff.before, after: diff.after });

@@ -1,19 +1,14 @@
-import Link from "next/link";
+import { SectionTabs } from "@/components/ui/section-tabs";
 
 export function AdminTabs({ current }: { current: "users" | "mail" }) {
-  const tab = (key: "users" | "mail", href: string, label: string) => (
-    <Link
-      href={href}
-      aria-current={current === key ? "page" : undefined}
-      className={`border-b-2 px-1 pb-2 text-sm font-medium ${current === key ? "border-accent-700 text-accent-800" : "border-transparent text-ink-600 hover:text-ink-900"}`}
-    >
-      {label}
-    </Link>
-  );
   return (
-    <nav aria-label="Administration" className="mb-6 flex gap-6 border-b border-ink-200">
-      {tab("users", "/admin", "People and roles")}
-      {tab("mail", "/admin/mail", "E-mail")}
-    </nav>
+    <SectionTabs
+      label="Administration"
+      current={current}
+      tabs={[
+        { key: "users", href: "/admin", label: "People and roles" },
+        { key: "mail", href: "/admin/mail", label: "E-mail" },
+      ]}
+    />
   );
 }

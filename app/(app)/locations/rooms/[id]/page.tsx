@@ -14,14 +14,9 @@ import { ROOM_KIND_LABELS, STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels"
 import { formatCount, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { RoomForm, UnitForm } from "../../location-forms";
+import { toFormValue } from "@/lib/objects";
 
 export const metadata: Metadata = { title: "Room" };
-
-function formValue(value: unknown): unknown {
-  if (value === null || value === undefined) return "";
-  if (typeof value === "boolean") return value ? "true" : "false";
-  return String(value);
-}
 
 export default async function RoomPage({ params }: { params: Promise<{ id: string }> }) {
   const { user } = await requirePagePermission("locations.read");
@@ -109,7 +104,7 @@ export default async function RoomPage({ params }: { params: Promise<{ id: strin
               sites={sites}
               contacts={contacts}
               values={Object.fromEntries(
-                ["id", "siteId", "code", "name", "kind", "floorAreaM2", "heightM", "airChangesPerHour", "mixingFactor", "designMaxTempC", "sprinklered", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "facilitiesContactId", "notes"].map((k) => [k, formValue((room as Record<string, unknown>)[k])]),
+                ["id", "siteId", "code", "name", "kind", "floorAreaM2", "heightM", "airChangesPerHour", "mixingFactor", "designMaxTempC", "sprinklered", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "facilitiesContactId", "notes"].map((k) => [k, toFormValue((room as Record<string, unknown>)[k])]),
               )}
             />
           </Card>

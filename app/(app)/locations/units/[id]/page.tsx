@@ -15,14 +15,9 @@ import { STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels";
 import { formatCount, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { UnitForm } from "../../location-forms";
+import { toFormValue } from "@/lib/objects";
 
 export const metadata: Metadata = { title: "Storage unit" };
-
-function formValue(value: unknown): unknown {
-  if (value === null || value === undefined) return "";
-  if (typeof value === "boolean") return value ? "true" : "false";
-  return String(value);
-}
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { user } = await requirePagePermission("locations.read");
@@ -73,7 +68,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
             roomId={unit.roomId}
             owners={owners}
             values={Object.fromEntries(
-              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes"].map((k) => [k, formValue((unit as Record<string, unknown>)[k])]),
+              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes"].map((k) => [k, toFormValue((unit as Record<string, unknown>)[k])]),
             )}
           />
         </Card>
