@@ -4,7 +4,9 @@ import type { z } from "zod";
 import { authorizeAction, parseInput } from "@/lib/auth/guard";
 import type { Action, Scope } from "@/lib/auth/permissions";
 import { getRequestUser, type SessionUser } from "@/lib/auth/session";
-import { DomainError, RateLimitedError, ValidationError } from "@/lib/errors";
+import type { ApiKey } from "@/db/schema";
+import { authenticateApiKey } from "@/lib/api-keys/service";
+import { DomainError, ForbiddenError, RateLimitedError, UnauthenticatedError, ValidationError } from "@/lib/errors";
 import { log } from "@/lib/log";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -85,6 +87,31 @@ export function route<S extends z.ZodType | undefined = undefined>(
       response = errorResponse(error);
     }
     logOutcome(request, response.status, startedAt, userId);
+    return response;
+  };
+}
+
+/**
+ * A route handler for machines: an API key in `Authorization: Bearer …` (401 when missing, wrong
+ * or revoked) → the key's scope (403) → the body parses (400).
+ */
+export function keyRoute<S extends z.ZodType>(
+  spec: { scope: string; schema: S },
+  handler: (args: { request: Request; key: ApiKey; input: z.output<S> }) => Promise<Response> | Response,
+) {
+  return async (request: Request): Promise<Response> => {
+    const startedAt = performance.now();
+    let response: Response;
+    try {
+      const key = authenticateApiKey(request.headers.get("authorization"));
+      if (!key) throw new UnauthenticatedError("Send a valid API key as Authorization: Bearer <key>.");
+      if (!key.scopes.includes(spec.scope)) throw new ForbiddenError(`This API key may not ${spec.scope.replace(":", " ")}.`);
+      const input = parseInput(spec.schema, await readInput(request));
+      response = await handler({ request, key, input });
+    } catch (error) {
+      response = errorResponse(error);
+    }
+    logOutcome(request, response.status, startedAt);
     return response;
   };
 }

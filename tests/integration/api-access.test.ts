@@ -61,6 +61,11 @@ const ROUTES: Entry[] = [
   { file: "imports/locations/preview/route.ts", method: "POST", path: "/api/v1/imports/locations/preview", action: "locations.import" },
   { file: "imports/locations/route.ts", method: "POST", path: "/api/v1/imports/locations", action: "locations.import" },
   { file: "imports/templates/[file]/route.ts", method: "GET", path: "/api/v1/imports/templates/none.csv", action: "overview.read", params: { file: "none.csv" } },
+  { file: "api-keys/route.ts", method: "GET", path: "/api/v1/api-keys", action: "apiKeys.manage" },
+  { file: "api-keys/route.ts", method: "POST", path: "/api/v1/api-keys", action: "apiKeys.manage", body: {} },
+  { file: "api-keys/[id]/route.ts", method: "DELETE", path: "/api/v1/api-keys/999", action: "apiKeys.manage", params: { id: "999" } },
+  // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
+  { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.
   ...["GET", "POST", "PUT", "PATCH", "DELETE"].map((method) => ({ file: "[...path]/route.ts", method, path: "/api/v1/no-such-thing", action: "none" as const })),
 ];

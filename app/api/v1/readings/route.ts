@@ -1,0 +1,19 @@
+import { NextResponse } from "next/server";
+import { BatchRejectedError, ingestBodySchema, ingestReadings } from "@/lib/temperatures/ingest";
+import { keyRoute } from "@/lib/http/route";
+
+/**
+ * Logger ingest: `Authorization: Bearer <key>` and `{ "readings": [{ "sensor", "at", "tempC" }] }`.
+ * 202 `{ accepted, duplicates }`; a batch with any bad row is rejected whole with every row's error.
+ */
+export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema }, ({ input }) => {
+  try {
+    const { accepted, duplicates } = ingestReadings(input.readings);
+    return NextResponse.json({ accepted, duplicates }, { status: 202 });
+  } catch (error) {
+    if (error instanceof BatchRejectedError) {
+      return NextResponse.json({ error: { code: error.code, message: error.message, rows: error.rows } }, { status: 400 });
+    }
+    throw error;
+  }
+});
