@@ -35,6 +35,24 @@ async function ingest(body: unknown, authorization?: string) {
 
 const storedCount = () => getDb().$count(readings);
 
+describe("POST /api/v1/sensors", () => {
+  it("registers a logger on one unit, refuses a second with the same device id, and needs exactly one location", async () => {
+    const { POST } = await import("@/app/api/v1/sensors/route");
+    const facilities = getDb().select().from(users).where(eq(users.role, "facilities")).get()!;
+    const cookie = await sessionCookieFor(facilities);
+    const unit = getDb().select().from(storageUnits).where(eq(storageUnits.code, "FSR-1")).get()!;
+    const created = await call(POST, { method: "POST", body: { externalId: "LOG-FSR1", name: "Synthesis fridge logger", storageUnitId: unit.id }, cookie });
+    expect(created.status).toBe(201);
+    expect(created.body.data).toMatchObject({ externalId: "LOG-FSR1", storageUnitId: unit.id, roomId: null });
+    const again = await call(POST, { method: "POST", body: { externalId: "LOG-FSR1", name: "Copy", storageUnitId: unit.id }, cookie });
+    expect(again.status).toBe(409);
+    expect(again.body.error.fields.externalId[0]).toMatch(/already has this device id/);
+    const nowhere = await call(POST, { method: "POST", body: { externalId: "LOG-X", name: "Nowhere" }, cookie });
+    expect(nowhere.status).toBe(400);
+    expect(nowhere.body.error.fields.storageUnitId[0]).toMatch(/one room or one storage unit/);
+  });
+});
+
 describe("POST /api/v1/readings", () => {
   it("answers 401 for a missing, malformed or wrong key", async () => {
     const batch = { readings: [{ sensor: "LOG-FR1", at: "2026-07-14T15:40:00+02:00", tempC: 5.1 }] };

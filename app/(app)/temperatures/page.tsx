@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
-import { listSensors } from "@/db/queries/inventory";
+import { listSensorRows } from "@/lib/temperatures/sensors";
 import { requirePagePermission } from "@/lib/auth/page";
 
 export const metadata: Metadata = { title: "Temperatures" };
 
 export default async function TemperaturesPage() {
   await requirePagePermission("temperatures.read");
-  const rows = listSensors();
+  const rows = listSensorRows();
   return (
     <div className="space-y-5">
       <PageHeader
