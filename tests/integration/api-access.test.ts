@@ -18,6 +18,7 @@ const ROUTES: Entry[] = [
   { file: "session/route.ts", method: "POST", path: "/api/v1/session", action: "public" },
   { file: "session/route.ts", method: "DELETE", path: "/api/v1/session", action: "public" },
   { file: "me/route.ts", method: "GET", path: "/api/v1/me", action: "profile.update" },
+  { file: "me/route.ts", method: "PATCH", path: "/api/v1/me", action: "profile.update", body: {} },
   { file: "users/route.ts", method: "GET", path: "/api/v1/users", action: "users.manage" },
   { file: "users/route.ts", method: "POST", path: "/api/v1/users", action: "users.manage", body: { email: "new.person@example.test", name: "New Person", role: "researcher" } },
   { file: "substances/route.ts", method: "GET", path: "/api/v1/substances?q=acet", action: "substances.read" },
