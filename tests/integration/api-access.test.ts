@@ -67,6 +67,10 @@ const ROUTES: Entry[] = [
   { file: "api-keys/[id]/route.ts", method: "DELETE", path: "/api/v1/api-keys/999", action: "apiKeys.manage", params: { id: "999" } },
   { file: "sensors/route.ts", method: "GET", path: "/api/v1/sensors", action: "temperatures.read" },
   { file: "sensors/route.ts", method: "POST", path: "/api/v1/sensors", action: "sensors.write", body: {} },
+  // Logger-file uploads (multipart, then JSON mappings); an unknown sensor or token answers 404, an empty mapping 400.
+  { file: "sensors/[id]/csv-uploads/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads", action: "readings.upload", params: { id: "999" } },
+  { file: "sensors/[id]/csv-uploads/[token]/preview/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads/0123456789abcdef0123456789abcdef/preview", action: "readings.upload", params: { id: "999", token: "0123456789abcdef0123456789abcdef" }, body: {} },
+  { file: "sensors/[id]/csv-uploads/[token]/import/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads/0123456789abcdef0123456789abcdef/import", action: "readings.upload", params: { id: "999", token: "0123456789abcdef0123456789abcdef" }, body: {} },
   { file: "excursions/route.ts", method: "GET", path: "/api/v1/excursions", action: "temperatures.read" },
   { file: "excursions/[id]/acknowledge/route.ts", method: "POST", path: "/api/v1/excursions/999/acknowledge", action: "excursions.acknowledge", params: { id: "999" }, body: {} },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).

@@ -46,6 +46,10 @@ function formatUtc(atMs: number): string {
 export type RowReader = {
   /** The reading, or null with the row's problems appended to `errors`. */
   read(cells: readonly string[], line: number, errors: CsvRowError[]): CsvReading | null;
+  /** The row's time as written (the timestamp cell, or the date and time cells). */
+  timeText(cells: readonly string[]): string;
+  /** The column errors about the row's time are reported under. */
+  readonly timeColumn: string;
 };
 
 export function createRowReader(headers: readonly string[], mapping: CsvMapping, expectedDeviceId: string | null): RowReader {
@@ -90,10 +94,14 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
     };
   }
 
+  const cellOf = (cells: readonly string[], at: number) => (at >= 0 && at < cells.length ? cells[at].trim() : "");
+
   return {
+    timeColumn: timeColumnName,
+    timeText: (cells) => (timestampAt >= 0 ? cellOf(cells, timestampAt) : `${cellOf(cells, dateAt)} ${cellOf(cells, timeAt)}`),
     read(cells, line, errors) {
       const before = errors.length;
-      const cell = (at: number) => (at >= 0 && at < cells.length ? cells[at].trim() : "");
+      const cell = (at: number) => cellOf(cells, at);
 
       let atMs: number | null = null;
       if (timestampAt >= 0) {

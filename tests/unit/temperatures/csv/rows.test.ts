@@ -20,7 +20,7 @@ function readText(text: string, input: Partial<CsvMappingInput> = {}, deviceId: 
     const reading = rows.read(record.cells, record.line, errors);
     if (!reading) continue;
     const earlier = index.add(reading);
-    if (earlier && earlier.tempC !== reading.tempC) errors.push(duplicateError(reading, earlier, mapping.timestampColumn ?? mapping.dateColumn!, record.cells[0]));
+    if (earlier && earlier.tempC !== reading.tempC) errors.push(duplicateError(reading, earlier, rows.timeColumn, rows.timeText(record.cells)));
     else if (!earlier) readings.push(reading);
   }
   return { readings, errors };
