@@ -45,7 +45,6 @@ import {
   type CsvReading,
   type CsvRowError,
   type DetectedLayout,
-  type InstantIndex,
   type TextEncoding,
 } from "./csv";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
@@ -309,21 +308,55 @@ export async function startCsvUploadFromFile(actor: SessionUser, sensorId: numbe
 // Reading a stored upload
 // ---------------------------------------------------------------------------------------------
 
-/** The per-scan staging table: one row per distinct instant, with the line it came from. */
-class StagingTable implements InstantIndex {
+/** Rows per multi-row INSERT into the staging table (a third of the cost of one row per statement). */
+const STAGE_BATCH = 100;
+
+/**
+ * The per-scan staging table: one row per distinct instant, with the line it came from. Readings
+ * are added in batches; a batch reports, for each reading, the earlier line that already had its
+ * instant (null when it was new).
+ */
+class StagingTable {
   readonly name = `csv_stage_${randomBytes(8).toString("hex")}`;
-  private readonly insert: Database.Statement;
+  readonly pending: CsvReading[] = [];
+  private readonly insertOne: Database.Statement;
+  private readonly insertBatch: Database.Statement;
   private readonly find: Database.Statement;
+  private readonly args = new Array<number>(STAGE_BATCH * 3);
 
   constructor(private readonly sqlite: Database.Database) {
     sqlite.exec(`CREATE TEMP TABLE ${this.name} (at INTEGER PRIMARY KEY, temp_c REAL NOT NULL, line INTEGER NOT NULL)`);
-    this.insert = sqlite.prepare(`INSERT INTO temp.${this.name} (at, temp_c, line) VALUES (?, ?, ?) ON CONFLICT(at) DO NOTHING`);
+    const insert = `INSERT INTO temp.${this.name} (at, temp_c, line) VALUES`;
+    this.insertOne = sqlite.prepare(`${insert} (?, ?, ?) ON CONFLICT(at) DO NOTHING`);
+    this.insertBatch = sqlite.prepare(`${insert} ${Array(STAGE_BATCH).fill("(?, ?, ?)").join(", ")} ON CONFLICT(at) DO NOTHING`);
     this.find = sqlite.prepare(`SELECT line, temp_c AS tempC FROM temp.${this.name} WHERE at = ?`);
   }
 
-  add(reading: CsvReading): { line: number; tempC: number } | null {
-    if (this.insert.run(reading.atMs, reading.tempC, reading.line).changes === 1) return null;
-    return this.find.get(reading.atMs) as { line: number; tempC: number };
+  /** Stores the pending readings (call inside a transaction). Null when every one was new. */
+  flush(): ({ line: number; tempC: number } | null)[] | null {
+    const batch = this.pending;
+    if (batch.length === 0) return null;
+    let inserted = 0;
+    if (batch.length === STAGE_BATCH) {
+      for (let k = 0; k < STAGE_BATCH; k++) {
+        this.args[3 * k] = batch[k].atMs;
+        this.args[3 * k + 1] = batch[k].tempC;
+        this.args[3 * k + 2] = batch[k].line;
+      }
+      inserted = this.insertBatch.run(this.args).changes;
+    } else {
+      for (const r of batch) inserted += this.insertOne.run(r.atMs, r.tempC, r.line).changes;
+    }
+    let earlier: ({ line: number; tempC: number } | null)[] | null = null;
+    if (inserted < batch.length) {
+      // Rare: some instant was already there. The row holding it names the line that came first.
+      earlier = batch.map((r) => {
+        const found = this.find.get(r.atMs) as { line: number; tempC: number };
+        return found.line === r.line ? null : found;
+      });
+    }
+    batch.length = 0;
+    return earlier;
   }
 
   drop(): void {
@@ -366,7 +399,27 @@ async function scanUpload(meta: UploadMeta, csvPath: string, mapping: CsvMapping
   };
   if (mapping.headerLine === 0) startReading(numberedHeaders(1000));
 
-  // One short transaction per chunk of rows: synchronous, never across an await.
+  const pendingCells: (readonly string[])[] = [];
+  const flushStage = () => {
+    const batch = stage.pending.slice();
+    const earlier = stage.flush();
+    for (let k = 0; k < batch.length; k++) {
+      const reading = batch[k];
+      const first = earlier ? earlier[k] : null;
+      if (!first) {
+        summary.readingCount++;
+        if (summary.firstAtMs === null || reading.atMs < summary.firstAtMs) summary.firstAtMs = reading.atMs;
+        if (summary.lastAtMs === null || reading.atMs > summary.lastAtMs) summary.lastAtMs = reading.atMs;
+        if (summary.rows.length < PREVIEW_ROWS) summary.rows.push({ line: reading.line, atMs: reading.atMs, tempC: reading.tempC });
+      } else if (first.tempC !== reading.tempC) {
+        addIssues([duplicateError(reading, first, reader!.timeColumn, reader!.timeText(pendingCells[k]))]);
+      } else summary.repeatedInFile++;
+    }
+    pendingCells.length = 0;
+  };
+
+  // One short transaction per chunk of rows: synchronous, never across an await. Issues are
+  // added in file order: the staged batch is flushed before a row's own problems are listed.
   const takeRecords = sqlite.transaction((records: { line: number; cells: string[] }[]) => {
     for (const record of records) {
       lastLine = record.line;
@@ -386,19 +439,15 @@ async function scanUpload(meta: UploadMeta, csvPath: string, mapping: CsvMapping
       rowErrors.length = 0;
       const reading = reader.read(record.cells, record.line, rowErrors);
       if (reading) {
-        const earlier = stage.add(reading);
-        if (earlier && earlier.tempC !== reading.tempC) {
-          rowErrors.push(duplicateError(reading, earlier, reader.timeColumn, reader.timeText(record.cells)));
-        } else if (earlier) summary.repeatedInFile++;
-        else {
-          summary.readingCount++;
-          if (summary.firstAtMs === null || reading.atMs < summary.firstAtMs) summary.firstAtMs = reading.atMs;
-          if (summary.lastAtMs === null || reading.atMs > summary.lastAtMs) summary.lastAtMs = reading.atMs;
-          if (summary.rows.length < PREVIEW_ROWS) summary.rows.push({ line: reading.line, atMs: reading.atMs, tempC: reading.tempC });
-        }
+        stage.pending.push(reading);
+        pendingCells.push(record.cells);
+        if (stage.pending.length === STAGE_BATCH) flushStage();
+      } else {
+        flushStage();
+        addIssues(rowErrors);
       }
-      addIssues(rowErrors);
     }
+    flushStage();
   });
 
   try {

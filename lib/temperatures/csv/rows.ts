@@ -76,6 +76,8 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
   const fixedUnit: TemperatureUnit | null = mapping.unit === "column" ? null : mapping.unit;
   const timeColumnName = mapping.timestampColumn ?? mapping.dateColumn!;
   let previousAtMs = -Infinity;
+  let lastUnitText: string | null = null;
+  let lastUnit: TemperatureUnit | null = null;
 
   function instantOf(result: TimestampResult, text: string): { atMs: number } | { message: string } {
     if (result.kind === "error") return { message: result.message };
@@ -101,17 +103,16 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
     timeText: (cells) => (timestampAt >= 0 ? cellOf(cells, timestampAt) : `${cellOf(cells, dateAt)} ${cellOf(cells, timeAt)}`),
     read(cells, line, errors) {
       const before = errors.length;
-      const cell = (at: number) => cellOf(cells, at);
 
       let atMs: number | null = null;
       if (timestampAt >= 0) {
-        const text = cell(timestampAt);
+        const text = cellOf(cells, timestampAt);
         const outcome = instantOf(parseTimestamp(text, mapping.dateOrder), text);
         if ("atMs" in outcome) atMs = outcome.atMs;
         else errors.push({ line, column: timeColumnName, value: clip(text), message: outcome.message });
       } else {
-        const dateText = cell(dateAt);
-        const timeText = cell(timeAt);
+        const dateText = cellOf(cells, dateAt);
+        const timeText = cellOf(cells, timeAt);
         const result = parseDateAndTime(dateText, timeText, mapping.dateOrder);
         if (result.kind === "error") {
           const isTime = "column" in result && result.column === "time";
@@ -125,8 +126,13 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
 
       let unit: TemperatureUnit | null = fixedUnit;
       if (unitAt >= 0) {
-        const text = cell(unitAt);
-        unit = readUnit(text);
+        const text = cellOf(cells, unitAt);
+        // A unit column usually holds one value all the way down.
+        if (text !== lastUnitText) {
+          lastUnitText = text;
+          lastUnit = readUnit(text);
+        }
+        unit = lastUnit;
         if (!unit) {
           errors.push({
             line,
@@ -138,7 +144,7 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
       }
 
       let tempC: number | null = null;
-      const temperatureText = cell(temperatureAt);
+      const temperatureText = cellOf(cells, temperatureAt);
       const temperature = readTemperature(temperatureText, mapping.decimalSeparator);
       if (!temperature.ok) {
         errors.push({ line, column: mapping.temperatureColumn, value: clip(temperatureText), message: temperature.message });
@@ -164,7 +170,7 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
       }
 
       if (deviceAt >= 0 && expectedDeviceId !== null) {
-        const text = cell(deviceAt);
+        const text = cellOf(cells, deviceAt);
         if (text !== expectedDeviceId) {
           errors.push({
             line,

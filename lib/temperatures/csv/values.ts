@@ -49,8 +49,13 @@ export type TemperatureCell = { ok: true; value: number; unit: TemperatureUnit |
 
 /** A temperature cell: a number with the chosen decimal mark, optionally followed by its unit. */
 export function readTemperature(text: string, decimal: DecimalSeparator): TemperatureCell {
-  let value = text.trim().replace(/^−/, "-");
+  let value = text.trim();
+  // The common case first: a plain number.
+  if (decimal === "." ? DOT_NUMBER.test(value) : COMMA_NUMBER.test(value)) {
+    return { ok: true, value: Number(decimal === "," ? value.replace(",", ".") : value), unit: null };
+  }
   if (value === "") return { ok: false, message: "The temperature is empty." };
+  value = value.replace(/^−/, "-");
   let unit: TemperatureUnit | null = null;
   const withUnit = WITH_UNIT.exec(value);
   if (withUnit && withUnit[1] !== "") {

@@ -77,3 +77,27 @@ describe("temperatures and units", () => {
     expect(readTemperature(" ", ".")).toEqual({ ok: false, message: "The temperature is empty." });
   });
 });
+
+describe("fixed-width timestamps read quickly give the same instants as the general forms", () => {
+  it("for every form, over random valid dates and times", async () => {
+    const fc = (await import("fast-check")).default;
+    const two = (n: number) => String(n).padStart(2, "0");
+    fc.assert(
+      fc.property(fc.date({ min: new Date("1990-01-01T00:00:00Z"), max: new Date("2099-12-31T23:59:59Z"), noInvalidDate: true }), (date) => {
+        const wallMs = Math.floor(date.getTime() / 1000) * 1000;
+        const d = new Date(wallMs);
+        const [y, mo, da, h, mi, s] = [d.getUTCFullYear(), two(d.getUTCMonth() + 1), two(d.getUTCDate()), two(d.getUTCHours()), two(d.getUTCMinutes()), two(d.getUTCSeconds())];
+        const expected = { kind: "local", wallMs };
+        expect(parseTimestamp(`${y}-${mo}-${da} ${h}:${mi}:${s}`, "dmy")).toEqual(expected);
+        expect(parseTimestamp(`${y}-${mo}-${da}T${h}:${mi}:${s}`, "ymd")).toEqual(expected);
+        expect(parseTimestamp(`${da}.${mo}.${y} ${h}:${mi}:${s}`, "dmy")).toEqual(expected);
+        expect(parseTimestamp(`${mo}/${da}/${y} ${h}:${mi}:${s}`, "mdy")).toEqual(expected);
+        expect(parseDateAndTime(`${da}/${mo}/${y}`, `${h}:${mi}:${s}`, "dmy")).toEqual(expected);
+        // The same instants through the general forms (single-digit hour, 12-hour clock).
+        const hour12 = ((d.getUTCHours() + 11) % 12) + 1;
+        expect(parseTimestamp(`${y}-${mo}-${da} ${hour12}:${mi}:${s} ${d.getUTCHours() < 12 ? "AM" : "PM"}`, "ymd")).toEqual(expected);
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
