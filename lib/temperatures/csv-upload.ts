@@ -41,7 +41,6 @@ import {
   numberedHeaders,
   toRememberedMapping,
   type CsvMapping,
-  type CsvMappingInput,
   type CsvReading,
   type CsvRowError,
   type DetectedLayout,
@@ -71,13 +70,14 @@ export type CsvUploadInfo = {
   expiresAtMs: number;
   layout: DetectedLayout;
   /** Detected layout, the sensor's remembered choices where they fit this file, then the guesses. */
-  mapping: Partial<CsvMappingInput>;
+  mapping: Partial<CsvMapping>;
   /** The sensor had a mapping from an earlier import, and it was used. */
   remembered: boolean;
   sensor: { id: number; externalId: string; name: string };
 };
 
-export type CsvPreviewRow = { line: number; atMs: number; tempC: number };
+/** A reading as it will be stored, beside what the file says. */
+export type CsvPreviewRow = { line: number; atMs: number; tempC: number; timeText: string; temperatureText: string };
 
 export type CsvScanSummary = {
   /** Data rows in the file (blank lines not counted). */
@@ -201,8 +201,8 @@ function cleanFileName(name: string): string {
   return (base || "logger-file.csv").slice(0, FILE_NAME_MAX_LENGTH);
 }
 
-function prefilledMapping(layout: DetectedLayout, sensor: Sensor): { mapping: Partial<CsvMappingInput>; remembered: boolean } {
-  const mapping: Partial<CsvMappingInput> = {
+function prefilledMapping(layout: DetectedLayout, sensor: Sensor): { mapping: Partial<CsvMapping>; remembered: boolean } {
+  const mapping: Partial<CsvMapping> = {
     delimiter: layout.delimiter,
     decimalSeparator: layout.decimalSeparator,
     headerLine: layout.headerLine,
@@ -226,8 +226,8 @@ function prefilledMapping(layout: DetectedLayout, sensor: Sensor): { mapping: Pa
       mapping.unitColumn = saved.unitColumn;
       mapping.deviceIdColumn = saved.deviceIdColumn;
     }
-    if (saved.unit && (saved.unit !== "column" || mapping.unitColumn)) mapping.unit = saved.unit as CsvMappingInput["unit"];
-    if (saved.dateOrder) mapping.dateOrder = saved.dateOrder as CsvMappingInput["dateOrder"];
+    if (saved.unit && (saved.unit !== "column" || mapping.unitColumn)) mapping.unit = saved.unit as CsvMapping["unit"];
+    if (saved.dateOrder) mapping.dateOrder = saved.dateOrder as CsvMapping["dateOrder"];
   }
   if (sensor.timeZone) mapping.timeZone = sensor.timeZone;
   return { mapping, remembered };
@@ -410,7 +410,9 @@ async function scanUpload(meta: UploadMeta, csvPath: string, mapping: CsvMapping
         summary.readingCount++;
         if (summary.firstAtMs === null || reading.atMs < summary.firstAtMs) summary.firstAtMs = reading.atMs;
         if (summary.lastAtMs === null || reading.atMs > summary.lastAtMs) summary.lastAtMs = reading.atMs;
-        if (summary.rows.length < PREVIEW_ROWS) summary.rows.push({ line: reading.line, atMs: reading.atMs, tempC: reading.tempC });
+        if (summary.rows.length < PREVIEW_ROWS) {
+          summary.rows.push({ line: reading.line, atMs: reading.atMs, tempC: reading.tempC, timeText: reader!.timeText(pendingCells[k]), temperatureText: reader!.temperatureText(pendingCells[k]) });
+        }
       } else if (first.tempC !== reading.tempC) {
         addIssues([duplicateError(reading, first, reader!.timeColumn, reader!.timeText(pendingCells[k]))]);
       } else summary.repeatedInFile++;

@@ -95,7 +95,7 @@ describe("a logger file with one bad line among thousands", () => {
     expect(preview.body.data).toMatchObject({ rowCount: 6000, readingCount: 5999, issueCount: 1, issueLineCount: 1, alreadyStored: 0 });
     expect(preview.body.data.issues).toEqual([{ line: 4321, column: "Temperature", value: "4.5°", message: "“4.5°” is not a number." }]);
     expect(preview.body.data.rows).toHaveLength(20);
-    expect(preview.body.data.rows[0]).toEqual({ line: 2, atMs: Date.parse("2026-06-30T22:00:00Z"), tempC: 4 });
+    expect(preview.body.data.rows[0]).toEqual({ line: 2, atMs: Date.parse("2026-06-30T22:00:00Z"), tempC: 4, timeText: "2026-07-01 00:00:00", temperatureText: "4.0" });
 
     const imported = await step(importRoute.POST, sensorIds.fridge, token, berlinMapping);
     expect(imported.status).toBe(400);

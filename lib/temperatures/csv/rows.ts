@@ -48,6 +48,8 @@ export type RowReader = {
   read(cells: readonly string[], line: number, errors: CsvRowError[]): CsvReading | null;
   /** The row's time as written (the timestamp cell, or the date and time cells). */
   timeText(cells: readonly string[]): string;
+  /** The row's temperature cell as written (with a unit cell after it, when the unit has a column). */
+  temperatureText(cells: readonly string[]): string;
   /** The column errors about the row's time are reported under. */
   readonly timeColumn: string;
 };
@@ -101,6 +103,7 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
   return {
     timeColumn: timeColumnName,
     timeText: (cells) => (timestampAt >= 0 ? cellOf(cells, timestampAt) : `${cellOf(cells, dateAt)} ${cellOf(cells, timeAt)}`),
+    temperatureText: (cells) => (unitAt >= 0 ? `${cellOf(cells, temperatureAt)} ${cellOf(cells, unitAt)}` : cellOf(cells, temperatureAt)),
     read(cells, line, errors) {
       const before = errors.length;
 
