@@ -225,9 +225,10 @@ function prefilledMapping(layout: DetectedLayout, sensor: Sensor): { mapping: Pa
       mapping.temperatureColumn = saved.temperatureColumn;
       mapping.unitColumn = saved.unitColumn;
       mapping.deviceIdColumn = saved.deviceIdColumn;
+      // The unit and date order go with the layout: a file laid out differently keeps the guesses.
+      if (saved.unit) mapping.unit = saved.unit as CsvMapping["unit"];
+      if (saved.dateOrder) mapping.dateOrder = saved.dateOrder as CsvMapping["dateOrder"];
     }
-    if (saved.unit && (saved.unit !== "column" || mapping.unitColumn)) mapping.unit = saved.unit as CsvMapping["unit"];
-    if (saved.dateOrder) mapping.dateOrder = saved.dateOrder as CsvMapping["dateOrder"];
   }
   if (sensor.timeZone) mapping.timeZone = sensor.timeZone;
   return { mapping, remembered };

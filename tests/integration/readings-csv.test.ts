@@ -197,6 +197,17 @@ describe("units and time zones", () => {
     ]);
   });
 
+  it("reads a Windows-1252 file (the degree sign as the byte 0xB0) with the unit in a column", async () => {
+    const latin = (s: string) => Uint8Array.from([...s].map((ch) => (ch === "°" ? 0xb0 : ch.charCodeAt(0))));
+    const uploaded = await upload(sensorIds.us, latin("Time,Temp,Unit\n2026-12-01T08:00:00Z,46.4,°F\n2026-12-01T08:01:00Z,8,°C\n"));
+    expect(uploaded.body.data).toMatchObject({ encoding: "windows-1252", mapping: { unit: "column", unitColumn: "Unit" } });
+    const preview = await step(previewRoute.POST, sensorIds.us, uploaded.body.data.token, { ...uploaded.body.data.mapping, timeZone: "UTC" });
+    expect(preview.body.data.rows.map((r: { tempC: number; temperatureText: string }) => [r.temperatureText, r.tempC])).toEqual([
+      ["46.4 °F", 8],
+      ["8 °C", 8],
+    ]);
+  });
+
   it("refuses a local time that was skipped when clocks went forward, naming the fixed zone to choose", async () => {
     const text = "Timestamp,Temperature\n2026-03-29 01:30,5\n2026-03-29 02:30,5\n2026-03-29 03:30,5\n";
     const { token } = (await upload(sensorIds.us, text)).body.data;

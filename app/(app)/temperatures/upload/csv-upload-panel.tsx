@@ -352,7 +352,15 @@ export function CsvUploadPanel({ sensors, initialSensorId }: { sensors: SensorOp
             {message ? <FormMessage errors={[message]} /> : null}
             <div className="flex flex-wrap items-center gap-3">
               <Button onClick={runImport} disabled={!canImport} aria-busy={busy === "import"} aria-describedby={`${id}-import-note`}>
-                {busy === "import" ? "Importing…" : `Import readings (${formatCount(newReadings)})`}
+                {busy === "import" ? (
+                  "Importing…"
+                ) : (
+                  <>
+                    Import readings
+                    {/* The count is read out with the note the button points to. */}
+                    <span aria-hidden="true" className="tabular">({formatCount(newReadings)})</span>
+                  </>
+                )}
               </Button>
               <p id={`${id}-import-note`} className="text-sm text-ink-700">
                 {preview.issueCount > 0
