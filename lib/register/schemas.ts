@@ -1,5 +1,7 @@
 /** The register's workflow steps, one schema shared by the finding page's forms and the API. */
 import { z } from "zod";
+import { FINDING_STATUSES, SCENARIOS, SEVERITIES } from "@/db/enums";
+import { listQuerySchema } from "@/lib/http/list-query";
 import { optionalDate, optionalText, requiredId, requiredText } from "@/lib/validation/fields";
 
 export const MAX_RISK_ACCEPTANCE_DAYS = 3 * 366;
@@ -21,3 +23,39 @@ export const findingEventSchema = z.discriminatedUnion(
 );
 export type FindingEventInput = z.output<typeof findingEventSchema>;
 export const FINDING_EVENT_INPUT_KINDS = ["acknowledge", "start_mitigation", "resolve", "accept_risk", "comment", "assign", "reopen"] as const;
+
+
+const filterId = (label: string) =>
+  z
+    .string()
+    .optional()
+    .transform((v) => (v === undefined || v === "" ? undefined : Number(v)))
+    .refine((v) => v === undefined || (Number.isInteger(v) && v > 0), `${label} must be a positive whole number.`);
+
+/** A comma-separated list of allowed values ("critical,high"). */
+const oneOrMore = <const T extends readonly [string, ...string[]]>(label: string, values: T) =>
+  z
+    .string()
+    .optional()
+    .transform((v) => (v ? v.split(",").map((s) => s.trim()).filter(Boolean) : undefined))
+    .refine((list) => !list || list.every((s) => (values as readonly string[]).includes(s)), `${label} must be one or more of: ${values.join(", ")}.`)
+    .transform((list) => list as T[number][] | undefined);
+
+export const FINDING_SORTS = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age", "updated"] as const;
+
+export const findingListQuerySchema = listQuerySchema({
+  sortable: FINDING_SORTS,
+  defaultSort: "severity",
+  defaultDir: "desc",
+  filters: {
+    severity: oneOrMore("severity", SEVERITIES),
+    status: oneOrMore("status", FINDING_STATUSES),
+    scenario: oneOrMore("scenario", SCENARIOS),
+    siteId: filterId("siteId"),
+    roomId: filterId("roomId"),
+    storageUnitId: filterId("storageUnitId"),
+    rule: z.string().trim().max(60, "rule is at most 60 characters.").optional(),
+    q: z.string().trim().max(100, "q is at most 100 characters.").optional(),
+  },
+});
+export type FindingListQuery = z.output<typeof findingListQuerySchema>;
