@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, desc, eq, inArray, or, sql as rawSql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { getDb } from "@/db/client";
-import { containers, findingEvents, findings, mixtures, rooms, sites, storageUnits, substances, users, SEVERITIES, type Severity } from "@/db/schema";
+import { containers, findingEvents, findings, mixtures, rooms, sites, storageUnits, substances, users, type Severity } from "@/db/schema";
 import type { FindingListQuery } from "@/lib/register/schemas";
 import type { Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
@@ -24,28 +24,6 @@ export function findingsVisibleTo(user: SessionUser, scope: Scope): SQL | undefi
     inArray(findings.roomId, db.select({ id: rooms.id }).from(rooms).where(eq(rooms.facilitiesContactId, user.id))),
     inArray(findings.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.ownerId, user.id))),
   );
-}
-
-export function listFindings(user: SessionUser, scope: Scope, filter: { severity?: string } = {}) {
-  const severity = SEVERITIES.includes(filter.severity as Severity) ? (filter.severity as Severity) : undefined;
-  return getDb()
-    .select({
-      id: findings.id,
-      title: findings.title,
-      rule: findings.rule,
-      severity: findings.severity,
-      status: findings.status,
-      ratio: findings.ratio,
-      worstCaseTempC: findings.worstCaseTempC,
-      firstRaisedAt: findings.firstRaisedAt,
-      substanceName: substances.name,
-    })
-    .from(findings)
-    .leftJoin(substances, eq(substances.id, findings.substanceId))
-    .where(and(findingsVisibleTo(user, scope), severity ? eq(findings.severity, severity) : undefined))
-    .orderBy(desc(findings.firstRaisedAt))
-    .limit(200)
-    .all();
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -25,7 +25,7 @@ export const ACTION_FOR_STEP: Record<Kind, Action> = {
 };
 
 /** The statuses a step may start from; comments and assignment go with any status. */
-const ALLOWED_FROM: Partial<Record<Kind, FindingStatus[]>> = {
+export const ALLOWED_FROM: Partial<Record<Kind, FindingStatus[]>> = {
   acknowledge: ["open"],
   start_mitigation: ["open", "acknowledged"],
   resolve: ["open", "acknowledged", "mitigating", "risk_accepted"],
