@@ -15,3 +15,8 @@ export const sensorCreateSchema = z
     }
   });
 export type SensorInput = z.output<typeof sensorCreateSchema>;
+
+export const excursionAcknowledgeSchema = z.object({
+  comment: requiredText("Comment", 2000),
+});
+export type ExcursionAcknowledgeInput = z.output<typeof excursionAcknowledgeSchema>;
