@@ -17,8 +17,10 @@
  *   first-order approach (time constant a few hours) and is pulled back down after the repair.
  *
  * The site's loggers keep UTC, so the daily cycle and the working hours are in UTC. Pure and
- * deterministic: every random draw is a hash of the sensor's seed and the reading's instant, so a
- * reading at a given instant is the same whenever the demo is seeded.
+ * deterministic: every random draw is a hash of the sensor's seed and the reading's instant, so
+ * seeding twice with the same end gives the same readings, and seeding on another day gives the
+ * same readings at the same instants (once the first day's start-up has decayed), apart from the
+ * failure weekend, which is chosen relative to the end.
  */
 
 export const READING_INTERVAL_MS = 15 * 60_000;
@@ -215,7 +217,7 @@ export function coldTrace(model: ColdTrace, firstMs: number, ambientC: Float64Ar
     }
     if (failed && failure) {
       // Newton's law of cooling towards the room: T ← T_room + (T − T_room)·e^(−Δt/τ).
-      const previousC = failedC ?? (i > 0 ? out[i - 1] : normalC);
+      const previousC: number = failedC ?? (i > 0 ? out[i - 1] : normalC);
       failedC = ambientC[i] + (previousC - ambientC[i]) * Math.exp(-READING_INTERVAL_MS / (failure.warmTauH * HOUR_MS));
       excessC = failedC - normalC;
       out[i] = failedC;
