@@ -159,7 +159,7 @@ export function heatWaveIntensity(wave: HeatWave, atMs: number): number {
 
 const round1 = (tempC: number) => Math.round(tempC * 10) / 10;
 
-/** A room's trace, unrounded: ambient for the units in it; `roundedRoomTrace` gives the readings. */
+/** A room's trace, unrounded (the surroundings of the units in it); `toReadings` rounds it as a logger would. */
 export function roomTrace(model: RoomTrace, firstMs: number, count: number, wave: HeatWave): Float64Array {
   const out = new Float64Array(count);
   const decay = Math.exp(-READING_INTERVAL_MS / (model.thermalTauH * HOUR_MS));
