@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq, gte, inArray, isNull, lt, or, type SQL } from "drizzle-orm";
 import { getDb, type DbOrTx } from "@/db/client";
-import { emailMessages, excursions, rooms, sensors, storageUnits, users, type User } from "@/db/schema";
+import { emailMessages, excursions, findingEvents, findings, rooms, sensors, storageUnits, users, type User } from "@/db/schema";
 import { dailyDigestEmail, formatDurationMin, formatEmailInstant, formatEmailTempC } from "@/emails/excursion";
 import { appUrl } from "@/lib/config";
 import { log } from "@/lib/log";
@@ -79,8 +79,44 @@ export const excursionDigestSection: DigestSectionBuilder = (tx, user, window) =
   };
 };
 
-/** The digest's parts, in order. The register adds its own. */
-export const DIGEST_SECTIONS: DigestSectionBuilder[] = [excursionDigestSection];
+function findingScope(tx: DbOrTx, user: User): SQL | null | "all" {
+  if (user.role === "safety_officer") return "all";
+  const roomIds = tx.select({ id: rooms.id }).from(rooms).where(eq(rooms.facilitiesContactId, user.id)).all().map((r) => r.id);
+  const unitIds = tx.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.ownerId, user.id)).all().map((u) => u.id);
+  const parts: SQL[] = [];
+  if (roomIds.length) parts.push(inArray(findings.roomId, roomIds));
+  if (unitIds.length) parts.push(inArray(findings.storageUnitId, unitIds));
+  return parts.length ? or(...parts)! : null;
+}
+
+const DIGEST_EVENT_LABEL: Record<string, string> = { raised: "Raised", reopened: "Re-opened", auto_resolved: "Resolved itself", resolved: "Resolved", risk_accepted: "Risk accepted" };
+
+export const findingDigestSection: DigestSectionBuilder = (tx, user, window) => {
+  if (user.alertFindings === "off") return null;
+  const scope = findingScope(tx, user);
+  if (scope === null) return null;
+  const happened = and(
+    gte(findingEvents.at, new Date(window.sinceMs)),
+    lt(findingEvents.at, new Date(window.untilMs)),
+    inArray(findingEvents.kind, ["raised", "reopened", "auto_resolved", "resolved", "risk_accepted"]),
+  )!;
+  const rows = tx
+    .select({ kind: findingEvents.kind, severity: findings.severity, title: findings.title, id: findings.id })
+    .from(findingEvents)
+    .innerJoin(findings, eq(findings.id, findingEvents.findingId))
+    .where(scope === "all" ? happened : and(scope, happened))
+    .orderBy(findingEvents.at)
+    .limit(50)
+    .all();
+  if (rows.length === 0) return null;
+  return {
+    heading: `Register (${rows.length}${rows.length === 50 ? " or more" : ""} changes)`,
+    lines: rows.map((row) => `${DIGEST_EVENT_LABEL[row.kind] ?? row.kind}: ${row.severity.toUpperCase()} — ${row.title} (${appUrl()}/register/${row.id})`),
+  };
+};
+
+/** The digest's parts, in order. */
+export const DIGEST_SECTIONS: DigestSectionBuilder[] = [findingDigestSection, excursionDigestSection];
 
 function wantsDigest(user: User): boolean {
   return user.dailyDigest || user.alertExcursions === "digest" || user.alertFindings === "digest";
