@@ -39,8 +39,10 @@ const CLOSED_KINDS: ReadonlySet<StorageUnitKind> = new Set([
   "freezer_minus_80",
 ]);
 
+/** A refrigerator or freezer, or any unit with a set range: assessed in control and with control lost. */
 export function isTemperatureControlled(unit: UnitInfo): boolean {
-  return unit.setRange !== null || REFRIGERATORS.has(unit.kind) || FREEZERS.has(unit.kind);
+  const range = unit.setRange;
+  return (range !== null && (range.minC !== null || range.maxC !== null)) || REFRIGERATORS.has(unit.kind) || FREEZERS.has(unit.kind);
 }
 
 /** A closed, unventilated unit; "other" counts as closed when it has an internal volume. */
@@ -105,6 +107,8 @@ export type ContentGroup = {
   readonly mixtureId: number | null;
   readonly physicalState: SubstanceSnapshot["physicalState"];
   readonly containers: MeasuredContainer[];
+  /** The group's vapor at each temperature already asked for (vapors.ts; at most a few per location). */
+  readonly vaporMemo: { tempC: number; vapor: unknown }[];
 };
 
 function densityOf(content: StoredContent): number | null {
@@ -190,8 +194,6 @@ export class AssessmentContext {
   /** The scenario that temperature-independent findings (quantities, ignition, missing data) are filed under. */
   readonly primaryScenario: Scenario;
   private readonly findings = new Map<string, CandidateFinding>();
-  /** Memo of per-scenario results keyed by group and temperature (see vapors.ts). */
-  readonly memo = new Map<string, unknown>();
   private readonly missingSeen = new Set<string>();
 
   constructor(snapshot: LocationSnapshot, settings: AssessmentSettings, cache: AssessmentCache) {
@@ -224,6 +226,7 @@ export class AssessmentContext {
           mixtureId: content.kind === "mixture" ? content.mixture.id : null,
           physicalState: content.kind === "substance" ? content.substance.physicalState : "liquid",
           containers: [],
+          vaporMemo: [],
         };
         groups.set(key, group);
       }

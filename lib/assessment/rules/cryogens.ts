@@ -190,16 +190,16 @@ export function cryogenRules(ctx: AssessmentContext, view: ScenarioView | null):
     containerIds: [...releases.flatMap((r) => r.containerIds), ...dryIceIds],
     trace: () =>
       findingTrace({
-      rule: "oxygen-depletion",
-      scenario: "room_worst_case",
-      method: ruleLabel("oxygen-depletion"),
-      source: oxygen.source,
-      inputs,
-      steps,
-      result: traceValue("Oxygen after the release", "O₂", o2.oxygenPercent, "%"),
-      parts: [...(dryIceTrace ? [dryIceTrace] : []), o2.trace],
-      warnings: ["Ventilation is not counted: the release is taken as instant (the worst case)"],
-    }),
+        rule: "oxygen-depletion",
+        scenario: "room_worst_case",
+        method: ruleLabel("oxygen-depletion"),
+        source: oxygen.source,
+        inputs,
+        steps,
+        result: traceValue("Oxygen after the release", "O₂", o2.oxygenPercent, "%"),
+        parts: [...(dryIceTrace ? [dryIceTrace] : []), o2.trace],
+        warnings: ["Ventilation is not counted: the release is taken as instant (the worst case)"],
+      }),
   });
 }
 
@@ -237,28 +237,28 @@ function carbonDioxideFinding(
     containerIds,
     trace: () =>
       findingTrace({
-      rule: "co2-exposure",
-      scenario: "room_worst_case",
-      method: ruleLabel("co2-exposure"),
-      source: ctx.settings.carbonDioxide.source,
-      inputs: [
-        traceValue("Dry ice", "m", massKg, "kg"),
-        traceValue("Molar mass of CO₂", "M", CARBON_DIOXIDE_MOLAR_MASS_G_PER_MOL, "g/mol", "CIAAW atomic weights"),
-        traceValue("Gas temperature", "T", gasTempC, "°C", tempSource),
-        ...ctx.settings.carbonDioxide.limits.map((limit) => traceValue(`CO₂ ${limit.body} ${limit.kind}`, `L_${limit.kind}`, limit.valuePpm, "ppm", limit.source)),
-      ],
-      steps: [
-        severityStep(
-          "Severity: the worst limit exceeded (above 1), or the TWA action level",
-          `IDLH > 1 → ${exposure.idlhSeverity}; STEL > 1 → ${exposure.stelSeverity}; ceiling > 1 → ${exposure.ceilingSeverity}; TWA > 1 → ${exposure.twaSeverity}${exposure.twaActionFraction !== null ? `; TWA ≥ ${exposure.twaActionFraction} → ${exposure.actionSeverity}` : ""}`,
-          `${label}: r = ${formatSig(release.carbonDioxidePpm, 5)}/${formatSig(worst.limit.value, 5)} = ${formatSig(worst.ratio, 4)} → ${worst.severity}`,
-          worst.severity,
-          exposure.source,
-        ),
-      ],
-      result: traceValue("CO₂ after full sublimation", "C_CO₂", release.carbonDioxidePpm, "ppm"),
-      parts: [release.trace],
-      warnings: [],
-    }),
+        rule: "co2-exposure",
+        scenario: "room_worst_case",
+        method: ruleLabel("co2-exposure"),
+        source: ctx.settings.carbonDioxide.source,
+        inputs: [
+          traceValue("Dry ice", "m", massKg, "kg"),
+          traceValue("Molar mass of CO₂", "M", CARBON_DIOXIDE_MOLAR_MASS_G_PER_MOL, "g/mol", "CIAAW atomic weights"),
+          traceValue("Gas temperature", "T", gasTempC, "°C", tempSource),
+          ...ctx.settings.carbonDioxide.limits.map((limit) => traceValue(`CO₂ ${limit.body} ${limit.kind}`, `L_${limit.kind}`, limit.valuePpm, "ppm", limit.source)),
+        ],
+        steps: [
+          severityStep(
+            "Severity: the worst limit exceeded (above 1), or the TWA action level",
+            `IDLH > 1 → ${exposure.idlhSeverity}; STEL > 1 → ${exposure.stelSeverity}; ceiling > 1 → ${exposure.ceilingSeverity}; TWA > 1 → ${exposure.twaSeverity}${exposure.twaActionFraction !== null ? `; TWA ≥ ${exposure.twaActionFraction} → ${exposure.actionSeverity}` : ""}`,
+            `${label}: r = ${formatSig(release.carbonDioxidePpm, 5)}/${formatSig(worst.limit.value, 5)} = ${formatSig(worst.ratio, 4)} → ${worst.severity}`,
+            worst.severity,
+            exposure.source,
+          ),
+        ],
+        result: traceValue("CO₂ after full sublimation", "C_CO₂", release.carbonDioxidePpm, "ppm"),
+        parts: [release.trace],
+        warnings: [],
+      }),
   });
 }

@@ -212,16 +212,16 @@ function boilingPointFinding(ctx: AssessmentContext, group: ContentGroup, view: 
     containerIds: group.containers.map((c) => c.liquid.containerId),
     trace: () =>
       findingTrace({
-      rule: "boiling-point",
-      scenario: view.scenario,
-      method: ruleLabel("boiling-point"),
-      source: "A liquid boils where its vapor pressure reaches the ambient pressure (Dalton's law; Raoult's law for a mixture)",
-      inputs,
-      steps,
-      result: traceValue("Vapor pressure at T", "P", vapor.totalPressureKPa, "kPa"),
-      parts,
-      warnings: vapor.leftOut.map((name) => `${name} is left out: its vapor pressure cannot be computed`),
-    }),
+        rule: "boiling-point",
+        scenario: view.scenario,
+        method: ruleLabel("boiling-point"),
+        source: "A liquid boils where its vapor pressure reaches the ambient pressure (Dalton's law; Raoult's law for a mixture)",
+        inputs,
+        steps,
+        result: traceValue("Vapor pressure at T", "P", vapor.totalPressureKPa, "kPa"),
+        parts,
+        warnings: vapor.leftOut.map((name) => `${name} is left out: its vapor pressure cannot be computed`),
+      }),
   });
 }
 

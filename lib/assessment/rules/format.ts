@@ -8,30 +8,45 @@ export function formatSignificant(value: number, significant = 3): string {
   if (!Number.isFinite(value)) return "—";
   if (value === 0) return "0";
   const magnitude = Math.abs(value);
-  let text: string;
-  if (magnitude >= 1e5 || magnitude < 1e-3) {
-    let exponent = Math.floor(Math.log10(magnitude));
-    let mantissa = Number((magnitude / 10 ** exponent).toFixed(significant - 1));
-    if (mantissa >= 10) {
-      mantissa /= 10;
-      exponent += 1;
-    }
-    const digits = mantissa.toFixed(Math.max(0, significant - 1)).replace(/\.?0+$/, "");
-    const power = String(exponent)
-      .split("")
-      .map((ch) => SUPERSCRIPT[ch])
-      .join("");
-    text = `${digits} × 10${power}`;
-  } else {
-    const rounded = Number(magnitude.toPrecision(significant));
-    const decimals = Math.max(0, significant - 1 - Math.floor(Math.log10(rounded)));
-    text = rounded.toFixed(decimals);
-    if (text.includes(".")) text = text.replace(/\.?0+$/, "");
-    const [whole, fraction] = text.split(".");
-    const grouped = whole.length > 4 ? whole.replace(/\B(?=(\d{3})+(?!\d))/g, ",") : whole;
-    text = fraction === undefined ? grouped : `${grouped}.${fraction}`;
-  }
+  const text = magnitude >= 1e5 || magnitude < 1e-3 ? scientific(magnitude, significant) : plain(magnitude, significant);
   return value < 0 ? `\u2212${text}` : text;
+}
+
+function stripZeros(text: string): string {
+  if (text.indexOf(".") < 0) return text;
+  let end = text.length;
+  while (text.charCodeAt(end - 1) === 48) end -= 1; // "0"
+  if (text.charCodeAt(end - 1) === 46) end -= 1; // "."
+  return text.slice(0, end);
+}
+
+function plain(magnitude: number, significant: number): string {
+  const rounded = Number(magnitude.toPrecision(significant));
+  const decimals = Math.max(0, significant - 1 - Math.floor(Math.log10(rounded)));
+  const text = stripZeros(rounded.toFixed(decimals));
+  if (rounded < 10_000) return text;
+  // Thousands separators from five digits up: 12,300 (four-digit numbers stay 2060).
+  const dot = text.indexOf(".");
+  const whole = dot < 0 ? text : text.slice(0, dot);
+  let grouped = "";
+  for (let i = 0; i < whole.length; i++) {
+    if (i > 0 && (whole.length - i) % 3 === 0) grouped += ",";
+    grouped += whole[i];
+  }
+  return dot < 0 ? grouped : grouped + text.slice(dot);
+}
+
+function scientific(magnitude: number, significant: number): string {
+  let exponent = Math.floor(Math.log10(magnitude));
+  let mantissa = Number((magnitude / 10 ** exponent).toFixed(significant - 1));
+  if (mantissa >= 10) {
+    mantissa /= 10;
+    exponent += 1;
+  }
+  const digits = stripZeros(mantissa.toFixed(Math.max(0, significant - 1)));
+  let power = "";
+  for (const ch of String(exponent)) power += SUPERSCRIPT[ch];
+  return `${digits} × 10${power}`;
 }
 
 export function formatQuantity(value: number, unit: string, significant = 3): string {

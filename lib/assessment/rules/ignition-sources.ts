@@ -8,7 +8,7 @@
  * (university cold-room guidance) and are not designed for flammable storage.
  */
 import type { StorageUnitKind } from "@/db/enums";
-import { traceStep, traceValue, type TraceValue } from "@/lib/hazard";
+import { traceStep, traceValue } from "@/lib/hazard";
 import { findingTrace, largestByMass, severityStep, UNIT_KIND_LABELS, type AssessmentContext, type ContentGroup } from "./context";
 import { capitalise } from "./format";
 import { ruleLabel } from "./rule-ids";
@@ -62,12 +62,6 @@ export function ignitionSourceRule(ctx: AssessmentContext): void {
     const severity = ignitionSeverity(ghs, nfpa, ctx.settings);
     if (severity === null) continue;
     const classes = classText(ghs, nfpa);
-    const inputs: TraceValue[] = [
-      traceValue("Location", "location", ctx.label, ""),
-      traceValue("Ignition sources in the interior", "ignition", why, ""),
-      traceValue("Flash point (closed cup)", "FP", flashPointC ?? "unknown", flashPointC === null ? "" : "°C"),
-      traceValue("Classification", "class", classes, "", basis),
-    ];
     ctx.finding({
       rule: "ignition-source-unit",
       severity,
@@ -84,31 +78,33 @@ export function ignitionSourceRule(ctx: AssessmentContext): void {
       view: null,
       containerIds: group.containers.map((c) => c.liquid.containerId),
       trace: () =>
-      findingTrace({
-        rule: "ignition-source-unit",
-        scenario: ctx.primaryScenario,
-        method: ruleLabel("ignition-source-unit"),
-        source: "Flammable liquid: GHS / OSHA 29 CFR 1910.106(a)(19) category 1–3 (flash point ≤ 60 °C) or NFPA 30 class I; storage: NFPA 45 (2004) annex A.12.2.2.2.1, NRC Prudent Practices in the Laboratory",
-        inputs,
-        steps: [
-          traceStep(
-            "Is it a flammable liquid?",
-            "GHS category 1–3 or NFPA class IA/IB/IC",
-            classes,
-            traceValue("Flammable liquid", "flammable", true, ""),
-          ),
-          severityStep(
-            "Severity by class",
-            `category 1–2 / IA–IB → ${ignitionSource.category1And2Severity}; category 3 / IC → ${ignitionSource.category3Severity}`,
-            `${classes} → ${severity}`,
-            severity,
-            ignitionSource.source,
-          ),
-        ],
-        result: traceValue("Flammable liquid where ignition sources are", "finding", true, ""),
-        parts: [],
-        warnings: group.content.kind === "mixture" ? [...group.content.mixture.warnings] : [],
-      }),
+        findingTrace({
+          rule: "ignition-source-unit",
+          scenario: ctx.primaryScenario,
+          method: ruleLabel("ignition-source-unit"),
+          source:
+            "Flammable liquid: GHS / OSHA 29 CFR 1910.106(a)(19) category 1–3 (flash point ≤ 60 °C) or NFPA 30 class I; storage: NFPA 45 (2004) annex A.12.2.2.2.1, NRC Prudent Practices in the Laboratory",
+          inputs: [
+            traceValue("Location", "location", ctx.label, ""),
+            traceValue("Ignition sources in the interior", "ignition", why, ""),
+            traceValue("Flash point (closed cup)", "FP", flashPointC ?? "unknown", flashPointC === null ? "" : "°C"),
+            traceValue("Classification", "class", classes, "", basis),
+            traceValue("Flash point at or below which a liquid is flammable (GHS category 3 upper bound)", "FP_max", 60, "°C", "GHS ch. 2.6; OSHA 29 CFR 1910.106(a)(19)"),
+          ],
+          steps: [
+            traceStep("Is it a flammable liquid?", "GHS category 1–3 or NFPA class IA/IB/IC", classes, traceValue("Flammable liquid", "flammable", true, "")),
+            severityStep(
+              "Severity by class",
+              `category 1–2 / IA–IB → ${ignitionSource.category1And2Severity}; category 3 / IC → ${ignitionSource.category3Severity}`,
+              `${classes} → ${severity}`,
+              severity,
+              ignitionSource.source,
+            ),
+          ],
+          result: traceValue("Flammable liquid where ignition sources are", "finding", true, ""),
+          parts: [],
+          warnings: group.content.kind === "mixture" ? [...group.content.mixture.warnings] : [],
+        }),
     });
   }
 }

@@ -29,11 +29,10 @@ export type GroupVapor = {
 
 /** Null when no component's vapor pressure can be computed (the gaps are reported as missing data). Memoised per group and temperature. */
 export function groupVapor(ctx: AssessmentContext, group: ContentGroup, tempC: number, scenario: Scenario): GroupVapor | null {
-  const key = `vapor|${group.key}|${tempC}`;
-  const known = ctx.memo.get(key) as GroupVapor | null | undefined;
-  if (known !== undefined) return known;
+  const memo = group.vaporMemo;
+  for (let i = 0; i < memo.length; i++) if (memo[i].tempC === tempC) return memo[i].vapor as GroupVapor | null;
   const vapor = computeGroupVapor(ctx, group, tempC, scenario);
-  ctx.memo.set(key, vapor);
+  memo.push({ tempC, vapor });
   return vapor;
 }
 
