@@ -4,7 +4,7 @@
  * and the collector of findings (one per fingerprint).
  */
 import type { Scenario, Severity, StorageUnitKind } from "@/db/enums";
-import { traceStep, traceValue, type Trace, type TraceStep, type TraceValue } from "@/lib/hazard";
+import { HazardInputError, traceStep, traceValue, type Trace, type TraceStep, type TraceValue } from "@/lib/hazard";
 import { cachedSaturation, type AssessmentCache, type SaturationEntry } from "./cache";
 import { findingFingerprint, subjectKey, type FindingSubject, type LocationRef } from "./fingerprint";
 import type { RuleId } from "./rule-ids";
@@ -430,8 +430,28 @@ class Finding implements CandidateFinding {
   ) {}
 
   get trace(): FindingTrace {
-    this.traceCache ??= this.buildTrace();
+    this.traceCache ??= this.safeTrace();
     return this.traceCache;
+  }
+
+  /** The engine re-checks its inputs while tracing; should it refuse one, the finding keeps a trace saying why. */
+  private safeTrace(): FindingTrace {
+    try {
+      return this.buildTrace();
+    } catch (error) {
+      if (!(error instanceof HazardInputError)) throw error;
+      return {
+        rule: this.rule,
+        scenario: this.scenario,
+        method: this.rule,
+        source: "—",
+        inputs: [],
+        steps: [traceStep("The calculation could not be traced", "—", error.message, traceValue("Value", "value", this.value ?? "—", this.unit ?? ""))],
+        result: traceValue("Value", "value", this.value ?? "—", this.unit ?? ""),
+        warnings: [`The engine refused an input while tracing (${error.field}): ${error.message}`],
+        parts: [],
+      };
+    }
   }
 
   toPlain(): PlainCandidateFinding {

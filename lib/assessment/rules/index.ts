@@ -22,7 +22,7 @@ export {
   severityRank,
   worseSeverity,
 } from "./severity";
-export { buildMixtureSnapshot, buildSubstanceSnapshot, type SubstanceFields } from "./snapshot";
+export { buildMixtureSnapshot, buildSubstanceSnapshot, quantityLimitFromRow, type SubstanceFields } from "./snapshot";
 export type {
   AssessmentSettings,
   CandidateFinding,
@@ -33,6 +33,7 @@ export type {
   MixtureComponentSnapshot,
   MixtureSnapshot,
   PhysicalState,
+  PlainCandidateFinding,
   QuantityLimitSetting,
   RoomInfo,
   StoredContent,

@@ -11,7 +11,8 @@ import {
   type VaporPressureCorrelation,
   type VaporProperties,
 } from "@/lib/hazard";
-import type { MixtureComponentSnapshot, MixtureSnapshot, PhysicalState, SubstanceSnapshot } from "./types";
+import type { LiquidClass } from "@/db/enums";
+import type { MixtureComponentSnapshot, MixtureSnapshot, PhysicalState, QuantityLimitSetting, SubstanceSnapshot } from "./types";
 
 const orUndefined = <T,>(value: T | null | undefined): T | undefined => (value == null ? undefined : value);
 
@@ -132,5 +133,31 @@ export function buildMixtureSnapshot(input: {
     nfpaClass: classifiable ? nfpaLiquidClass(flashPointC, boilingPointC) : null,
     liquidDensityKgPerM3,
     warnings,
+  };
+}
+
+const SCOPE_NAMES: Record<QuantityLimitSetting["scope"], string> = {
+  room: "Room",
+  flammable_cabinet: "Flammable-liquid cabinet",
+  storage_unit: "Storage unit",
+};
+
+/** A stored quantity-limit row (the `quantity_limits` table) as a setting; its name is made from the scope and classes. */
+export function quantityLimitFromRow(row: {
+  id: number;
+  scope: QuantityLimitSetting["scope"];
+  liquidClasses: readonly LiquidClass[];
+  maxVolumeL: number;
+  sprinkleredMaxVolumeL: number | null;
+  basis: string;
+}): QuantityLimitSetting {
+  return {
+    id: row.id,
+    name: `${SCOPE_NAMES[row.scope]}, Class ${row.liquidClasses.join(", ")}`,
+    scope: row.scope,
+    liquidClasses: [...row.liquidClasses],
+    maxVolumeL: row.maxVolumeL,
+    sprinkleredMaxVolumeL: row.sprinkleredMaxVolumeL,
+    basis: row.basis,
   };
 }

@@ -135,6 +135,17 @@ export function spillRules(ctx: AssessmentContext, roomView: ScenarioView): void
   const volumeM3 = ctx.room.volumeM3;
   const airChangesPerHour = ctx.room.airChangesPerHour;
   if (volumeM3 === null || airChangesPerHour === null || !(airChangesPerHour > 0)) return;
+  if (!(ctx.room.mixingFactor > 0 && ctx.room.mixingFactor <= 1)) {
+    ctx.missing({
+      kind: "calculation-failed",
+      subject: { kind: "location", key: "mixing-factor" },
+      subjectName: ctx.label,
+      scenario: "spill",
+      what: `a mixing factor of ${ctx.room.mixingFactor}, outside 0 < k ≤ 1 (k multiplies the ventilation rate)`,
+      consequence: "no spill is modelled in it",
+    });
+    return;
+  }
   const room: Room = { volumeM3, airChangesPerHour, mixingFactor: ctx.room.mixingFactor, floorAreaM2: ctx.room.floorAreaM2 };
   const view: ScenarioView = { ...roomView, scenario: "spill" };
   const { spill, exposure } = ctx.settings;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { substanceLibrary } from "@/db/seed/substance-library";
-import { assessLocation, createAssessmentCache, type LocationSnapshot } from "@/lib/assessment/rules";
-import { CAS, container, designWorstCase, substance, unitSnapshot } from "./fixtures";
+import { assessLocation, buildMixtureSnapshot, createAssessmentCache, RULE_IDS, type LocationSnapshot } from "@/lib/assessment/rules";
+import { CAS, container, designWorstCase, roomSnapshot, substance, substanceWith, unitSnapshot } from "./fixtures";
 
 describe("assessLocation", () => {
   const ether = substance(CAS.diethylEther);
@@ -152,5 +152,75 @@ describe("speed", () => {
     const perUnitMs = (used.user + used.system) / 1000 / units.length;
     expect(count).toBeGreaterThan(units.length * 10);
     expect(perUnitMs).toBeLessThan(1);
+  });
+});
+
+describe("every trace can be built", () => {
+  it("for units, rooms, spills of pure liquids and mixtures, cryogens, dry ice and missing data alike", () => {
+    const acetoneEthanol = buildMixtureSnapshot({
+      id: 21,
+      name: "acetone–ethanol rinse",
+      fractionBasis: "mass",
+      components: [
+        { substance: substance(CAS.acetone), fraction: 0.6 },
+        { substance: substance(CAS.ethanol), fraction: 0.4 },
+      ],
+    });
+    // A component without any vapor-pressure method is left out of the mixture (and reported).
+    const withGap = buildMixtureSnapshot({
+      id: 22,
+      name: "hexane with an unknown",
+      fractionBasis: "mole",
+      components: [
+        { substance: substance(CAS.nHexane), fraction: 0.7 },
+        { substance: substanceWith(CAS.toluene, { id: 990, correlations: [], normalBoilingPointC: null }), fraction: 0.3 },
+      ],
+    });
+    const mixtures = [container({ kind: "mixture", mixture: acetoneEthanol }, 10, "L", "opened"), container({ kind: "mixture", mixture: withGap }, 2.5, "L", "in_use")];
+    const pure = [container(substance(CAS.diethylEther), 1, "L", "opened"), container(substance(CAS.acetone), 20), container(substance(CAS.nButanol), 1, "L", "opened")];
+    const snapshots: LocationSnapshot[] = [
+      unitSnapshot([...pure, ...mixtures], { kind: "domestic_refrigerator", ignitionSourceFree: false }),
+      unitSnapshot([...pure, ...mixtures, ...Array.from({ length: 60 }, () => container(substance(CAS.acetone), 4))], { kind: "flammable_cabinet", setRange: null }),
+      roomSnapshot([...pure, ...mixtures]),
+      roomSnapshot([...pure, ...mixtures], { airChangesPerHour: 0, kind: "cold_room", worstCase: designWorstCase(10) }),
+      roomSnapshot(
+        [container(substance(CAS.nitrogen), 50), container(substance(CAS.carbonDioxide), 10, "kg"), container(substance(CAS.carbonDioxide), 2, "L"), ...pure],
+        { volumeM3: 40, worstCase: designWorstCase(22) },
+      ),
+      unitSnapshot(pure, { worstCase: { inControl: null, controlLost: null }, internalVolumeL: null }, { worstCase: null, volumeM3: null }),
+      unitSnapshot([...pure, ...mixtures], { kind: "open_shelving", setRange: null, worstCase: { inControl: designWorstCase(70), controlLost: null } }),
+    ];
+    const rules = new Set<string>();
+    for (const snapshot of snapshots) {
+      for (const finding of assessLocation(snapshot)) {
+        rules.add(finding.rule);
+        const trace = JSON.parse(JSON.stringify(finding.trace));
+        expect(trace.rule).toBe(finding.rule);
+        expect(trace.steps.length).toBeGreaterThan(0);
+        for (const part of trace.parts) expect(part.steps.length).toBeGreaterThan(0);
+      }
+    }
+    expect([...rules].sort()).toEqual([...RULE_IDS].sort());
+  });
+
+  it("a spilled mixture is compared by the additive exposure index Σ Cᵢ/Lᵢ (OSHA 29 CFR 1910.1000(d)(2)(i))", () => {
+    const rinse = buildMixtureSnapshot({
+      id: 23,
+      name: "acetone–ethanol rinse",
+      fractionBasis: "mass",
+      components: [
+        { substance: substance(CAS.acetone), fraction: 0.6 },
+        { substance: substance(CAS.ethanol), fraction: 0.4 },
+      ],
+    });
+    const finding = assessLocation(roomSnapshot([container({ kind: "mixture", mixture: rinse }, 20)])).find((f) => f.rule === "spill-exposure");
+    expect(finding?.unit).toBe("index");
+    expect(finding?.limitValue).toBe(1);
+    expect(finding?.mixtureId).toBe(23);
+    // The engine's additive index for the controlling kind of limit is the finding's value.
+    const value = finding?.value as number;
+    const indices = finding?.trace.parts.filter((part) => part.method === "Additive mixture rule") ?? [];
+    expect(indices.length).toBeGreaterThan(0);
+    expect(indices.some((part) => Math.abs((part.result.value as number) / value - 1) < 1e-9)).toBe(true);
   });
 });

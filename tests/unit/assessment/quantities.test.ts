@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { assessLocation, DEFAULT_ASSESSMENT_SETTINGS, type AssessmentSettings } from "@/lib/assessment/rules";
+import { assessLocation, DEFAULT_ASSESSMENT_SETTINGS, quantityLimitFromRow, type AssessmentSettings } from "@/lib/assessment/rules";
 import { CAS, container, designWorstCase, relativeDeviation, roomSnapshot, substance, unitSnapshot } from "./fixtures";
 
 const cabinet = { kind: "flammable_cabinet" as const, setRange: null, internalVolumeL: 450, code: "FC-1", worstCase: { inControl: designWorstCase(25), controlLost: null } };
@@ -62,5 +62,17 @@ describe("quantity-limit", () => {
     expect(finding.fingerprint).toBe("quantity-limit|unit:12|limit:11|in_control");
     expect(finding.value).toBeCloseTo(12, 10);
     expect(finding.severity).toBe("high");
+  });
+
+  it("turns a stored quantity-limit row into a setting", () => {
+    expect(quantityLimitFromRow({ id: 4, scope: "flammable_cabinet", liquidClasses: ["IA", "IB"], maxVolumeL: 100, sprinkleredMaxVolumeL: null, basis: "Local code §12" })).toEqual({
+      id: 4,
+      name: "Flammable-liquid cabinet, Class IA, IB",
+      scope: "flammable_cabinet",
+      liquidClasses: ["IA", "IB"],
+      maxVolumeL: 100,
+      sprinkleredMaxVolumeL: null,
+      basis: "Local code §12",
+    });
   });
 });
