@@ -1,6 +1,6 @@
 /**
  * The plain snapshots the assessment rules read, the settings they apply and the findings they
- * propose. Pure data: the integrator builds a snapshot from stored rows, the rules never see the
+ * propose. Pure data: the assessment service builds a snapshot from stored rows, the rules never see the
  * database.
  */
 import type { AmountUnit, ContainerState, LiquidClass, RoomKind, Scenario, Severity, StorageUnitKind } from "@/db/enums";

@@ -53,7 +53,7 @@ export function substanceWith(cas: string, changes: Partial<SubstanceFields>): S
   return buildSubstanceSnapshot({ ...seedFields(cas), ...changes });
 }
 
-/** One shared snapshot per CAS number, as the integrator builds them. */
+/** One shared snapshot per CAS number, as the assessment service builds them. */
 export function substance(cas: string): SubstanceSnapshot {
   let found = cache.get(cas);
   if (!found) {
