@@ -30,6 +30,23 @@ const config = [
       ],
     },
   },
+  {
+    // lib/assessment/rules is pure too: it may use the physics engine, the worst-case types and the
+    // stored enumerations, and zod for the settings schema — nothing that reads or writes state.
+    files: ["lib/assessment/rules/**/*.ts"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          paths: ["next", "react", "fs", "path", "server-only"],
+          patterns: [
+            { regex: "^@/(?!(lib/hazard|lib/temperatures/worst-case|db/enums)$)", message: "The assessment rules are pure: import only @/lib/hazard, @/lib/temperatures/worst-case (types) and @/db/enums." },
+            { group: ["../*", "next/*", "node:*"], message: "The assessment rules are pure: no framework, no I/O, no imports from outside the folder." },
+          ],
+        },
+      ],
+    },
+  },
 ];
 
 export default config;

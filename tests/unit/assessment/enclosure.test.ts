@@ -1,0 +1,169 @@
+import { describe, expect, it } from "vitest";
+import { assessLocation, buildMixtureSnapshot, type CandidateFinding } from "@/lib/assessment/rules";
+import { CAS, container, designWorstCase, relativeDeviation, roomSnapshot, substance, unitSnapshot } from "./fixtures";
+
+const byFingerprint = (findings: CandidateFinding[], fingerprint: string) => {
+  const found = findings.find((f) => f.fingerprint === fingerprint);
+  if (!found) throw new Error(`No finding ${fingerprint} among ${findings.map((f) => f.fingerprint).join(", ")}`);
+  return found;
+};
+
+// Gas constant and temperatures as in the engine: R = 8.314462618 J/(mol·K), 0 °C = 273.15 K, 1 atm = 101.325 kPa.
+describe("enclosure-lfl: closed units", () => {
+  const ether = substance(CAS.diethylEther);
+
+  it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 578 000 ppm = 3400 % LFL (critical)", () => {
+    // Psat(20 °C) from the Poling Antoine set: log10(P/bar) = 4.10962 − 1090.64/(293.15 − 41.95) → 58.600 kPa; the
+    // handbook check value is 442 mmHg = 58.93 kPa (NRC Prudent Practices 1995, LCSS), 0.6 % higher.
+    // C_sat = 58.600/101.325 × 10⁶ = 578 341 ppm. All-evaporated: 4 L × 713 g/L (density recalled from memory,
+    // CRC) = 2852 g → (2852/74.123) × 24.055 / (1000 × 0.276) × 10⁶ = 3.35 × 10⁶ ppm (capped at 10⁶), so
+    // C = min(C_sat, C_inv) = C_sat. LFL 1.7 % (IEC 60079-20-1) → 578 341/17 000 = 34.02 = 3402 % LFL.
+    const findings = assessLocation(
+      unitSnapshot([container(ether, 4, "L", "sealed", { containerId: 41 })], {
+        worstCase: { inControl: designWorstCase(20, "upper end of the set range"), controlLost: designWorstCase(20) },
+      }),
+    );
+    const finding = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|in_control");
+    expect(finding.severity).toBe("critical");
+    expect(relativeDeviation(finding.value as number, 3402.0)).toBeLessThan(1e-4);
+    expect(relativeDeviation(finding.value as number, (442 / 760) * 1e6 / 17000 * 100)).toBeLessThan(0.01);
+    expect(finding).toMatchObject({ unit: "% LFL", limitValue: 100, containerId: 41, substanceId: 7, storageUnitId: 12, roomId: 7, siteId: 1 });
+    expect(finding.ratio).toBeCloseTo((finding.value as number) / 100, 12);
+    expect(finding.worstCaseTempC).toBe(20);
+    expect(finding.worstCaseSource).toBe("20.0 °C, upper end of the set range");
+    expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3400 % LFL at its worst case in control (20.0 °C)");
+    const bound = finding.trace.parts.find((part) => part.method === "Closed-enclosure bound");
+    expect(bound?.steps.at(-1)?.description).toBe("The smaller of the two (saturation-limited)");
+  });
+
+  it("a 10 mL bottle in the same refrigerator at 4 °C is inventory-limited: 7813 ppm = 46 % LFL (high)", () => {
+    // By hand: m = 10 mL × 0.713 g/mL = 7.13 g; Vm(4 °C) = 8.314462618 × 277.15/101.325 = 22.742 L/mol (NIOSH
+    // NMAM Appendix A gives 22.74); V_free = 0.280 − 0.00001 m³; C_inv = (7.13/74.123) × 22.742/(1000 × 0.27999)
+    // × 10⁶ = 7813.2 ppm, far below C_sat (2.9 × 10⁵ ppm at 4 °C); 7813.2/17 000 = 0.4596.
+    const findings = assessLocation(
+      unitSnapshot([container(ether, 10, "mL", "opened")], { worstCase: { inControl: designWorstCase(4), controlLost: designWorstCase(4) } }),
+    );
+    const finding = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|in_control");
+    expect(finding.severity).toBe("high");
+    expect(relativeDeviation(finding.ratio as number, 0.459597)).toBeLessThan(1e-5);
+    const bound = finding.trace.parts[0];
+    expect(bound.steps.at(-1)?.description).toBe("The smaller of the two (inventory-limited)");
+    expect(relativeDeviation(bound.result.value as number, 7813.156)).toBeLessThan(1e-5);
+  });
+
+  it("assesses a refrigerator in control and with control lost (warmed to its room), each with its own fingerprint and source", () => {
+    const findings = assessLocation(
+      unitSnapshot([container(ether, 10, "mL", "opened")], { worstCase: { inControl: designWorstCase(4), controlLost: null } }, { worstCase: designWorstCase(21.3) }),
+    );
+    const inControl = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|in_control");
+    const lost = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|control_lost");
+    expect(lost.worstCaseTempC).toBe(21.3);
+    expect(lost.worstCaseSource).toBe("21.3 °C, design maximum (the room's worst case, as if the unit had failed)");
+    // Inventory-limited in both: C_inv grows with T as Vm does, 294.45/277.15.
+    expect((lost.ratio as number) / (inControl.ratio as number)).toBeCloseTo(294.45 / 277.15, 10);
+    expect(lost.title).toBe("Diethyl ether in FSR-1 could reach 48.8 % LFL if the refrigerator fails (control lost, 21.3 °C)");
+  });
+
+  it("adds the open containers together: ΣCᵢ/LFLᵢ (Le Chatelier), each at most its own saturated concentration", () => {
+    // Two open 10 mL ether bottles at 4 °C: 2 × 7813 ppm (each inventory-limited) = 15 626 ppm → 91.9 % LFL;
+    // the largest alone gives 46.0 %.
+    const findings = assessLocation(
+      unitSnapshot([container(ether, 10, "mL", "opened"), container(ether, 10, "mL", "in_use"), container(ether, 10, "mL", "sealed")], {
+        worstCase: { inControl: designWorstCase(4), controlLost: designWorstCase(4) },
+      }),
+    );
+    const open = byFingerprint(findings, "enclosure-lfl|unit:12|open-containers|in_control");
+    expect(open.severity).toBe("high");
+    // Free volume now 0.280 − 0.00003 m³.
+    const expected = ((2 * (7.13 / 74.123) * 22.742199) / (1000 * 0.27997)) * 1e6 / 17000;
+    expect(relativeDeviation(open.ratio as number, expected)).toBeLessThan(1e-5);
+    expect(open.containerIds).toHaveLength(2);
+    expect(open.title).toBe("Open containers in FSR-1 could reach 91.9 % LFL together at its worst case in control (4.0 °C)");
+  });
+
+  it("raises nothing below 10 % LFL, and nothing for open shelving", () => {
+    const hexane = substance(CAS.nHexane);
+    const cold = assessLocation(unitSnapshot([container(hexane, 1, "mL", "opened")], { worstCase: { inControl: designWorstCase(4), controlLost: designWorstCase(4) } }));
+    expect(cold.filter((f) => f.rule === "enclosure-lfl")).toEqual([]);
+    const shelf = assessLocation(unitSnapshot([container(ether, 1, "L", "opened")], { kind: "open_shelving", setRange: null, internalVolumeL: null }));
+    expect(shelf.filter((f) => f.rule === "enclosure-lfl")).toEqual([]);
+  });
+
+  it("water has no LFL and no flash point: not flammable, no finding and no missing data", () => {
+    const findings = assessLocation(unitSnapshot([container(substance(CAS.water), 1, "L", "opened")]));
+    expect(findings).toEqual([]);
+  });
+});
+
+describe("enclosure-lfl: mixtures by Raoult's law and Le Chatelier's rule", () => {
+  it("1 mol benzene + 2 mol toluene at 25 °C in a closed cabinet: 41 723 + 24 930 ppm → 597 % LFL, LFL_mix 1.117 %", () => {
+    // Worked example (general-chemistry textbook, recalled from memory): x_benzene = 1/3, P°benzene = 95.1 mmHg,
+    // P°toluene = 28.4 mmHg at 25 °C → y_benzene = 0.626. With the Poling Antoine sets (95.129 and 28.420 mmHg):
+    // C_b = 1/3 × 12.683 kPa/101.325 × 10⁶ = 41 723 ppm, C_t = 2/3 × 3.7890/101.325 × 10⁶ = 24 930 ppm;
+    // LFL 1.2 % and 1.0 % (IEC 60079-20-1): 41 723/12 000 + 24 930/10 000 = 5.970.
+    // Le Chatelier over the vapor: y_b = 0.62598 → LFL_mix = 1/(0.62598/1.2 + 0.37402/1.0) = 1.1165 %.
+    const mixture = buildMixtureSnapshot({
+      id: 3,
+      name: "benzene–toluene waste",
+      fractionBasis: "mole",
+      components: [
+        { substance: substance(CAS.benzene), fraction: 1 / 3 },
+        { substance: substance(CAS.toluene), fraction: 2 / 3 },
+      ],
+    });
+    const findings = assessLocation(
+      unitSnapshot([container({ kind: "mixture", mixture }, 2.5, "L", "sealed", { containerId: 77 })], {
+        kind: "flammable_cabinet",
+        setRange: null,
+        internalVolumeL: 500,
+        worstCase: { inControl: designWorstCase(25), controlLost: null },
+      }),
+    );
+    const finding = byFingerprint(findings, "enclosure-lfl|unit:12|mixture:3|in_control");
+    expect(finding.mixtureId).toBe(3);
+    expect(finding.substanceId).toBeNull();
+    expect(relativeDeviation(finding.ratio as number, 5.96993)).toBeLessThan(1e-4);
+    const raoult = finding.trace.parts.find((part) => part.method === "Raoult's law (ideal solution)");
+    expect(relativeDeviation(raoult?.result.value as number, (1 / 3) * 12.6829 + (2 / 3) * 3.78906)).toBeLessThan(1e-4);
+    const chatelier = finding.trace.parts.find((part) => part.method === "Le Chatelier's mixing rule");
+    expect(relativeDeviation(chatelier?.result.value as number, 1.11648)).toBeLessThan(1e-4);
+    expect(finding.trace.warnings.some((w) => /ideal solution/.test(w))).toBe(true);
+    expect(finding.title).toBe("Benzene–toluene waste in FSR-1 could reach 597 % LFL at its worst case (25.0 °C)");
+  });
+
+  it("mass fractions become mole fractions (xᵢ = (wᵢ/Mᵢ)/Σ(wⱼ/Mⱼ)) and the mixture density follows ideal mixing", () => {
+    const mixture = buildMixtureSnapshot({
+      id: 4,
+      name: "by mass",
+      fractionBasis: "mass",
+      components: [
+        { substance: substance(CAS.benzene), fraction: 0.2977 },
+        { substance: substance(CAS.toluene), fraction: 0.7023 },
+      ],
+    });
+    // 1:2 by moles is 29.77 : 70.23 by mass (78.114 and 92.141 g/mol).
+    expect(mixture.components[0].moleFraction).toBeCloseTo(1 / 3, 4);
+    const rhoB = substance(CAS.benzene).liquidDensityKgPerM3 as number;
+    const rhoT = substance(CAS.toluene).liquidDensityKgPerM3 as number;
+    expect(mixture.liquidDensityKgPerM3).toBeCloseTo(1 / (0.2977 / rhoB + 0.7023 / rhoT), 6);
+    expect(mixture.flashPointC).toBe(-11);
+    expect(mixture.flashPointBasis).toBe("lowest-component");
+    expect(mixture.ghsCategory).toBe(2);
+    expect(mixture.nfpaClass).toBe("IB");
+  });
+});
+
+describe("enclosure-lfl: an unventilated room", () => {
+  it("a cold room without ventilation is bounded like a closed unit, at the room's worst case: ethanol at 8 °C, 87 % LFL", () => {
+    // 20 L of ethanol (15.8 kg) in a 30 m³ cold room at 8 °C: C_inv ≫ C_sat, so saturation-limited. Poling Antoine:
+    // log10(P/bar) = 5.33675 − 1648.22/(281.15 − 42.232) → 2.7420 kPa → 27 061 ppm; LFL 3.1 % → 0.8729.
+    const findings = assessLocation(
+      roomSnapshot([container(substance(CAS.ethanol), 20, "L", "sealed")], { kind: "cold_room", airChangesPerHour: 0, volumeM3: 30, worstCase: designWorstCase(8) }),
+    );
+    const finding = byFingerprint(findings, "enclosure-lfl|room:7|substance:" + substance(CAS.ethanol).id + "|room_worst_case");
+    expect(finding.storageUnitId).toBeNull();
+    expect(finding.severity).toBe("high");
+    expect(relativeDeviation(finding.ratio as number, 0.872945)).toBeLessThan(1e-5);
+    expect(finding.title).toBe("Ethanol in room 2.115 could reach 87.3 % LFL at the room's worst case (8.0 °C)");
+  });
+});
