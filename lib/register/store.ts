@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq, inArray, isNull, or, type SQL } from "drizzle-orm";
+import { and, eq, getTableColumns, inArray, isNull, or, type SQL } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { findingEvents, findings, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
 
@@ -70,14 +70,18 @@ export function reconcileFindings(
   const now = new Date(opts.nowMs ?? Date.now());
   const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
   const where = findingsScope(scope);
-  const existing = new Map<string, Finding>();
-  if (where) for (const row of tx.select().from(findings).where(where).all()) existing.set(row.fingerprint, row);
+  // Without the stored traces: they are large and only ever replaced, never compared.
+  const { trace: _trace, ...columns } = getTableColumns(findings);
+  const existing = new Map<string, Omit<Finding, "trace">>();
+  if (where) for (const row of tx.select(columns).from(findings).where(where).all()) existing.set(row.fingerprint, row);
   // A candidate may belong to a location outside the scope given (it should not, but its fingerprint is unique).
   const missing = candidates.filter((c) => !existing.has(c.fingerprint)).map((c) => c.fingerprint);
   for (let i = 0; i < missing.length; i += 500) {
-    for (const row of tx.select().from(findings).where(inArray(findings.fingerprint, missing.slice(i, i + 500))).all()) existing.set(row.fingerprint, row);
+    for (const row of tx.select(columns).from(findings).where(inArray(findings.fingerprint, missing.slice(i, i + 500))).all()) existing.set(row.fingerprint, row);
   }
   const seen = new Set<string>();
+  // Findings the assessment confirms unchanged: only their "last assessed" time moves (no trace rebuilt).
+  const unchangedIds: number[] = [];
   const event = (findingId: number, kind: (typeof findingEvents.$inferInsert)["kind"], fromStatus: FindingStatus | null, toStatus: FindingStatus | null, note: string, data?: Record<string, unknown>) =>
     tx.insert(findingEvents).values({ findingId, kind, fromStatus, toStatus, note, data: data ?? null, actorId: null, at: now }).run();
 
@@ -101,12 +105,11 @@ export function reconcileFindings(
       unit: candidate.unit,
       worstCaseTempC: candidate.worstCaseTempC,
       worstCaseSource: candidate.worstCaseSource,
-      trace: candidate.trace,
       lastEvaluatedAt: now,
     };
     const before = existing.get(candidate.fingerprint);
     if (!before) {
-      const row = tx.insert(findings).values({ ...values, fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now }).returning().get();
+      const row = tx.insert(findings).values({ ...values, trace: candidate.trace, fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now }).returning().get();
       event(row.id, "raised", null, "open", `Raised: ${candidate.title}`, { value: candidate.value, limit: candidate.limitValue, ratio: candidate.ratio, unit: candidate.unit, severity: candidate.severity });
       result.raised += 1;
       result.changes.push({ kind: "raised", finding: row });
@@ -119,7 +122,7 @@ export function reconcileFindings(
     if (returned || reviewPassed || stillHolds) {
       const row = tx
         .update(findings)
-        .set({ ...values, status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
+        .set({ ...values, trace: candidate.trace, status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
         .where(eq(findings.id, before.id))
         .returning()
         .get();
@@ -135,7 +138,20 @@ export function reconcileFindings(
     }
     const severityChanged = before.severity !== candidate.severity;
     const valueChanged = significantlyDifferent(before.value, candidate.value) || significantlyDifferent(before.ratio, candidate.ratio);
-    const row = tx.update(findings).set({ ...values, updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
+    const anyChange =
+      severityChanged ||
+      before.value !== candidate.value ||
+      before.ratio !== candidate.ratio ||
+      before.limitValue !== candidate.limitValue ||
+      before.worstCaseTempC !== candidate.worstCaseTempC ||
+      before.worstCaseSource !== candidate.worstCaseSource ||
+      before.title !== candidate.title;
+    if (!anyChange) {
+      unchangedIds.push(before.id);
+      result.unchanged += 1;
+      continue;
+    }
+    const row = tx.update(findings).set({ ...values, trace: candidate.trace, updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
     if (severityChanged || valueChanged) {
       const note = severityChanged
         ? `Severity ${before.severity} → ${candidate.severity}: ${candidate.title}`
@@ -150,6 +166,10 @@ export function reconcileFindings(
     } else {
       result.unchanged += 1;
     }
+  }
+
+  for (let i = 0; i < unchangedIds.length; i += 500) {
+    tx.update(findings).set({ lastEvaluatedAt: now }).where(inArray(findings.id, unchangedIds.slice(i, i + 500))).run();
   }
 
   for (const [fingerprint, before] of existing) {
@@ -175,7 +195,7 @@ export function reconcileFindings(
   return result;
 }
 
-function isInScope(finding: Finding, scope: { roomIds: number[]; storageUnitIds: number[] }): boolean {
+function isInScope(finding: Omit<Finding, "trace">, scope: { roomIds: number[]; storageUnitIds: number[] }): boolean {
   if (finding.storageUnitId != null) return scope.storageUnitIds.includes(finding.storageUnitId);
   return finding.roomId != null && scope.roomIds.includes(finding.roomId);
 }

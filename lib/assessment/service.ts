@@ -1,0 +1,256 @@
+import "server-only";
+import { and, eq, inArray, isNull, notInArray } from "drizzle-orm";
+import { getDb, type DbOrTx } from "@/db/client";
+import {
+  containers,
+  exposureLimits,
+  mixtureComponents,
+  mixtures,
+  quantityLimits,
+  rooms,
+  settings,
+  sites,
+  storageUnits,
+  substances,
+} from "@/db/schema";
+import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
+import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
+import { worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
+import {
+  assessLocation,
+  assessmentSettingsSchema,
+  buildMixtureSnapshot,
+  buildSubstanceSnapshot,
+  createAssessmentCache,
+  DEFAULT_ASSESSMENT_SETTINGS,
+  type AssessmentSettings,
+  type CandidateFinding,
+  type LocationSnapshot,
+  type MixtureSnapshot,
+  type QuantityLimitSetting,
+  type RoomInfo,
+  type StoredLiquid,
+  type SubstanceSnapshot,
+  type UnitInfo,
+} from "./rules";
+
+export const ASSESSMENT_SETTINGS_KEY = "assessmentSettings";
+
+/**
+ * The settings the rules apply: the safety officers' stored values over the defaults, and the
+ * organisation's quantity limits (the example limits until it has entered its own).
+ */
+export function loadAssessmentSettings(db: DbOrTx = getDb()): AssessmentSettings {
+  const row = db.select({ value: settings.value }).from(settings).where(eq(settings.key, ASSESSMENT_SETTINGS_KEY)).get();
+  const parsed = row ? assessmentSettingsSchema.safeParse(row.value) : null;
+  const base = parsed?.success ? parsed.data : DEFAULT_ASSESSMENT_SETTINGS;
+  const stored = db.select().from(quantityLimits).all();
+  if (stored.length === 0) return base;
+  const limits: QuantityLimitSetting[] = stored.map((limit) => ({
+    id: limit.id,
+    name: `${limit.liquidClasses.join("+")} per ${limit.scope.replace("_", " ")}`,
+    scope: limit.scope,
+    liquidClasses: limit.liquidClasses,
+    maxVolumeL: limit.maxVolumeL,
+    sprinkleredMaxVolumeL: limit.sprinkleredMaxVolumeL,
+    basis: limit.basis,
+  }));
+  return { ...base, quantities: { ...base.quantities, limits } };
+}
+
+/** Substances and mixtures built once per run and shared by every location (the engine caches on them). */
+export class SnapshotLibrary {
+  private readonly substances = new Map<number, SubstanceSnapshot>();
+  private readonly mixtures = new Map<number, MixtureSnapshot>();
+  constructor(private readonly db: DbOrTx) {}
+
+  load(substanceIds: number[], mixtureIds: number[]): void {
+    const wantedMixtures = mixtureIds.filter((id) => !this.mixtures.has(id));
+    const components = wantedMixtures.length ? this.db.select().from(mixtureComponents).where(inArray(mixtureComponents.mixtureId, wantedMixtures)).all() : [];
+    const wantedSubstances = [...new Set([...substanceIds, ...components.map((c) => c.substanceId)])].filter((id) => !this.substances.has(id));
+    for (let i = 0; i < wantedSubstances.length; i += 500) {
+      const ids = wantedSubstances.slice(i, i + 500);
+      const limits = this.db.select().from(exposureLimits).where(inArray(exposureLimits.substanceId, ids)).all();
+      for (const row of this.db.select().from(substances).where(inArray(substances.id, ids)).all()) {
+        this.substances.set(
+          row.id,
+          buildSubstanceSnapshot({
+            id: row.id,
+            name: row.name,
+            cas: row.cas,
+            physicalState: row.physicalState,
+            molarMassGPerMol: row.molarMassGPerMol,
+            correlations: row.correlations,
+            normalBoilingPointC: row.normalBoilingPointC,
+            enthalpyOfVaporizationKJPerMol: row.enthalpyOfVaporizationKJPerMol,
+            meltingPointC: row.meltingPointC,
+            flashPointC: row.flashPointC,
+            lflVolPercent: row.lflVolPercent,
+            uflVolPercent: row.uflVolPercent,
+            liquidDensityKgPerM3: row.liquidDensityKgPerM3,
+            exposureLimits: limits.filter((l) => l.substanceId === row.id).map((l) => ({ kind: l.kind, value: l.value, unit: l.unit, body: l.body, source: l.source })),
+            sources: row.sources,
+          }),
+        );
+      }
+    }
+    if (wantedMixtures.length) {
+      for (const row of this.db.select().from(mixtures).where(inArray(mixtures.id, wantedMixtures)).all()) {
+        this.mixtures.set(
+          row.id,
+          buildMixtureSnapshot({
+            id: row.id,
+            name: row.name,
+            fractionBasis: row.fractionBasis,
+            components: components.filter((c) => c.mixtureId === row.id && this.substances.has(c.substanceId)).map((c) => ({ substance: this.substances.get(c.substanceId)!, fraction: c.fraction })),
+          }),
+        );
+      }
+    }
+  }
+
+  content(substanceId: number | null, mixtureId: number | null): StoredLiquid["content"] | null {
+    if (substanceId != null) {
+      const substance = this.substances.get(substanceId);
+      return substance ? { kind: "substance", substance } : null;
+    }
+    const mixture = mixtureId != null ? this.mixtures.get(mixtureId) : undefined;
+    return mixture ? { kind: "mixture", mixture } : null;
+  }
+}
+
+export type ExtraContent = { storageUnitId: number; substanceId: number | null; mixtureId: number | null; amount: number; amountUnit: StoredLiquid["amountUnit"]; label: string };
+
+/** Everything the rules need about some rooms and their units, read in a handful of queries. */
+export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, library = new SnapshotLibrary(db), extra: ExtraContent[] = []): LocationSnapshot[] {
+  if (roomIds.length === 0) return [];
+  const roomRows = db
+    .select({ room: rooms, pressureKPa: sites.atmosphericPressureKPa })
+    .from(rooms)
+    .innerJoin(sites, eq(sites.id, rooms.siteId))
+    .where(and(inArray(rooms.id, roomIds), isNull(rooms.retiredAt), isNull(sites.retiredAt)))
+    .all();
+  const liveRoomIds = roomRows.map((r) => r.room.id);
+  if (liveRoomIds.length === 0) return [];
+  const unitRows = db.select().from(storageUnits).where(and(inArray(storageUnits.roomId, liveRoomIds), isNull(storageUnits.retiredAt))).all();
+  const unitIds = unitRows.map((u) => u.id);
+  const containerRows = unitIds.length
+    ? db
+        .select({ id: containers.id, label: containers.label, substanceId: containers.substanceId, mixtureId: containers.mixtureId, amount: containers.amount, amountUnit: containers.amountUnit, state: containers.state, storageUnitId: containers.storageUnitId })
+        .from(containers)
+        .where(and(inArray(containers.storageUnitId, unitIds), notInArray(containers.state, ["empty", "disposed"])))
+        .all()
+    : [];
+  // A container that is not stored yet (the what-if preview): id 0, sealed.
+  for (const e of extra) containerRows.push({ id: 0, label: e.label, substanceId: e.substanceId, mixtureId: e.mixtureId, amount: e.amount, amountUnit: e.amountUnit, state: "sealed", storageUnitId: e.storageUnitId });
+  library.load(
+    [...new Set(containerRows.flatMap((c) => (c.substanceId == null ? [] : [c.substanceId])))],
+    [...new Set(containerRows.flatMap((c) => (c.mixtureId == null ? [] : [c.mixtureId])))],
+  );
+  const byUnit = new Map<number, StoredLiquid[]>();
+  for (const c of containerRows) {
+    const content = library.content(c.substanceId, c.mixtureId);
+    if (!content) continue;
+    const list = byUnit.get(c.storageUnitId) ?? [];
+    list.push({ containerId: c.id, label: c.label, content, amount: c.amount, amountUnit: c.amountUnit, state: c.state });
+    byUnit.set(c.storageUnitId, list);
+  }
+  const snapshots: LocationSnapshot[] = [];
+  for (const { room: r, pressureKPa } of roomRows) {
+    const room: RoomInfo = {
+      id: r.id,
+      siteId: r.siteId,
+      code: r.code,
+      name: r.name,
+      kind: r.kind,
+      volumeM3: r.floorAreaM2 != null && r.heightM != null ? r.floorAreaM2 * r.heightM : null,
+      floorAreaM2: r.floorAreaM2,
+      airChangesPerHour: r.airChangesPerHour,
+      mixingFactor: r.mixingFactor,
+      sprinklered: r.sprinklered,
+      atmosphericPressureKPa: pressureKPa,
+      worstCase: worstCaseForRoom(r.id, nowMs, db),
+    };
+    const units = unitRows.filter((u) => u.roomId === r.id);
+    snapshots.push({ kind: "room", room, contents: units.flatMap((u) => byUnit.get(u.id) ?? []) });
+    for (const u of units) {
+      const worst = worstCaseForUnit(u.id, nowMs, db);
+      const unit: UnitInfo = {
+        id: u.id,
+        code: u.code,
+        name: u.name,
+        kind: u.kind,
+        internalVolumeL: u.internalVolumeL,
+        ventilated: u.ventilated,
+        ignitionSourceFree: u.ignitionSourceFree,
+        setRange: u.setMinC == null && u.setMaxC == null ? null : { minC: u.setMinC, maxC: u.setMaxC },
+        worstCase: { inControl: worst.controlled ? worst.inControl : null, controlLost: worst.controlLost },
+      };
+      snapshots.push({ kind: "unit", unit, room, contents: byUnit.get(u.id) ?? [] });
+    }
+  }
+  return snapshots;
+}
+
+/**
+ * The stored shape of a candidate. The trace stays lazy (built only when the register writes it:
+ * a new or changed finding), because building and serialising every trace costs more than the
+ * assessment itself.
+ */
+export function toStoredCandidate(c: CandidateFinding): FindingCandidate {
+  return {
+    fingerprint: c.fingerprint,
+    rule: c.rule,
+    severity: c.severity,
+    scenario: c.scenario,
+    title: c.title,
+    siteId: c.siteId,
+    roomId: c.roomId,
+    storageUnitId: c.storageUnitId,
+    containerId: c.containerId || null,
+    substanceId: c.substanceId,
+    mixtureId: c.mixtureId,
+    value: c.value,
+    limitValue: c.limitValue,
+    ratio: c.ratio,
+    unit: c.unit,
+    worstCaseTempC: c.worstCaseTempC,
+    worstCaseSource: c.worstCaseSource,
+    get trace() {
+      return c.trace;
+    },
+  };
+}
+
+export type ReassessResult = ReconcileResult & { rooms: number; units: number; alertsQueued: number };
+
+/**
+ * Re-assesses these rooms with all their units, in the caller's transaction, and brings their
+ * findings in line (raise, update, resolve, re-open), queueing the alerts for critical and high
+ * ones. A retired room or unit has no candidates, so its findings resolve themselves.
+ */
+export function reassessRooms(
+  tx: DbOrTx,
+  roomIds: number[],
+  opts: { reason?: string; nowMs?: number; notify?: boolean; settings?: AssessmentSettings; library?: SnapshotLibrary } = {},
+): ReassessResult {
+  const nowMs = opts.nowMs ?? Date.now();
+  const ids = [...new Set(roomIds)];
+  const empty: ReassessResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [], rooms: 0, units: 0, alertsQueued: 0 };
+  if (ids.length === 0) return empty;
+  const settingsNow = opts.settings ?? loadAssessmentSettings(tx);
+  const snapshots = buildSnapshots(tx, ids, nowMs, opts.library ?? new SnapshotLibrary(tx));
+  const cache = createAssessmentCache();
+  const candidates = snapshots.flatMap((snapshot) => assessLocation(snapshot, settingsNow, { cache }).map(toStoredCandidate));
+  const unitIds = tx.select({ id: storageUnits.id }).from(storageUnits).where(inArray(storageUnits.roomId, ids)).all().map((u) => u.id);
+  const result = reconcileFindings(tx, { roomIds: ids, storageUnitIds: unitIds }, candidates, { nowMs, reason: opts.reason });
+  const alertsQueued = opts.notify === false ? 0 : queueFindingAlerts(tx, result.changes);
+  return { ...result, rooms: snapshots.filter((s) => s.kind === "room").length, units: snapshots.filter((s) => s.kind === "unit").length, alertsQueued };
+}
+
+/** The rooms that hold these units. */
+export function roomsOfUnits(tx: DbOrTx, unitIds: (number | null | undefined)[]): number[] {
+  const ids = [...new Set(unitIds.filter((id): id is number => id != null))];
+  if (ids.length === 0) return [];
+  return [...new Set(tx.select({ roomId: storageUnits.roomId }).from(storageUnits).where(inArray(storageUnits.id, ids)).all().map((u) => u.roomId))];
+}
