@@ -479,7 +479,8 @@ export const readings = sqliteTable(
     at: integer("at", { mode: "timestamp_ms" }).notNull(),
     tempC: real("temp_c").notNull(),
   },
-  (t) => [primaryKey({ columns: [t.sensorId, t.at] }), index("readings_at_idx").on(t.at)],
+  // The highest reading of a sensor in a window (worst-case temperature) walks the second index from the top.
+  (t) => [primaryKey({ columns: [t.sensorId, t.at] }), index("readings_at_idx").on(t.at), index("readings_sensor_temp_idx").on(t.sensorId, t.tempC, t.at)],
 );
 export type Reading = typeof readings.$inferSelect;
 

@@ -15,7 +15,8 @@ import {
 } from "@/db/schema";
 import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
-import { worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
+import { roomWorstCandidates, worstCaseForUnit } from "@/lib/temperatures/queries";
+import { selectWorstCase } from "@/lib/temperatures/worst-case";
 import {
   assessLocation,
   assessmentSettingsSchema,
@@ -157,6 +158,7 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
   }
   const snapshots: LocationSnapshot[] = [];
   for (const { room: r, pressureKPa } of roomRows) {
+    const roomWorst = roomWorstCandidates(r.id, nowMs, db);
     const room: RoomInfo = {
       id: r.id,
       siteId: r.siteId,
@@ -169,12 +171,12 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
       mixingFactor: r.mixingFactor,
       sprinklered: r.sprinklered,
       atmosphericPressureKPa: pressureKPa,
-      worstCase: worstCaseForRoom(r.id, nowMs, db),
+      worstCase: selectWorstCase(roomWorst.candidates),
     };
     const units = unitRows.filter((u) => u.roomId === r.id);
     snapshots.push({ kind: "room", room, contents: units.flatMap((u) => byUnit.get(u.id) ?? []) });
     for (const u of units) {
-      const worst = worstCaseForUnit(u.id, nowMs, db);
+      const worst = worstCaseForUnit(u.id, nowMs, db, roomWorst);
       const unit: UnitInfo = {
         id: u.id,
         code: u.code,

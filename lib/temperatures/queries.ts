@@ -20,18 +20,26 @@ function sensorsAt(db: DbOrTx, where: SQL): SensorRef[] {
   return db.select({ id: sensors.id, externalId: sensors.externalId }).from(sensors).where(where).all();
 }
 
-/** The highest reading of these sensors since `sinceMs` (the later one on a tie). */
+/**
+ * The highest reading of these sensors since `sinceMs` (the later one on a tie). One query per
+ * sensor down the (sensor, temperature, time) index: it stops at the first reading inside the window.
+ */
 export function highestReading(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number): WorstCaseCandidate | null {
-  if (sensorRefs.length === 0) return null;
-  const row = db
-    .select({ sensorId: readings.sensorId, atMs: sql<number>`${readings.at}`, tempC: readings.tempC })
-    .from(readings)
-    .where(and(inArray(readings.sensorId, sensorRefs.map((s) => s.id)), gte(readings.at, new Date(sinceMs))))
-    .orderBy(desc(readings.tempC), desc(readings.at))
-    .limit(1)
-    .get();
-  if (!row) return null;
-  return { kind: "reading", tempC: row.tempC, atMs: row.atMs, sensor: sensorRefs.find((s) => s.id === row.sensorId)?.externalId ?? String(row.sensorId) };
+  let best: WorstCaseCandidate | null = null;
+  for (const ref of sensorRefs) {
+    const row = db
+      .select({ atMs: sql<number>`${readings.at}`, tempC: readings.tempC })
+      .from(readings)
+      .where(and(eq(readings.sensorId, ref.id), gte(readings.at, new Date(sinceMs))))
+      .orderBy(desc(readings.tempC), desc(readings.at))
+      .limit(1)
+      .get();
+    if (!row) continue;
+    if (!best || row.tempC > best.tempC || (row.tempC === best.tempC && best.kind === "reading" && row.atMs > best.atMs)) {
+      best = { kind: "reading", tempC: row.tempC, atMs: row.atMs, sensor: ref.externalId };
+    }
+  }
+  return best;
 }
 
 function openExcursionPeaks(db: DbOrTx, sensorRefs: SensorRef[]): WorstCaseCandidate[] {
@@ -65,6 +73,11 @@ export function worstCaseForRoom(roomId: number, nowMs = Date.now(), db: DbOrTx 
   return candidates ? selectWorstCase(candidates) : null;
 }
 
+/** A room's worst-case candidates, to hand to worstCaseForUnit for each of its units. */
+export function roomWorstCandidates(roomId: number, nowMs = Date.now(), db: DbOrTx = getDb()): { roomId: number; candidates: WorstCaseCandidate[] } {
+  return { roomId, candidates: roomCandidates(db, roomId, nowMs - lookBackDays(db) * 86_400_000) ?? [] };
+}
+
 export type LocationWorstCase = {
   /** The unit as it runs: for a controlled unit its own worst case; otherwise the room's and its own together. */
   inControl: WorstCase | null;
@@ -80,7 +93,7 @@ export type LocationWorstCase = {
  * case; a unit without one (shelving, a cabinet) sits at room temperature, so its room's candidates
  * count with its own.
  */
-export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx = getDb()): LocationWorstCase {
+export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx = getDb(), roomWorst?: { roomId: number; candidates: WorstCaseCandidate[] }): LocationWorstCase {
   const unit = db.select({ roomId: storageUnits.roomId, setMaxC: storageUnits.setMaxC }).from(storageUnits).where(eq(storageUnits.id, unitId)).get();
   if (!unit) return { inControl: null, controlLost: null, controlled: false };
   const sinceMs = nowMs - lookBackDays(db) * 86_400_000;
@@ -91,7 +104,7 @@ export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx 
   const highest = highestReading(db, refs, sinceMs);
   if (highest) own.push(highest);
   own.push(...openExcursionPeaks(db, refs));
-  const room = roomCandidates(db, unit.roomId, sinceMs) ?? [];
+  const room = roomWorst && roomWorst.roomId === unit.roomId ? roomWorst.candidates : (roomCandidates(db, unit.roomId, sinceMs) ?? []);
   if (!controlled) return { inControl: selectWorstCase([...own, ...room]), controlLost: null, controlled };
   const inControl = selectWorstCase(own);
   return { inControl, controlLost: controlLostWorstCase(inControl, selectWorstCase(room)), controlled };

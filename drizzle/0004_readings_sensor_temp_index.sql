@@ -1,0 +1,1 @@
+CREATE INDEX `readings_sensor_temp_idx` ON `readings` (`sensor_id`,`temp_c`,`at`);
