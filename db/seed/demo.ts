@@ -10,6 +10,7 @@ import { rooms, sites, storageUnits, users, type NewRoom, type NewStorageUnit, t
 import { recordAudit } from "@/lib/audit/record";
 import { seedDemoInventory } from "./demo-inventory";
 import { seedDemoTemperatures } from "./demo-readings";
+import { reassessRooms } from "@/lib/assessment/service";
 import { seedSubstanceLibrary } from "./substances";
 
 export const DEMO_PASSWORD = "headroom-demo";
@@ -220,12 +221,14 @@ export async function seedDemo(db: Db, options: { bcryptCost?: number; nowMs?: n
     }
     const containerCount = seedDemoInventory(tx, { researcherId: people.researcher.id, safetyId: people.safety_officer.id, facilitiesId: people.facilities.id }, nowMs);
     const temperatures = seedDemoTemperatures(tx, db.$client, { adminId: people.admin.id, facilities: people.facilities }, nowMs);
+    // The first assessment of every location: the register starts where the demo's data puts it.
+    const register = reassessRooms(tx, tx.select({ id: rooms.id }).from(rooms).all().map((r) => r.id), { nowMs, notify: false, reason: "the demo seed" });
     recordAudit(tx, { system: "demo seed" }, {
       action: "seed",
       entityType: "installation",
       summary:
         `Loaded the demo organisation (invented data): 2 sites, their rooms and units, ${containerCount} containers, ` +
-        `${temperatures.sensors} sensors with ${temperatures.readings} readings and ${temperatures.excursions} excursions, and the demo ingest key`,
+        `${temperatures.sensors} sensors with ${temperatures.readings} readings and ${temperatures.excursions} excursions, the demo ingest key, and ${register.raised} findings from the first assessment`,
     });
   });
   return true;

@@ -8,6 +8,7 @@ import {
   mixtures,
   quantityLimits,
   rooms,
+  sensors,
   settings,
   sites,
   storageUnits,
@@ -255,4 +256,11 @@ export function roomsOfUnits(tx: DbOrTx, unitIds: (number | null | undefined)[])
   const ids = [...new Set(unitIds.filter((id): id is number => id != null))];
   if (ids.length === 0) return [];
   return [...new Set(tx.select({ roomId: storageUnits.roomId }).from(storageUnits).where(inArray(storageUnits.id, ids)).all().map((u) => u.roomId))];
+}
+
+/** The rooms where these sensors hang (a unit's sensor counts for the unit's room). */
+export function roomsOfSensors(tx: DbOrTx, sensorIds: number[]): number[] {
+  if (sensorIds.length === 0) return [];
+  const rows = tx.select({ roomId: sensors.roomId, storageUnitId: sensors.storageUnitId }).from(sensors).where(inArray(sensors.id, [...new Set(sensorIds)])).all();
+  return [...new Set([...rows.flatMap((r) => (r.roomId == null ? [] : [r.roomId])), ...roomsOfUnits(tx, rows.map((r) => r.storageUnitId))])];
 }

@@ -4,6 +4,7 @@
  * checks the file again from scratch; it never trusts an earlier preview.
  */
 import "server-only";
+import { reassessRooms, roomsOfUnits } from "@/lib/assessment/service";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { fieldErrorsFrom } from "@/lib/auth/guard";
@@ -98,7 +99,10 @@ export async function commitContainerImport(actor: SessionUser, bytes: Uint8Arra
       const plan = planContainerImport(tx, validation.rows);
       const issues = allIssues(validation.issues, plan.issues);
       if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
-      return writeContainerPlan(tx, db.$client, actor, plan, fileName);
+      const counts = writeContainerPlan(tx, db.$client, actor, plan, fileName);
+      const unitIds = [...plan.creates.map((row) => row.storageUnitId), ...plan.updates.flatMap((u) => [u.fromStorageUnitId, u.set.storageUnitId])];
+      reassessRooms(tx, roomsOfUnits(tx, unitIds), { reason: `import of ${fileName}` });
+      return counts;
     },
     { behavior: "immediate" },
   );

@@ -1,4 +1,5 @@
 import "server-only";
+import { reassessRooms, roomsOfUnits } from "@/lib/assessment/service";
 import { and, eq } from "drizzle-orm";
 import { getDb, type DbOrTx } from "@/db/client";
 import {
@@ -107,6 +108,7 @@ export function createContainer(actor: SessionUser, scope: Scope, input: Contain
         summary: `Logged container ${container.label} (${container.amount} ${container.amountUnit}) in ${unitLabel(tx, container.storageUnitId)}`,
         after: auditSnapshot(container),
       });
+      reassessRooms(tx, roomsOfUnits(tx, [container.storageUnitId]), { reason: `container ${container.label} logged` });
       return container;
     });
   } catch (error) {
@@ -151,6 +153,7 @@ export function updateContainer(actor: SessionUser, scope: Scope, id: number, in
       if (diff.keys.length) {
         recordAudit(tx, actor, { action: "update", entityType: "container", entityId: id, summary: `Updated container ${after.label} (${diff.keys.join(", ")})`, before: diff.before, after: diff.after });
       }
+      reassessRooms(tx, roomsOfUnits(tx, [before.storageUnitId, after.storageUnitId]), { reason: `container ${after.label} changed` });
       return after;
     });
   } catch (error) {
@@ -179,6 +182,7 @@ export function moveContainer(actor: SessionUser, scope: Scope, id: number, toSt
       before: { storageUnitId: before.storageUnitId, location: from },
       after: { storageUnitId: toStorageUnitId, location: to },
     });
+    reassessRooms(tx, roomsOfUnits(tx, [before.storageUnitId, toStorageUnitId]), { reason: `container ${after.label} moved from ${from} to ${to}` });
     return after;
   });
 }
@@ -207,6 +211,7 @@ export function setContainerState(actor: SessionUser, scope: Scope, id: number, 
       before: { state: before.state, amount: before.amount },
       after: { state, amount },
     });
+    reassessRooms(tx, roomsOfUnits(tx, [after.storageUnitId]), { reason: `container ${after.label} marked ${state.replace("_", " ")}` });
     return after;
   });
 }

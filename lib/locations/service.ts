@@ -1,4 +1,5 @@
 import "server-only";
+import { reassessRooms } from "@/lib/assessment/service";
 import { and, count, eq, inArray, isNull, ne } from "drizzle-orm";
 import { getDb, type DbOrTx } from "@/db/client";
 import { containers, rooms, sites, storageUnits, users, type Room, type Site, type StorageUnit } from "@/db/schema";
@@ -109,6 +110,7 @@ export function updateRoom(actor: SessionUser, id: number, input: Partial<RoomIn
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
         recordAudit(tx, actor, { action: "update", entityType: "room", entityId: id, summary: `Updated room ${after.code} (${diff.keys.join(", ")})`, before: diff.before, after: diff.after });
+        reassessRooms(tx, [id], { reason: `room ${after.code} changed (${diff.keys.join(", ")})` });
       }
       return after;
     });
@@ -147,6 +149,7 @@ export function retireRoom(actor: SessionUser, id: number): Room {
       before: { retiredAt: null },
       after: { retiredAt: now.toISOString() },
     });
+    reassessRooms(tx, [id], { reason: `room ${room.code} retired` });
     return after;
   });
 }
@@ -176,6 +179,7 @@ export function createStorageUnit(actor: SessionUser, input: StorageUnitInput): 
         summary: `Created storage unit ${unit.code} ${unit.name} in room ${room.code}`,
         after: auditSnapshot(unit),
       });
+      reassessRooms(tx, [room.id], { reason: `storage unit ${unit.code} added` });
       return unit;
     });
   } catch (error) {
@@ -198,6 +202,7 @@ export function updateStorageUnit(actor: SessionUser, id: number, input: Partial
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
         recordAudit(tx, actor, { action: "update", entityType: "storage_unit", entityId: id, summary: `Updated storage unit ${after.code} (${diff.keys.join(", ")})`, before: diff.before, after: diff.after });
+        reassessRooms(tx, [before.roomId, after.roomId], { reason: `storage unit ${after.code} changed (${diff.keys.join(", ")})` });
       }
       return after;
     });
@@ -215,6 +220,7 @@ export function retireStorageUnit(actor: SessionUser, id: number): StorageUnit {
     const now = new Date();
     const after = tx.update(storageUnits).set({ retiredAt: now, updatedAt: now }).where(eq(storageUnits.id, id)).returning().get();
     recordAudit(tx, actor, { action: "retire", entityType: "storage_unit", entityId: id, summary: `Retired storage unit ${unit.code} ${unit.name}`, before: { retiredAt: null }, after: { retiredAt: now.toISOString() } });
+    reassessRooms(tx, [unit.roomId], { reason: `storage unit ${unit.code} retired` });
     return after;
   });
 }

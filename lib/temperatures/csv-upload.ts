@@ -46,6 +46,7 @@ import {
   type DetectedLayout,
   type TextEncoding,
 } from "./csv";
+import { reassessRooms, roomsOfSensors } from "@/lib/assessment/service";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
 
 export const MAX_CSV_UPLOAD_BYTES = 100 * 1024 * 1024;
@@ -537,6 +538,7 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
         tx.update(sensors).set({ csvMapping: remembered, timeZone: mapping.timeZone, updatedAt: new Date() }).where(eq(sensors.id, sensorId)).run();
         // The staged minimum is at or before the earliest newly stored reading: detection from there finds the same.
         const excursions = accepted > 0 && scan.firstAtMs !== null ? refreshExcursions(tx, [sensorId], { sinceMs: scan.firstAtMs, notify: true }) : { opened: 0, closed: 0, updated: 0 };
+        if (accepted > 0) reassessRooms(tx, roomsOfSensors(tx, [sensorId]), { reason: "uploaded temperature readings" });
         recordAudit(tx, actor, {
           action: "upload_readings",
           entityType: "sensor",

@@ -4,6 +4,7 @@ import { z } from "zod";
 import { getDb } from "@/db/client";
 import { readings, sensors } from "@/db/schema";
 import { DomainError } from "@/lib/errors";
+import { reassessRooms, roomsOfSensors } from "@/lib/assessment/service";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
 
 /** ISO-8601 with an explicit offset (Z or ±hh:mm): a logger's local time without one is ambiguous. */
@@ -80,6 +81,8 @@ export function ingestReadings(rawRows: unknown[]): { accepted: number; duplicat
     // Detection, stored excursions and their alert e-mails land with the readings or not at all.
     const sinceMs = parsed.reduce((min, p) => Math.min(min, p.atMs), Number.POSITIVE_INFINITY);
     const excursionChanges = accepted > 0 ? refreshExcursions(tx, sensorIds, { sinceMs, notify: true }) : { opened: 0, closed: 0, updated: 0 };
+    // New readings can raise a location's worst case: its register follows in the same transaction.
+    if (accepted > 0) reassessRooms(tx, roomsOfSensors(tx, sensorIds), { reason: "new temperature readings" });
     return { accepted, duplicates: parsed.length - accepted, sensorIds, excursions: excursionChanges };
   });
 }
