@@ -66,6 +66,9 @@ const ROUTES: Entry[] = [
   { file: "api-keys/[id]/route.ts", method: "DELETE", path: "/api/v1/api-keys/999", action: "apiKeys.manage", params: { id: "999" } },
   { file: "sensors/route.ts", method: "GET", path: "/api/v1/sensors", action: "temperatures.read" },
   { file: "sensors/route.ts", method: "POST", path: "/api/v1/sensors", action: "sensors.write", body: {} },
+  { file: "sensors/[id]/route.ts", method: "GET", path: "/api/v1/sensors/999", action: "temperatures.read", params: { id: "999" } },
+  { file: "sensors/[id]/route.ts", method: "PATCH", path: "/api/v1/sensors/999", action: "sensors.write", params: { id: "999" }, body: {} },
+  { file: "sensors/[id]/readings/route.ts", method: "GET", path: "/api/v1/sensors/999/readings", action: "temperatures.read", params: { id: "999" } },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.
