@@ -4,6 +4,7 @@ import { z } from "zod";
 import { getDb } from "@/db/client";
 import { readings, sensors } from "@/db/schema";
 import { DomainError } from "@/lib/errors";
+import { refreshExcursions, type RefreshResult } from "./excursion-store";
 
 /** ISO-8601 with an explicit offset (Z or ±hh:mm): a logger's local time without one is ambiguous. */
 const ISO_WITH_OFFSET = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:\d{2})$/;
@@ -39,7 +40,7 @@ export class BatchRejectedError extends DomainError {
  * known sensor) and any problem rejects the whole batch with every row's error. A reading already
  * stored (same sensor and instant) counts as a duplicate and is stored once.
  */
-export function ingestReadings(rawRows: unknown[]): { accepted: number; duplicates: number; sensorIds: number[] } {
+export function ingestReadings(rawRows: unknown[]): { accepted: number; duplicates: number; sensorIds: number[]; excursions: RefreshResult } {
   const errors: RowError[] = [];
   const parsed: { index: number; sensor: string; atMs: number; tempC: number }[] = [];
   rawRows.forEach((raw, index) => {
@@ -75,6 +76,10 @@ export function ingestReadings(rawRows: unknown[]): { accepted: number; duplicat
         .run();
       accepted += result.changes;
     }
-    return { accepted, duplicates: parsed.length - accepted, sensorIds: [...new Set(parsed.map((p) => known.get(p.sensor)!.id))] };
+    const sensorIds = [...new Set(parsed.map((p) => known.get(p.sensor)!.id))];
+    // Detection, stored excursions and their alert e-mails land with the readings or not at all.
+    const sinceMs = parsed.reduce((min, p) => Math.min(min, p.atMs), Number.POSITIVE_INFINITY);
+    const excursionChanges = accepted > 0 ? refreshExcursions(tx, sensorIds, { sinceMs, notify: true }) : { opened: 0, closed: 0, updated: 0 };
+    return { accepted, duplicates: parsed.length - accepted, sensorIds, excursions: excursionChanges };
   });
 }

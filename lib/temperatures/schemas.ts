@@ -109,3 +109,16 @@ export const seriesQuerySchema = z
     }
   });
 export type SeriesQuery = z.output<typeof seriesQuerySchema>;
+export const excursionAcknowledgeSchema = z.object({
+  comment: requiredText("Comment", 2000),
+});
+export type ExcursionAcknowledgeInput = z.output<typeof excursionAcknowledgeSchema>;
+
+export const excursionListQuerySchema = z.object({
+  sensorId: optionalId("sensor"),
+  roomId: optionalId("room"),
+  inRoomId: optionalId("room"),
+  storageUnitId: optionalId("storage unit"),
+  open: z.enum(["true", "false"], { error: "open is true or false." }).optional(),
+  limit: z.coerce.number({ error: "limit is a whole number from 1 to 1000." }).int("limit is a whole number from 1 to 1000.").min(1, "limit is a whole number from 1 to 1000.").max(1000, "limit is a whole number from 1 to 1000.").optional(),
+});

@@ -5,7 +5,7 @@
  * worst case, as if it had failed and warmed up to the room. Pure.
  */
 export type WorstCaseCandidate =
-  | { kind: "design"; tempC: number }
+  | { kind: "design"; tempC: number; /** What the design value is, e.g. "upper end of the set range"; default "design maximum". */ label?: string }
   | { kind: "reading"; tempC: number; atMs: number; sensor: string }
   | { kind: "excursion"; tempC: number; atMs: number; sensor: string };
 
@@ -19,7 +19,7 @@ function isoMinute(atMs: number): string {
 
 export function describeCandidate(candidate: WorstCaseCandidate): string {
   const tempText = `${candidate.tempC.toFixed(1).replace("-", "−")} °C`;
-  if (candidate.kind === "design") return `${tempText}, design maximum`;
+  if (candidate.kind === "design") return `${tempText}, ${candidate.label ?? "design maximum"}`;
   if (candidate.kind === "reading") return `${tempText}, reading of ${isoMinute(candidate.atMs)} UTC from sensor ${candidate.sensor}`;
   return `${tempText}, peak of the open excursion on sensor ${candidate.sensor} (${isoMinute(candidate.atMs)} UTC)`;
 }

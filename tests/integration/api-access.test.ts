@@ -69,6 +69,8 @@ const ROUTES: Entry[] = [
   { file: "sensors/[id]/route.ts", method: "GET", path: "/api/v1/sensors/999", action: "temperatures.read", params: { id: "999" } },
   { file: "sensors/[id]/route.ts", method: "PATCH", path: "/api/v1/sensors/999", action: "sensors.write", params: { id: "999" }, body: {} },
   { file: "sensors/[id]/readings/route.ts", method: "GET", path: "/api/v1/sensors/999/readings", action: "temperatures.read", params: { id: "999" } },
+  { file: "excursions/route.ts", method: "GET", path: "/api/v1/excursions", action: "temperatures.read" },
+  { file: "excursions/[id]/acknowledge/route.ts", method: "POST", path: "/api/v1/excursions/999/acknowledge", action: "excursions.acknowledge", params: { id: "999" }, body: {} },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.

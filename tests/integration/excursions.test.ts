@@ -1,0 +1,183 @@
+/**
+ * Stored excursions: detection after every ingest, closing, merging, acknowledgement, the alert
+ * e-mails (who gets them, preferences, idempotency) and the worst-case temperature queries.
+ */
+import { beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { auditEvents, emailMessages, excursions, rooms, sensors, sites, storageUnits, type User } from "@/db/schema";
+import * as listRoute from "@/app/api/v1/excursions/route";
+import * as acknowledgeRoute from "@/app/api/v1/excursions/[id]/acknowledge/route";
+import { ingestReadings } from "@/lib/temperatures/ingest";
+import { worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
+import { call, makeUser, sessionCookieFor } from "./helpers/world";
+
+const MIN = 60_000;
+const T0 = Date.parse("2026-03-06T17:00:00Z"); // a Friday evening
+
+let owner: User, contact: User, officer: User, digestOfficer: User, quietOfficer: User, researcher: User;
+let roomId: number, unitId: number, roomSensorId: number;
+
+beforeAll(() => {
+  const db = getDb();
+  owner = makeUser("researcher");
+  researcher = makeUser("researcher");
+  contact = makeUser("facilities");
+  officer = makeUser("safety_officer");
+  digestOfficer = makeUser("safety_officer", { alertExcursions: "digest" });
+  quietOfficer = makeUser("safety_officer", { alertExcursions: "off" });
+  makeUser("safety_officer", { active: false });
+  const site = db.insert(sites).values({ name: "Test campus" }).returning().get();
+  const room = db.insert(rooms).values({ siteId: site.id, code: "T-1", name: "Test lab", designMaxTempC: 27, facilitiesContactId: contact.id }).returning().get();
+  roomId = room.id;
+  unitId = db
+    .insert(storageUnits)
+    .values({ roomId, code: "FR-T", name: "Test refrigerator", kind: "flammable_storage_refrigerator", setMinC: 2, setMaxC: 8, excursionThresholdC: 8, excursionMinDurationMin: 30, ownerId: owner.id })
+    .returning()
+    .get().id;
+  db.insert(sensors).values({ externalId: "T-FR", name: "Fridge logger", storageUnitId: unitId }).run();
+  roomSensorId = db.insert(sensors).values({ externalId: "T-AMB", name: "Room logger", roomId }).returning().get().id;
+});
+
+const at = (minutes: number) => new Date(T0 + minutes * MIN).toISOString();
+/** Readings every 5 minutes from `fromMin` with the given temperatures. */
+const series = (sensor: string, fromMin: number, temps: number[]) => temps.map((tempC, i) => ({ sensor, at: at(fromMin + 5 * i), tempC }));
+const alertsTo = (user: User) => getDb().select().from(emailMessages).where(eq(emailMessages.recipientUserId, user.id)).all();
+const unitExcursions = () => getDb().select().from(excursions).where(eq(excursions.storageUnitId, unitId)).orderBy(excursions.startAt).all();
+
+describe("excursions stored from ingested readings", () => {
+  it("ignores a door-opening spike shorter than the minimum duration and a reading exactly at the threshold", () => {
+    // 5 °C, a 10-minute spike to 11 °C (shorter than 30 min), then 8.0 °C for 40 min: at, not above.
+    ingestReadings(series("T-FR", 0, [5, 5, 11, 11, 5, 8, 8, 8, 8, 8, 8, 8, 8, 5]));
+    expect(unitExcursions()).toHaveLength(0);
+    expect(alertsTo(officer)).toHaveLength(0);
+  });
+
+  it("opens an excursion once it has lasted the minimum duration and tells the people responsible who chose 'as it happens'", () => {
+    // Fails at 120 min: 9, 10.5, 12, 13.4, 14.2, 14.8, 15.1 °C every 5 min → 30 min above by the 7th reading.
+    const result = ingestReadings(series("T-FR", 120, [9, 10.5, 12, 13.4, 14.2, 14.8, 15.1]));
+    expect(result.excursions).toEqual({ opened: 1, closed: 0, updated: 0 });
+    const [open] = unitExcursions();
+    expect(open).toMatchObject({ endAt: null, peakTempC: 15.1, thresholdC: 8, roomId: null });
+    expect(open.startAt.toISOString()).toBe(at(120));
+    for (const user of [owner, contact, officer]) {
+      const [message] = alertsTo(user);
+      expect(message.kind).toBe("excursion_started");
+      expect(message.subject).toBe("Excursion started: FR-T Test refrigerator, room T-1 Test lab, Test campus above 8.0 °C");
+      expect(message.text).toContain("Highest reading so far: 15.1 °C at 2026-03-06 19:30 UTC.");
+      expect(message.text).toContain(`/locations/units/${unitId}`);
+    }
+    expect(alertsTo(digestOfficer)).toHaveLength(0);
+    expect(alertsTo(quietOfficer)).toHaveLength(0);
+    expect(alertsTo(researcher)).toHaveLength(0);
+  });
+
+  it("keeps it open and raises the peak while it lasts, then closes it with an 'ended' message", () => {
+    ingestReadings(series("T-FR", 155, [16.2, 17.0]));
+    expect(unitExcursions()[0]).toMatchObject({ endAt: null, peakTempC: 17 });
+    const result = ingestReadings(series("T-FR", 165, [12, 8.5, 7.9, 5]));
+    expect(result.excursions.closed).toBe(1);
+    const [closed] = unitExcursions();
+    expect(closed.endAt!.toISOString()).toBe(at(175)); // the first reading back at or below 8 °C
+    expect(closed.peakAt.toISOString()).toBe(at(160));
+    const ended = alertsTo(officer).find((m) => m.kind === "excursion_ended")!;
+    expect(ended.text).toContain("lasted from 2026-03-06 19:00 UTC to 2026-03-06 19:55 UTC (55 min)");
+    expect(ended.text).toContain("Peak: 17.0 °C at 2026-03-06 19:40 UTC.");
+  });
+
+  it("stores a batch sent twice once and queues no second message", () => {
+    const before = getDb().select().from(emailMessages).all().length;
+    const again = ingestReadings(series("T-FR", 165, [12, 8.5, 7.9, 5]));
+    expect(again).toMatchObject({ accepted: 0, duplicates: 4 });
+    expect(getDb().select().from(emailMessages).all().length).toBe(before);
+    expect(unitExcursions()).toHaveLength(1);
+  });
+
+  it("moves an excursion's start earlier when back-filled readings show it began sooner, keeping its acknowledgement and sending no second 'started'", async () => {
+    // A second failure 400–435 min above (back at 5 °C at 440), with readings 295–395 arriving later.
+    ingestReadings(series("T-FR", 290, [5]));
+    ingestReadings(series("T-FR", 400, [9, 9.5, 10, 10, 9.8, 9.1, 9, 9.2, 5]));
+    expect(unitExcursions()).toHaveLength(2);
+    const second = unitExcursions()[1];
+    const cookie = await sessionCookieFor(contact);
+    const ack = await call(acknowledgeRoute.POST, { method: "POST", params: { id: String(second.id) }, body: { comment: "Door found ajar; closed it." }, cookie });
+    expect(ack.status).toBe(200);
+    const startedBefore = alertsTo(officer).filter((m) => m.kind !== "excursion_ended").length;
+    ingestReadings(series("T-FR", 295, Array.from({ length: 21 }, () => 9.9)));
+    const [, moved] = unitExcursions();
+    expect(moved.id).toBe(second.id);
+    expect(moved.startAt.toISOString()).toBe(at(295));
+    expect(moved.endAt!.toISOString()).toBe(at(440));
+    expect(moved.peakTempC).toBe(10);
+    expect(moved.acknowledgeComment).toBe("Door found ajar; closed it.");
+    expect(alertsTo(officer).filter((m) => m.kind !== "excursion_ended")).toHaveLength(startedBefore);
+  });
+
+  it("never opens an excursion where no threshold is set", () => {
+    // Room threshold: none on T-1, so the room sensor never has excursions.
+    ingestReadings(series("T-AMB", 0, [31, 32, 33]));
+    expect(getDb().select().from(excursions).where(eq(excursions.sensorId, roomSensorId)).all()).toHaveLength(0);
+  });
+});
+
+describe("GET /api/v1/excursions and POST …/acknowledge", () => {
+  it("lists a unit's excursions with duration and who acknowledged", async () => {
+    const cookie = await sessionCookieFor(makeUser("auditor"));
+    const list = await call(listRoute.GET, { path: `/api/v1/excursions?storageUnitId=${unitId}`, cookie });
+    expect(list.status).toBe(200);
+    expect(list.body.data).toHaveLength(2);
+    const [latest, first] = list.body.data;
+    expect(latest).toMatchObject({ sensorExternalId: "T-FR", unitCode: "FR-T", roomCode: "T-1", peakTempC: 10, durationMin: 145, acknowledgedByName: contact.name });
+    expect(first).toMatchObject({ peakTempC: 17, durationMin: 55, acknowledgedAt: null });
+    const bad = await call(listRoute.GET, { path: "/api/v1/excursions?limit=0", cookie });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.limit[0]).toMatch(/1 to 1000/);
+  });
+
+  it("refuses researchers and auditors, needs a comment, and acknowledges once", async () => {
+    const [first] = unitExcursions();
+    const params = { id: String(first.id) };
+    for (const user of [researcher, makeUser("auditor")]) {
+      const refused = await call(acknowledgeRoute.POST, { method: "POST", params, body: { comment: "x" }, cookie: await sessionCookieFor(user) });
+      expect(refused.status).toBe(403);
+    }
+    const cookie = await sessionCookieFor(officer);
+    const empty = await call(acknowledgeRoute.POST, { method: "POST", params, body: { comment: "  " }, cookie });
+    expect(empty.status).toBe(400);
+    expect(empty.body.error.fields.comment[0]).toBe("Comment is required.");
+    expect(unitExcursions()[0].acknowledgedAt).toBeNull();
+    const missing = await call(acknowledgeRoute.POST, { method: "POST", params: { id: "99999" }, body: { comment: "x" }, cookie });
+    expect(missing.status).toBe(404);
+    const done = await call(acknowledgeRoute.POST, { method: "POST", params, body: { comment: "Compressor relay replaced; contents checked." }, cookie });
+    expect(done.status).toBe(200);
+    expect(done.body.data.acknowledgeComment).toBe("Compressor relay replaced; contents checked.");
+    const twice = await call(acknowledgeRoute.POST, { method: "POST", params, body: { comment: "again" }, cookie });
+    expect(twice.status).toBe(409);
+    expect(twice.body.error.message).toMatch(`already acknowledged by ${officer.name}`);
+    const audit = getDb().select().from(auditEvents).where(eq(auditEvents.entityType, "excursion")).all();
+    expect(audit.map((a) => a.summary)).toContain("Acknowledged the excursion on sensor T-FR from 2026-03-06 19:00 UTC: Compressor relay replaced; contents checked.");
+  });
+});
+
+describe("worst-case temperatures", () => {
+  const now = T0 + 2 * 86_400_000;
+  it("takes a room's highest reading over its design maximum, with the source", () => {
+    const room = worstCaseForRoom(roomId, now)!;
+    expect(room.tempC).toBe(33);
+    expect(room.description).toBe("33.0 °C, reading of 2026-03-06 17:10 UTC from sensor T-AMB");
+  });
+
+  it("assesses a refrigerator in control at its highest reading and control lost at the room's worst case", () => {
+    const unit = worstCaseForUnit(unitId, now);
+    expect(unit.controlled).toBe(true);
+    expect(unit.inControl!.description).toBe("17.0 °C, reading of 2026-03-06 19:40 UTC from sensor T-FR");
+    expect(unit.controlLost!.tempC).toBe(33);
+    expect(unit.controlLost!.description).toMatch(/room's worst case, as if the unit had failed/);
+  });
+
+  it("drops readings older than the look-back window and falls back to the upper end of the set range", () => {
+    const unit = worstCaseForUnit(unitId, T0 + 400 * 86_400_000);
+    expect(unit.inControl!.description).toBe("8.0 °C, upper end of the set range");
+    expect(worstCaseForRoom(roomId, T0 + 400 * 86_400_000)!.description).toBe("27.0 °C, design maximum");
+  });
+});
