@@ -122,3 +122,8 @@ export const excursionListQuerySchema = z.object({
   open: z.enum(["true", "false"], { error: "open is true or false." }).optional(),
   limit: z.coerce.number({ error: "limit is a whole number from 1 to 1000." }).int("limit is a whole number from 1 to 1000.").min(1, "limit is a whole number from 1 to 1000.").max(1000, "limit is a whole number from 1 to 1000.").optional(),
 });
+
+/** The acknowledge form: the excursion and the comment. */
+export const excursionAcknowledgeFormSchema = excursionAcknowledgeSchema.extend({
+  excursionId: z.coerce.number({ error: "Choose an excursion." }).int("Choose an excursion.").positive("Choose an excursion."),
+});

@@ -134,13 +134,17 @@ export function readingExtent(sensorId: number): { firstAtMs: number; lastAtMs: 
  * A sensor's trace for a chart window [fromMs, toMs]: every reading when there are at most
  * MAX_SERIES_POINTS, otherwise one point per clock-aligned bucket (GROUP BY at / bucketMs on the
  * (sensor_id, at) primary key) with the bucket's mean, lowest and highest reading. Without a
- * window: the DEFAULT_WINDOW_MS up to the latest reading (or up to now when there is none).
+ * window: up to the latest reading (now when there is none), back to the first reading but at
+ * most DEFAULT_WINDOW_MS and at least a day.
  */
 export function readingSeries(sensorId: number, window: { fromMs?: number; toMs?: number } = {}, nowMs = Date.now()): ReadingSeries {
   const { sensor, location } = sensorWithLocation(sensorId);
   const extent = readingExtent(sensorId);
   const toMs = window.toMs ?? (window.fromMs != null ? window.fromMs + DEFAULT_WINDOW_MS : (extent?.lastAtMs ?? nowMs));
-  const fromMs = window.fromMs ?? toMs - DEFAULT_WINDOW_MS;
+  // Without a start, the chart opens on the data: back to the first reading, at most a year, at least a day.
+  const fromMs =
+    window.fromMs ??
+    (extent && window.toMs == null ? Math.min(Math.max(extent.firstAtMs, toMs - DEFAULT_WINDOW_MS), toMs - DAY_MS) : toMs - DEFAULT_WINDOW_MS);
   const client = getDb().$client;
 
   // SQLite fills bare columns from the row that holds the single min() or max() (documented

@@ -133,10 +133,14 @@ describe("GET /api/v1/sensors/{id}/readings", () => {
     expect(data.points[0].maxC).toBeCloseTo(-18, 3);
   });
 
-  it("defaults to the year up to the latest reading and reports the sensor's extent", () => {
+  it("opens on the data by default: up to the latest reading, back to the first, at least a day and at most a year", () => {
+    const dense = readingSeries(ids.dense);
+    expect([dense.fromMs, dense.toMs]).toEqual([T0, T0 + 2999 * MIN]); // 2.1 days of readings
+    const year = readingSeries(ids.year);
+    expect([year.fromMs, year.toMs]).toEqual([T0, T0 + 365 * DAY - 5 * MIN]);
     const data = readingSeries(ids.sparse);
     expect(data.toMs).toBe(T0 + 5 * HOUR);
-    expect(data.fromMs).toBe(T0 + 5 * HOUR - 365 * DAY);
+    expect(data.fromMs).toBe(T0 + 5 * HOUR - DAY); // five hours of readings: a whole day is shown
     expect(data.extent).toEqual({ firstAtMs: T0, lastAtMs: T0 + 5 * HOUR });
     expect(data.points.map((p) => p.tempC)).toEqual([3.1, 3.4, 9.8, 11.5, 10.2, 4.0]);
     // A room sensor takes the room's set range and threshold; the open excursion overlaps.
