@@ -42,32 +42,50 @@ function seriesUrl(sensorId: number, view: View): string {
   return `/api/v1/sensors/${sensorId}/readings?${params}`;
 }
 
-type Settled = { key: string; series: ReadingSeries | null; error: string | null };
-
-/** The series for a view, kept on screen while the next one loads; a newer view aborts an older request. */
-function useSeries(sensorId: number, initial: ReadingSeries | null | undefined, view: View, attempt: number) {
-  const initialKey = initial ? viewKey({ fromMs: initial.fromMs, toMs: initial.toMs }) : null;
-  const [settled, setSettled] = useState<Settled>({ key: initialKey ?? "", series: initial ?? null, error: null });
-  const key = `${viewKey(view)}#${attempt}`;
-  const wanted = attempt === 0 && initialKey === viewKey(view) ? initialKey : key;
+/**
+ * The series for a view. Windows already seen come from memory (the page's first window too), so
+ * Reset and going back need no request; a newer view aborts an older request, and the last series
+ * stays on screen while the next one loads.
+ */
+function useSeries(sensorId: number, initial: ReadingSeries | null | undefined, view: View) {
+  const [attempt, setAttempt] = useState(0);
+  const [cache, setCache] = useState<Record<string, ReadingSeries>>(() => (initial ? { [viewKey({ fromMs: initial.fromMs, toMs: initial.toMs })]: initial } : {}));
+  const [latest, setLatest] = useState<ReadingSeries | null>(initial ?? null);
+  const [failure, setFailure] = useState<{ key: string; message: string } | null>(null);
+  const key = viewKey(view);
+  const cached = cache[key];
   useEffect(() => {
-    if (wanted === initialKey) return;
+    if (cached) return;
     const controller = new AbortController();
     fetch(seriesUrl(sensorId, view), { signal: controller.signal, headers: { accept: "application/json" }, credentials: "same-origin" })
       .then(async (response) => {
         const body = (await response.json().catch(() => null)) as { data?: ReadingSeries; error?: { message?: string } } | null;
         if (!response.ok || !body?.data) throw new Error(body?.error?.message ?? `The server answered ${response.status}.`);
-        setSettled({ key: wanted, series: body.data, error: null });
+        const series = body.data;
+        setCache((previous) => ({ ...previous, [key]: series }));
+        setLatest(series);
+        setFailure(null);
       })
       .catch((error: unknown) => {
         if (controller.signal.aborted) return;
-        setSettled((previous) => ({ key: wanted, series: previous.series, error: error instanceof Error && error.message !== "Failed to fetch" ? error.message : "The server could not be reached." }));
+        setFailure({ key, message: error instanceof Error && error.message !== "Failed to fetch" ? error.message : "The server could not be reached." });
       });
     return () => controller.abort();
-    // `view` is covered by `wanted`, which encodes it.
+    // `view` is encoded in `key`; `attempt` asks again after a failure.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [sensorId, wanted, initialKey]);
-  return { series: settled.series, error: settled.key === wanted ? settled.error : null, loading: settled.key !== wanted };
+  }, [sensorId, key, attempt, cached]);
+  const failed = failure?.key === key ? failure.message : null;
+  const retry = () => {
+    setFailure(null);
+    setAttempt((n) => n + 1);
+  };
+  return { series: cached ?? latest, error: cached ? null : failed, loading: !cached && !failed, retry };
+}
+
+/** Near an edge the peak's label goes to the side facing into the chart, so it is never cut off. */
+function peakLabelSide(peakAtMs: number, fromMs: number, spanMs: number): "left" | "right" | "top" {
+  const at = (peakAtMs - fromMs) / spanMs;
+  return at > 0.88 ? "left" : at < 0.12 ? "right" : "top";
 }
 
 function Swatch({ children }: { children: ReactNode }) {
@@ -113,9 +131,8 @@ function TraceTooltip({ active, payload, bucketMs }: { active?: boolean; payload
 export function TemperatureTraceChart({ sensorId, initial, className = "" }: { sensorId: number; initial?: ReadingSeries | null; className?: string }) {
   const uid = useId().replace(/:/g, "");
   const [view, setView] = useState<View>(initial ? { fromMs: initial.fromMs, toMs: initial.toMs } : null);
-  const [attempt, setAttempt] = useState(0);
   const [drag, setDrag] = useState<{ startMs: number; endMs: number } | null>(null);
-  const { series, error, loading } = useSeries(sensorId, initial, view, attempt);
+  const { series, error, loading, retry } = useSeries(sensorId, initial, view);
   const [home] = useState<View>(view);
 
   const rows = useMemo(() => (series ? traceRows(series) : []), [series]);
@@ -125,7 +142,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
         {error ? (
           <>
             <p className="text-sev-critical">{error}</p>
-            <Button size="sm" variant="secondary" className="mt-2" onClick={() => setAttempt((n) => n + 1)}>
+            <Button size="sm" variant="secondary" className="mt-2" onClick={retry}>
               Try again
             </Button>
           </>
@@ -209,7 +226,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
       {error ? (
         <p role="alert" className="text-sm text-sev-critical">
           {error}{" "}
-          <button type="button" className="font-medium underline" onClick={() => setAttempt((n) => n + 1)}>
+          <button type="button" className="font-medium underline" onClick={retry}>
             Try again
           </button>
         </p>
@@ -320,7 +337,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
                   stroke={EXCURSION}
                   strokeWidth={2}
                   ifOverflow="hidden"
-                  label={{ value: `Peak ${formatTempC(band.peakTempC)}`, position: "top", fill: EXCURSION_TEXT, fontSize: 11 }}
+                  label={{ value: `Peak ${formatTempC(band.peakTempC)}`, position: peakLabelSide(band.peakAtMs, fromMs, spanMs), fill: EXCURSION_TEXT, fontSize: 11 }}
                 />
               ))}
             {drag && drag.endMs !== drag.startMs ? <ReferenceArea x1={Math.min(drag.startMs, drag.endMs)} x2={Math.max(drag.startMs, drag.endMs)} fill={INK} fillOpacity={0.12} stroke={INK} strokeDasharray="4 2" /> : null}

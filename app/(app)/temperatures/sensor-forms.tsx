@@ -10,8 +10,8 @@ function sections(locations: Option[], edit: boolean): FieldSection[] {
     {
       fields: [
         { name: "externalId", label: "Device id", kind: "text", hint: "Exactly as the logger reports it in its files and API calls." },
-        { name: "name", label: "Name", kind: "text", hint: "What people call it, e.g. “Door-side logger”." },
-        { name: "location", label: "Attached to", kind: "select", options: locations, placeholder: "Choose a room or storage unit", hint: "The room itself, or one storage unit in it." },
+        { name: "name", label: "Name", kind: "text", hint: "What people call it, e.g. “Door-side logger”.", span: 2 },
+        { name: "location", label: "Attached to", kind: "select", options: locations, placeholder: "Choose a room or storage unit", hint: "The room itself, or one storage unit in it.", span: 2 },
         ...(edit
           ? [{ name: "active", label: "Switched on", kind: "yesno" as const, hint: "Readings for a switched-off sensor are refused; its history stays." }]
           : []),

@@ -22,13 +22,13 @@ export default async function ApiKeysPage() {
         description="API keys let temperature loggers and gateways send readings without a person signing in. A key is shown once when it is created; Headroom stores only its hash."
       />
       <AdminTabs current="api-keys" />
-      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_360px]">
+      <div className="grid gap-6 2xl:grid-cols-[minmax(0,1fr)_360px]">
         <Card title={`API keys (${live} in use${keys.length > live ? `, ${keys.length - live} revoked` : ""})`}>
           {keys.length === 0 ? (
             <EmptyState title="No API keys yet">Create one for each logger gateway, so each can be revoked on its own.</EmptyState>
           ) : (
             <div className="-mx-4 -my-4 overflow-x-auto">
-              <table className="w-full min-w-[760px] text-sm">
+              <table className="w-full min-w-[720px] text-sm">
                 <thead className="bg-ink-50">
                   <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
                     <th scope="col" className="px-4 py-2 font-medium">Name</th>
