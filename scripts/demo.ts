@@ -9,6 +9,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { closeDb, databasePath, getDb } from "../db/client";
 import { seedDemo } from "../db/seed/demo";
+import { DEMO_INGEST_KEY } from "../db/seed/demo-readings";
 import { startEmailFake } from "../lib/mail/fake-server";
 
 const args = new Set(process.argv.slice(2));
@@ -38,7 +39,10 @@ async function main() {
   }
   getDb(); // opens the file and applies pending migrations
   say(`database ${dbFile} is up to date`);
-  if (await seedDemo(getDb())) say("seeded the demo organisation (invented data; demo accounts use the password headroom-demo)");
+  if (await seedDemo(getDb())) {
+    say("seeded the demo organisation (invented data; demo accounts use the password headroom-demo)");
+    say(`demo ingest key (demo only — revoke it on a real installation): ${DEMO_INGEST_KEY}`);
+  }
   closeDb();
 
   if (!args.has("--no-build")) {

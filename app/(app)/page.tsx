@@ -4,11 +4,13 @@ import Link from "next/link";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SEVERITY_STYLE } from "@/components/ui/severity";
-import { overviewCounts, recentAuditEvents, sitesWithRoomCounts } from "@/db/queries/overview";
+import { locationsClosestToLimits, overviewCounts, recentAuditEvents, recentFindingEvents, sitesWithRoomCounts } from "@/db/queries/overview";
 import { SEVERITIES } from "@/db/schema";
 import { requirePagePermission } from "@/lib/auth/page";
-import { can } from "@/lib/auth/permissions";
-import { formatCount, formatDateTime, formatQuantity } from "@/lib/format/numbers";
+import { can, scopeFor } from "@/lib/auth/permissions";
+
+import { SeverityBadge } from "@/components/ui/severity";
+import { formatCount, formatDateTime, formatNumber, formatQuantity } from "@/lib/format/numbers";
 
 export const metadata: Metadata = { title: "Overview" };
 
@@ -35,7 +37,10 @@ function Stat({ label, value, href, note }: { label: string; value: number; href
 
 export default async function OverviewPage() {
   const { user } = await requirePagePermission("overview.read");
-  const counts = await overviewCounts(user.id);
+  const findingScope = scopeFor(user.role, "findings.read");
+  const counts = await overviewCounts(user, findingScope);
+  const closest = findingScope ? locationsClosestToLimits(user, findingScope) : [];
+  const findingEventsList = findingScope ? recentFindingEvents(user, findingScope) : [];
   const totalOpen = SEVERITIES.reduce((sum, s) => sum + counts.openFindings[s], 0);
   const urgent = counts.openFindings.critical + counts.openFindings.high;
   const showAudit = can(user.role, "audit.read");
@@ -91,6 +96,39 @@ export default async function OverviewPage() {
 
       <div className="grid gap-6 lg:grid-cols-3">
         <div className="space-y-6 lg:col-span-2">
+          {findingScope ? (
+            <Card title="Closest to their limits">
+              {closest.length === 0 ? (
+                <p className="text-sm text-ink-600">No open finding has a computed value against a limit.</p>
+              ) : (
+                <table className="w-full text-sm">
+                  <thead>
+                    <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
+                      <th scope="col" className="py-2 font-medium">Location</th>
+                      <th scope="col" className="py-2 text-right font-medium">Highest ratio to a limit</th>
+                      <th scope="col" className="py-2 text-right font-medium">Open findings</th>
+                    </tr>
+                  </thead>
+                  <tbody className="tabular">
+                    {closest.map((row) => (
+                      <tr key={`${row.roomId}-${row.storageUnitId}`} className="border-b border-ink-100 last:border-0">
+                        <td className="py-2">
+                          <Link
+                            href={row.storageUnitId ? `/register?storageUnitId=${row.storageUnitId}&status=open,acknowledged,mitigating` : `/register?roomId=${row.roomId}&status=open,acknowledged,mitigating`}
+                            className="text-accent-700 hover:underline"
+                          >
+                            {[row.roomCode, row.unitCode].filter(Boolean).join(" › ")}
+                          </Link>
+                        </td>
+                        <td className="py-2 text-right font-medium">{row.ratio == null ? "—" : `${formatNumber(row.ratio * 100)} %`}</td>
+                        <td className="py-2 text-right">{formatCount(row.findings)}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              )}
+            </Card>
+          ) : null}
           <Card title="What Headroom keeps">
             <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3">
               <Stat label="Sites" value={counts.sites} href="/locations" />
@@ -130,6 +168,29 @@ export default async function OverviewPage() {
         </div>
 
         <div className="space-y-6">
+          {findingScope ? (
+            <Card title="Register events">
+              {findingEventsList.length === 0 ? (
+                <p className="text-sm text-ink-600">Nothing has happened in the register yet.</p>
+              ) : (
+                <ol className="space-y-3">
+                  {findingEventsList.map((event) => (
+                    <li key={event.id} className="text-sm">
+                      <p className="flex items-start gap-2">
+                        <SeverityBadge severity={event.severity} />
+                        <Link href={`/register/${event.findingId}`} className="text-ink-900 hover:underline">
+                          {event.title}
+                        </Link>
+                      </p>
+                      <p className="tabular text-xs text-ink-500">
+                        {event.kind.replace("_", " ")} · {formatDateTime(event.at)}
+                      </p>
+                    </li>
+                  ))}
+                </ol>
+              )}
+            </Card>
+          ) : null}
           {showAudit ? (
             <Card
               title="Recent activity"

@@ -1,8 +1,12 @@
 import "server-only";
-import { and, count, desc, eq, inArray, isNull, ne, notInArray } from "drizzle-orm";
+import { and, count, desc, eq, inArray, isNotNull, isNull, max, ne, notInArray, sql } from "drizzle-orm";
+import { findingsVisibleTo } from "@/db/queries/findings";
+import type { Scope } from "@/lib/auth/permissions";
+import type { SessionUser } from "@/lib/auth/session";
 import { getDb } from "@/db/client";
 import {
   auditEvents,
+  findingEvents,
   containers,
   emailMessages,
   excursions,
@@ -32,12 +36,13 @@ export type OverviewCounts = {
   queuedEmails: number;
 };
 
-export async function overviewCounts(userId: number): Promise<OverviewCounts> {
+export async function overviewCounts(user: SessionUser, scope: Scope | null): Promise<OverviewCounts> {
+  const userId = user.id;
   const db = getDb();
   const bySeverity = db
     .select({ severity: findings.severity, n: count() })
     .from(findings)
-    .where(inArray(findings.status, OPEN_STATUSES))
+    .where(scope ? and(inArray(findings.status, OPEN_STATUSES), findingsVisibleTo(user, scope)) : sql`0`)
     .groupBy(findings.severity)
     .all();
   const openFindings = Object.fromEntries(SEVERITIES.map((s) => [s, 0])) as Record<Severity, number>;
@@ -75,5 +80,43 @@ export function sitesWithRoomCounts() {
     .where(isNull(sites.retiredAt))
     .groupBy(sites.id)
     .orderBy(sites.name)
+    .all();
+}
+
+/**
+ * The locations closest to their limits: for each room or unit, its open finding with the highest
+ * ratio of computed value to limit (whatever the severity), highest first.
+ */
+export function locationsClosestToLimits(user: SessionUser, scope: Scope, limit = 6) {
+  const db = getDb();
+  const ratio = max(findings.ratio);
+  return db
+    .select({
+      roomId: findings.roomId,
+      storageUnitId: findings.storageUnitId,
+      roomCode: rooms.code,
+      unitCode: storageUnits.code,
+      ratio,
+      findings: count(),
+    })
+    .from(findings)
+    .leftJoin(rooms, eq(rooms.id, findings.roomId))
+    .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
+    .where(and(inArray(findings.status, OPEN_STATUSES), isNotNull(findings.ratio), findingsVisibleTo(user, scope)))
+    .groupBy(findings.roomId, findings.storageUnitId)
+    .orderBy(desc(ratio))
+    .limit(limit)
+    .all();
+}
+
+/** The register's latest events (raised, resolved, worked on), for the people who may read them. */
+export function recentFindingEvents(user: SessionUser, scope: Scope, limit = 8) {
+  return getDb()
+    .select({ id: findingEvents.id, kind: findingEvents.kind, at: findingEvents.at, note: findingEvents.note, findingId: findings.id, title: findings.title, severity: findings.severity })
+    .from(findingEvents)
+    .innerJoin(findings, eq(findings.id, findingEvents.findingId))
+    .where(findingsVisibleTo(user, scope))
+    .orderBy(desc(findingEvents.at), desc(findingEvents.id))
+    .limit(limit)
     .all();
 }

@@ -9,6 +9,7 @@ import type { Db } from "@/db/client";
 import { rooms, sites, storageUnits, users, type NewRoom, type NewStorageUnit, type Role } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
 import { seedDemoInventory } from "./demo-inventory";
+import { seedDemoTemperatures } from "./demo-readings";
 import { seedSubstanceLibrary } from "./substances";
 
 export const DEMO_PASSWORD = "headroom-demo";
@@ -33,6 +34,9 @@ const NORTH_ROOMS: RoomSeed[] = [
     airChangesPerHour: 6,
     mixingFactor: 0.5,
     designMaxTempC: 32,
+    // Store policy: above 30 °C for an hour is an excursion, well before the design maximum.
+    excursionThresholdC: 30,
+    excursionMinDurationMin: 60,
     sprinklered: true,
     notes: "Basement store beside the loading bay; south wall gets afternoon sun.",
     units: [
@@ -154,8 +158,10 @@ export async function isDatabaseEmpty(db: Db): Promise<boolean> {
 /**
  * Loads the substance library when the substances table is empty, then the demo organisation when
  * there are no users yet, each in one transaction. Returns whether the organisation was seeded.
+ * The demo's history (readings, receipts) ends at `nowMs`.
  */
-export async function seedDemo(db: Db, options: { bcryptCost?: number } = {}): Promise<boolean> {
+export async function seedDemo(db: Db, options: { bcryptCost?: number; nowMs?: number } = {}): Promise<boolean> {
+  const nowMs = options.nowMs ?? Date.now();
   db.transaction((tx) => {
     const loaded = seedSubstanceLibrary(tx);
     if (loaded > 0) {
@@ -212,11 +218,14 @@ export async function seedDemo(db: Db, options: { bcryptCost?: number } = {}): P
         }
       }
     }
-    const containerCount = seedDemoInventory(tx, { researcherId: people.researcher.id, safetyId: people.safety_officer.id, facilitiesId: people.facilities.id });
+    const containerCount = seedDemoInventory(tx, { researcherId: people.researcher.id, safetyId: people.safety_officer.id, facilitiesId: people.facilities.id }, nowMs);
+    const temperatures = seedDemoTemperatures(tx, db.$client, { adminId: people.admin.id, facilities: people.facilities }, nowMs);
     recordAudit(tx, { system: "demo seed" }, {
       action: "seed",
       entityType: "installation",
-      summary: `Loaded the demo organisation (invented data): 2 sites, their rooms and units, ${containerCount} containers`,
+      summary:
+        `Loaded the demo organisation (invented data): 2 sites, their rooms and units, ${containerCount} containers, ` +
+        `${temperatures.sensors} sensors with ${temperatures.readings} readings and ${temperatures.excursions} excursions, and the demo ingest key`,
     });
   });
   return true;

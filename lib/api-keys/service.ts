@@ -1,9 +1,9 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { desc, eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type DbOrTx } from "@/db/client";
 import { apiKeys, type ApiKey } from "@/db/schema";
-import { recordAudit } from "@/lib/audit/record";
+import { recordAudit, type AuditActor } from "@/lib/audit/record";
 import type { SessionUser } from "@/lib/auth/session";
 import { ConflictError, NotFoundError } from "@/lib/errors";
 
@@ -13,18 +13,34 @@ function hashKey(key: string): string {
   return createHash("sha256").update(key).digest("hex");
 }
 
+/** A new random key: `hrk_` and 24 random bytes in base64url (36 characters). */
+export function generateApiKey(): string {
+  return `hrk_${randomBytes(24).toString("base64url")}`;
+}
+
+/**
+ * Stores a key inside the caller's transaction (only its SHA-256 and its first 12 characters) with
+ * its audit event. `createApiKey` is the way in for people; the demo seed uses this with its
+ * published demo key.
+ */
+export function storeApiKey(
+  tx: DbOrTx,
+  actor: AuditActor,
+  input: { name: string; scopes: ApiKeyScope[]; key: string; createdById: number | null },
+): ApiKey {
+  const row = tx
+    .insert(apiKeys)
+    .values({ name: input.name, prefix: input.key.slice(0, 12), keyHash: hashKey(input.key), scopes: input.scopes, createdById: input.createdById })
+    .returning()
+    .get();
+  recordAudit(tx, actor, { action: "create", entityType: "api_key", entityId: row.id, summary: `Created API key “${row.name}” (${row.prefix}…) for ${input.scopes.join(", ")}` });
+  return row;
+}
+
 /** Creates a key; the key itself is returned this once and only its SHA-256 is stored. */
 export function createApiKey(actor: SessionUser, input: { name: string; scopes: ApiKeyScope[] }): { key: string; apiKey: ApiKey } {
-  const key = `hrk_${randomBytes(24).toString("base64url")}`;
-  const apiKey = getDb().transaction((tx) => {
-    const row = tx
-      .insert(apiKeys)
-      .values({ name: input.name, prefix: key.slice(0, 12), keyHash: hashKey(key), scopes: input.scopes, createdById: actor.id })
-      .returning()
-      .get();
-    recordAudit(tx, actor, { action: "create", entityType: "api_key", entityId: row.id, summary: `Created API key “${row.name}” (${row.prefix}…) for ${input.scopes.join(", ")}` });
-    return row;
-  });
+  const key = generateApiKey();
+  const apiKey = getDb().transaction((tx) => storeApiKey(tx, actor, { ...input, key, createdById: actor.id }));
   return { key, apiKey };
 }
 

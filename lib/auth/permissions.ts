@@ -52,7 +52,8 @@ export const PERMISSIONS = {
   "findings.acknowledge": { ...safety, researcher: "own", facilities: "own" },
   "findings.comment": { ...safety, researcher: "own", facilities: "own" },
   "findings.work": safety,
-  "findings.acceptRisk": safety,
+  // Accepting a risk is a safety officer's professional judgement, not an administrator's.
+  "findings.acceptRisk": { safety_officer: "all" },
   "assessments.preview": { ...safety, researcher: "all", facilities: "all" },
 
   "exports.download": readers,

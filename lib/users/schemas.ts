@@ -50,3 +50,16 @@ export const setPasswordSchema = z
   });
 
 export const requestResetSchema = z.object({ email });
+
+const alertDelivery = (label: string) =>
+  z.enum(["immediate", "digest", "off"], { error: `${label}: choose as they happen, in the daily digest, or off.` });
+
+/** Which alerts a person receives and how. "off" removes a kind from the digest too. */
+export const alertPreferencesSchema = z.object({
+  alertExcursions: alertDelivery("Excursion alerts"),
+  alertFindings: alertDelivery("Finding alerts"),
+  dailyDigest: z
+    .union([z.boolean(), z.enum(["true", "false"])], { error: "Daily digest: choose yes or no." })
+    .transform((v) => v === true || v === "true"),
+});
+export type AlertPreferencesInput = z.output<typeof alertPreferencesSchema>;

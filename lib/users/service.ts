@@ -14,6 +14,7 @@ import { appUrl } from "@/lib/config";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
 import { enqueueEmail } from "@/lib/mail/outbox";
 import { kickOutbox } from "@/lib/mail/deliver";
+import type { AlertPreferencesInput } from "./schemas";
 
 export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 export const PASSWORD_RESET_TTL_MS = 60 * 60 * 1000;
@@ -212,5 +213,23 @@ export function setUserActive(actor: SessionUser, userId: number, active: boolea
       after: { active },
     });
     return updated;
+  });
+}
+
+/** A person's own alert choices; audited like every other change. */
+export function updateAlertPreferences(actor: SessionUser, input: AlertPreferencesInput): User {
+  return getDb().transaction((tx) => {
+    const before = tx.select().from(users).where(eq(users.id, actor.id)).get();
+    if (!before) throw new NotFoundError("Your account no longer exists.");
+    const after = tx.update(users).set({ ...input, updatedAt: new Date() }).where(eq(users.id, actor.id)).returning().get();
+    recordAudit(tx, actor, {
+      action: "update",
+      entityType: "user",
+      entityId: actor.id,
+      summary: `Alert choices: excursions ${input.alertExcursions}, findings ${input.alertFindings}, daily digest ${input.dailyDigest ? "on" : "off"}`,
+      before: { alertExcursions: before.alertExcursions, alertFindings: before.alertFindings, dailyDigest: before.dailyDigest },
+      after: { alertExcursions: after.alertExcursions, alertFindings: after.alertFindings, dailyDigest: after.dailyDigest },
+    });
+    return after;
   });
 }

@@ -18,6 +18,7 @@ const ROUTES: Entry[] = [
   { file: "session/route.ts", method: "POST", path: "/api/v1/session", action: "public" },
   { file: "session/route.ts", method: "DELETE", path: "/api/v1/session", action: "public" },
   { file: "me/route.ts", method: "GET", path: "/api/v1/me", action: "profile.update" },
+  { file: "me/route.ts", method: "PATCH", path: "/api/v1/me", action: "profile.update", body: {} },
   { file: "users/route.ts", method: "GET", path: "/api/v1/users", action: "users.manage" },
   { file: "users/route.ts", method: "POST", path: "/api/v1/users", action: "users.manage", body: { email: "new.person@example.test", name: "New Person", role: "researcher" } },
   { file: "substances/route.ts", method: "GET", path: "/api/v1/substances?q=acet", action: "substances.read" },
@@ -71,6 +72,9 @@ const ROUTES: Entry[] = [
   { file: "sensors/[id]/readings/route.ts", method: "GET", path: "/api/v1/sensors/999/readings", action: "temperatures.read", params: { id: "999" } },
   { file: "excursions/route.ts", method: "GET", path: "/api/v1/excursions", action: "temperatures.read" },
   { file: "excursions/[id]/acknowledge/route.ts", method: "POST", path: "/api/v1/excursions/999/acknowledge", action: "excursions.acknowledge", params: { id: "999" }, body: {} },
+  { file: "findings/route.ts", method: "GET", path: "/api/v1/findings", action: "findings.read" },
+  { file: "findings/[id]/route.ts", method: "GET", path: "/api/v1/findings/999", action: "findings.read", params: { id: "999" } },
+  { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.

@@ -181,3 +181,35 @@ describe("worst-case temperatures", () => {
     expect(worstCaseForRoom(roomId, T0 + 400 * 86_400_000)!.description).toBe("27.0 °C, design maximum");
   });
 });
+
+describe("daily digest", () => {
+  it("queues one digest per person and day after 07:00 UTC, with the excursions of their locations, and none for those who switched excursions off", async () => {
+    const { queueDailyDigests } = await import("@/lib/alerts/digest");
+    expect(queueDailyDigests(Date.parse("2026-03-07T06:59:00Z"))).toBe(0);
+    queueDailyDigests(Date.parse("2026-03-07T08:10:00Z"));
+    const digestOf = (user: User) => alertsTo(user).filter((m) => m.kind === "daily_digest");
+    for (const user of [officer, digestOfficer, contact, owner]) {
+      const [digest] = digestOf(user);
+      expect(digest.subject).toBe("Headroom daily digest, 2026-03-07 07:00 UTC");
+      expect(digest.text).toContain("Unit FR-T, sensor T-FR: above 8.0 °C 2026-03-06 19:00 UTC – 2026-03-06 19:55 UTC (55 min), peak 17.0 °C");
+    }
+    expect(digestOf(quietOfficer)).toHaveLength(0);
+    expect(digestOf(researcher)).toHaveLength(0); // responsible for nothing
+    expect(queueDailyDigests(Date.parse("2026-03-07T12:00:00Z"))).toBe(0);
+    expect(digestOf(officer)).toHaveLength(1);
+  });
+});
+
+describe("PATCH /api/v1/me (alert choices)", () => {
+  it("stores one's own choices and rejects an unknown one without changing anything", async () => {
+    const meRoute = await import("@/app/api/v1/me/route");
+    const person = makeUser("facilities");
+    const cookie = await sessionCookieFor(person);
+    const bad = await call(meRoute.PATCH, { method: "PATCH", body: { alertExcursions: "hourly", alertFindings: "off", dailyDigest: false }, cookie });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.alertExcursions[0]).toMatch(/as they happen, in the daily digest, or off/);
+    const ok = await call(meRoute.PATCH, { method: "PATCH", body: { alertExcursions: "digest", alertFindings: "off", dailyDigest: false }, cookie });
+    expect(ok.status).toBe(200);
+    expect(ok.body.user.alerts).toEqual({ alertExcursions: "digest", alertFindings: "off", dailyDigest: false });
+  });
+});

@@ -3,11 +3,14 @@ import Link from "next/link";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can, NAV_ITEMS, ROLE_LABELS } from "@/lib/auth/permissions";
+import { findUserById } from "@/db/queries/users";
+import { AlertPreferencesForm } from "./alert-preferences-form";
 
 export const metadata: Metadata = { title: "Profile" };
 
 export default async function ProfilePage() {
   const { user } = await requirePagePermission("profile.update");
+  const account = findUserById(user.id)!;
   return (
     <div className="space-y-5">
       <PageHeader title="Your profile" />
@@ -27,6 +30,12 @@ export default async function ProfilePage() {
             Change your password by e-mail link
           </Link>
         </p>
+      </Card>
+      <Card title="Alerts by e-mail">
+        <p className="mb-4 text-sm text-ink-600">
+          Alerts go to the people responsible for a location: the storage unit&apos;s owner, the room&apos;s facilities contact and the safety officers.
+        </p>
+        <AlertPreferencesForm values={{ alertExcursions: account.alertExcursions, alertFindings: account.alertFindings, dailyDigest: account.dailyDigest }} />
       </Card>
     </div>
   );

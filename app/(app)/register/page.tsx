@@ -1,75 +1,78 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { redirect } from "next/navigation";
+import { Suspense } from "react";
 import { Caution } from "@/components/ui/caution";
-import { Card, EmptyState, PageHeader } from "@/components/ui/card";
-import { SeverityBadge } from "@/components/ui/severity";
-import { listFindings } from "@/db/queries/findings";
+import { Card, PageHeader } from "@/components/ui/card";
+import { SEVERITY_STYLE } from "@/components/ui/severity";
+import { countFindingsBySeverity } from "@/db/queries/findings";
+import { siteOptions } from "@/db/queries/options";
 import { SEVERITIES } from "@/db/schema";
 import { requirePagePermission } from "@/lib/auth/page";
-import { formatCount, formatDateTime, formatQuantity, formatTempC } from "@/lib/format/numbers";
+import { can } from "@/lib/auth/permissions";
+import { formatCount } from "@/lib/format/numbers";
+import { RULE_LABELS } from "@/lib/register/rule-labels";
+import { findingListQuerySchema } from "@/lib/register/schemas";
+import { defaultRegisterView } from "@/lib/register/views";
+import { registerFilters } from "./register-columns";
+import { RegisterTable } from "./register-table";
+import { SaveViewForm } from "./save-view-form";
 
 export const metadata: Metadata = { title: "Register" };
 
-export default async function RegisterPage({ searchParams }: { searchParams: Promise<{ severity?: string }> }) {
+export default async function RegisterPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { user, scope } = await requirePagePermission("findings.read");
-  const { severity } = await searchParams;
-  const rows = listFindings(user, scope, { severity });
+  const raw = Object.fromEntries(Object.entries(await searchParams).flatMap(([k, v]) => (typeof v === "string" ? [[k, v]] : [])));
+  // No filters in the URL: open the role's default view (a safety officer may have saved another).
+  if (Object.keys(raw).length === 0) redirect(`/register?${defaultRegisterView(user.role).query}`);
+  const parsed = findingListQuerySchema.safeParse(raw);
+  const query = parsed.success ? parsed.data : {};
+  const counts = countFindingsBySeverity(user, scope, query);
+  const total = SEVERITIES.reduce((sum, s) => sum + counts[s], 0);
+  const withSeverity = (severity: string) => {
+    const next = new URLSearchParams(raw);
+    next.set("severity", severity);
+    next.delete("page");
+    return `/register?${next.toString()}`;
+  };
+  const ruleOptions = Object.entries(RULE_LABELS).map(([value, label]) => ({ value, label }));
+  const sites = siteOptions().map((s) => ({ value: String(s.id), label: s.name }));
   return (
     <div className="space-y-5">
       <PageHeader
         title="Register"
         description={
           scope === "own"
-            ? "Findings that touch your containers and the locations you look after."
-            : "Every finding the assessment has raised, with its status. Findings are never deleted."
+            ? "Findings on your containers and the locations you look after."
+            : "Every finding the assessment has raised, with its status and history. Findings are never deleted."
         }
       />
-      <nav aria-label="Filter by severity" className="flex flex-wrap gap-2 text-sm">
-        <Link href="/register" aria-current={!severity ? "page" : undefined} className={`rounded-full border px-3 py-1 ${!severity ? "border-accent-700 bg-accent-50 text-accent-800" : "border-ink-300 bg-white"}`}>
-          All
-        </Link>
-        {SEVERITIES.map((s) => (
-          <Link key={s} href={`/register?severity=${s}`} aria-current={severity === s ? "page" : undefined} className={`rounded-full border px-3 py-1 capitalize ${severity === s ? "border-accent-700 bg-accent-50 text-accent-800" : "border-ink-300 bg-white"}`}>
-            {s}
-          </Link>
-        ))}
-      </nav>
-      {rows.length === 0 ? (
-        <EmptyState title={severity ? `No ${severity} findings` : "The register is empty"}>
-          Findings appear here when a location&apos;s worst case crosses a limit: a vapor concentration near the LFL or an exposure
-          limit, a flammable liquid where ignition sources are, a liquid above its flash or boiling point, or a quantity over the
-          configured limit.
-        </EmptyState>
-      ) : (
-        <Card title={`${formatCount(rows.length)} finding${rows.length === 1 ? "" : "s"}`}>
-          <div className="-mx-4 -my-4 overflow-x-auto">
-            <table className="w-full min-w-[720px] text-sm">
-              <thead>
-                <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
-                  <th scope="col" className="px-4 py-2 font-medium">Severity</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Finding</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Status</th>
-                  <th scope="col" className="px-4 py-2 text-right font-medium">Value / limit</th>
-                  <th scope="col" className="px-4 py-2 text-right font-medium">Worst case</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Raised</th>
-                </tr>
-              </thead>
-              <tbody className="tabular">
-                {rows.map((f) => (
-                  <tr key={f.id} className="border-b border-ink-100 last:border-0">
-                    <td className="px-4 py-2"><SeverityBadge severity={f.severity} /></td>
-                    <td className="px-4 py-2 text-ink-900">{f.title}</td>
-                    <td className="px-4 py-2 capitalize text-ink-700">{f.status.replace("_", " ")}</td>
-                    <td className="px-4 py-2 text-right">{f.ratio != null ? formatQuantity(f.ratio * 100, "%") : "—"}</td>
-                    <td className="px-4 py-2 text-right">{formatTempC(f.worstCaseTempC)}</td>
-                    <td className="px-4 py-2 text-xs text-ink-600">{formatDateTime(f.firstRaisedAt)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+      <section aria-label="Findings by severity in this view" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        {SEVERITIES.map((severity) => {
+          const style = SEVERITY_STYLE[severity];
+          const Icon = style.icon;
+          return (
+            <Link key={severity} href={withSeverity(severity)} className={`rounded-lg border bg-white px-4 py-3 hover:shadow-sm ${counts[severity] > 0 ? style.border : "border-ink-200"}`}>
+              <span className={`flex items-center gap-1.5 text-xs font-semibold uppercase tracking-wide ${style.text}`}>
+                <Icon aria-hidden="true" className="size-4" strokeWidth={2.25} />
+                {style.label}
+              </span>
+              <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(counts[severity])}</span>
+              <span className="block text-xs text-ink-600">of {formatCount(total)} in this view</span>
+            </Link>
+          );
+        })}
+      </section>
+      <Suspense fallback={<p className="rounded-lg border border-ink-200 bg-white px-4 py-10 text-center text-sm text-ink-500">Loading the register…</p>}>
+        <RegisterTable filters={registerFilters(ruleOptions, sites)} ruleLabels={RULE_LABELS} />
+      </Suspense>
+      {can(user.role, "findings.work") ? (
+        <Card title="Default views">
+          <Suspense fallback={null}>
+            <SaveViewForm />
+          </Suspense>
         </Card>
-      )}
+      ) : null}
       <Caution />
     </div>
   );

@@ -32,7 +32,7 @@ const EXPECTED: Record<Action, [string, string, string, string, string]> = {
   "findings.acknowledge": ["all", "all", "own", "own", "-"],
   "findings.comment": ["all", "all", "own", "own", "-"],
   "findings.work": ["all", "all", "-", "-", "-"],
-  "findings.acceptRisk": ["all", "all", "-", "-", "-"],
+  "findings.acceptRisk": ["-", "all", "-", "-", "-"],
   "assessments.preview": ["all", "all", "all", "all", "-"],
   "exports.download": ["all", "all", "-", "-", "all"],
   "audit.read": ["all", "all", "-", "-", "all"],

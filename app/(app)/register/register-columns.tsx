@@ -1,0 +1,101 @@
+import Link from "next/link";
+import { createDataTableColumnHelper, type DataTableFilters } from "@/components/data-table";
+import { SeverityBadge } from "@/components/ui/severity";
+import { FINDING_STATUSES, SCENARIOS, SEVERITIES } from "@/db/enums";
+import type { FindingListRow } from "@/db/queries/findings";
+import { formatNumber, formatTempC } from "@/lib/format/numbers";
+import { humaniseRule, SCENARIO_LABELS, STATUS_LABELS } from "@/lib/register/labels";
+
+/** A row of `GET /api/v1/findings` as JSON (dates arrive as strings). */
+export type RegisterRow = Omit<FindingListRow, "firstRaisedAt" | "updatedAt"> & { firstRaisedAt: string; updatedAt: string };
+
+export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age"] as const;
+
+export function registerFilters(rules: { value: string; label: string }[], sites: { value: string; label: string }[]): DataTableFilters {
+  return {
+    search: { label: "Search", placeholder: "Words in the finding" },
+    selects: [
+      { param: "severity", label: "Severity", allLabel: "Any severity", options: [{ value: "critical,high", label: "Critical or high" }, ...SEVERITIES.map((s) => ({ value: s, label: s.charAt(0).toUpperCase() + s.slice(1) }))] },
+      {
+        param: "status",
+        label: "Status",
+        allLabel: "Default view",
+        options: [{ value: "open,acknowledged,mitigating", label: "Needs work" }, { value: "all", label: "Any status" }, ...FINDING_STATUSES.map((s) => ({ value: s, label: STATUS_LABELS[s] }))],
+      },
+      { param: "scenario", label: "Scenario", allLabel: "Any scenario", options: SCENARIOS.map((s) => ({ value: s, label: SCENARIO_LABELS[s] })) },
+      ...(rules.length ? [{ param: "rule", label: "Rule", allLabel: "Any rule", options: rules }] : []),
+      ...(sites.length > 1 ? [{ param: "siteId", label: "Site", allLabel: "Every site", options: sites }] : []),
+    ],
+  };
+}
+
+function ageText(iso: string): string {
+  const days = Math.floor((Date.now() - Date.parse(iso)) / 86_400_000);
+  if (days < 1) return "today";
+  return days === 1 ? "1 day" : `${days} days`;
+}
+
+const column = createDataTableColumnHelper<RegisterRow>();
+
+export function getRegisterColumns(ruleLabels: Record<string, string>) {
+  return column.columns([
+    column.accessor("severity", { header: "Severity", cell: ({ row }) => <SeverityBadge severity={row.original.severity} /> }),
+    column.accessor("title", {
+      header: "Finding",
+      meta: { rowHeader: true, className: "min-w-72" },
+      cell: ({ row }) => (
+        <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
+          {row.original.title}
+        </Link>
+      ),
+    }),
+    column.accessor("status", { header: "Status", cell: ({ row }) => STATUS_LABELS[row.original.status as keyof typeof STATUS_LABELS] ?? row.original.status }),
+    column.accessor("rule", { header: "Rule", cell: ({ row }) => ruleLabels[row.original.rule] ?? humaniseRule(row.original.rule) }),
+    column.display({
+      id: "location",
+      header: "Location",
+      cell: ({ row }) => {
+        const l = row.original.location;
+        const href = l.storageUnitId ? `/locations/units/${l.storageUnitId}` : l.roomId ? `/locations/rooms/${l.roomId}` : null;
+        return href ? (
+          <Link href={href} className="text-accent-800 underline-offset-2 hover:underline">
+            {l.label}
+          </Link>
+        ) : (
+          l.label
+        );
+      },
+    }),
+    column.display({
+      id: "substance",
+      header: "Substance",
+      cell: ({ row }) => row.original.substance?.name ?? row.original.mixture?.name ?? <span className="text-ink-400">—</span>,
+    }),
+    column.display({
+      id: "valueLimit",
+      header: "Value / limit",
+      meta: { align: "end" },
+      cell: ({ row }) => {
+        const f = row.original;
+        if (f.value == null) return <span className="text-ink-400">—</span>;
+        return (
+          <span className="whitespace-nowrap">
+            {formatNumber(f.value)}
+            {f.limit != null ? ` / ${formatNumber(f.limit)}` : ""} {f.unit ?? ""}
+          </span>
+        );
+      },
+    }),
+    column.accessor("ratio", {
+      header: "Ratio",
+      meta: { align: "end", unit: "%" },
+      cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
+    }),
+    column.accessor("worstCaseTempC", {
+      header: "Worst case",
+      meta: { align: "end", unit: "°C" },
+      cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
+    }),
+    column.accessor("firstRaisedAt", { id: "age", header: "Age", meta: { align: "end" }, cell: ({ row }) => ageText(row.original.firstRaisedAt) }),
+  ]);
+}

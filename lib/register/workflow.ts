@@ -1,0 +1,145 @@
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { findingsVisibleTo } from "@/db/queries/findings";
+import { findingEvents, findings, users, type Finding, type FindingStatus } from "@/db/schema";
+import { auditSnapshot } from "@/lib/audit/diff";
+import { recordAudit } from "@/lib/audit/record";
+import { authorizeAction } from "@/lib/auth/guard";
+import type { Action } from "@/lib/auth/permissions";
+import type { SessionUser } from "@/lib/auth/session";
+import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
+import { MAX_RISK_ACCEPTANCE_DAYS, type FindingEventInput } from "./schemas";
+
+type Kind = FindingEventInput["kind"];
+
+/** Who may take each step (the matrix decides; "own" is enforced by the query below). */
+export const ACTION_FOR_STEP: Record<Kind, Action> = {
+  acknowledge: "findings.acknowledge",
+  comment: "findings.comment",
+  start_mitigation: "findings.work",
+  resolve: "findings.work",
+  assign: "findings.work",
+  reopen: "findings.work",
+  accept_risk: "findings.acceptRisk",
+};
+
+/** The statuses a step may start from; comments and assignment go with any status. */
+export const ALLOWED_FROM: Partial<Record<Kind, FindingStatus[]>> = {
+  acknowledge: ["open"],
+  start_mitigation: ["open", "acknowledged"],
+  resolve: ["open", "acknowledged", "mitigating", "risk_accepted"],
+  accept_risk: ["open", "acknowledged", "mitigating"],
+  reopen: ["resolved", "risk_accepted"],
+};
+
+const STATUS_LABEL: Record<FindingStatus, string> = {
+  open: "open",
+  acknowledged: "acknowledged",
+  mitigating: "being mitigated",
+  resolved: "resolved",
+  risk_accepted: "risk accepted",
+};
+
+const EVENT_KIND = {
+  acknowledge: "acknowledged",
+  start_mitigation: "mitigation_started",
+  resolve: "resolved",
+  accept_risk: "risk_accepted",
+  comment: "comment",
+  assign: "assigned",
+  reopen: "reopened",
+} as const;
+
+/**
+ * One workflow step on a finding, with its event and an audit record in one transaction. The step's
+ * own permission is checked here (after the route's), and a researcher or facilities member can
+ * only touch findings on what they own or look after.
+ */
+export function applyFindingStep(actor: SessionUser, findingId: number, input: FindingEventInput, nowMs = Date.now()): Finding {
+  const { scope } = authorizeAction(actor, ACTION_FOR_STEP[input.kind]);
+  const now = new Date(nowMs);
+  return getDb().transaction((tx) => {
+    const before = tx.select().from(findings).where(and(eq(findings.id, findingId), findingsVisibleTo(actor, scope))).get();
+    if (!before) throw new NotFoundError("No such finding, or it is not on a location you look after.");
+    const allowed = ALLOWED_FROM[input.kind];
+    if (allowed && !allowed.includes(before.status)) {
+      throw new ConflictError(`This finding is ${STATUS_LABEL[before.status]}; it cannot be ${input.kind === "reopen" ? "re-opened" : `moved on by “${input.kind.replace("_", " ")}”`} from there.`);
+    }
+    let toStatus: FindingStatus = before.status;
+    let note: string | null = null;
+    const changes: Partial<typeof findings.$inferInsert> = {};
+    const data: Record<string, unknown> = {};
+    const assignee = (id: number) => {
+      const person = tx.select({ id: users.id, name: users.name, active: users.active, role: users.role }).from(users).where(eq(users.id, id)).get();
+      if (!person || !person.active || person.role === "auditor") {
+        throw new ValidationError("Choose an active person who can work on findings.", { assigneeId: ["Choose an active person who can work on findings."] });
+      }
+      return person;
+    };
+    switch (input.kind) {
+      case "acknowledge":
+        toStatus = "acknowledged";
+        note = input.note ?? null;
+        break;
+      case "start_mitigation": {
+        const person = assignee(input.assigneeId);
+        toStatus = "mitigating";
+        note = input.plan;
+        Object.assign(changes, { mitigationPlan: input.plan, assigneeId: person.id });
+        Object.assign(data, { assigneeId: person.id, assigneeName: person.name });
+        break;
+      }
+      case "resolve":
+        toStatus = "resolved";
+        note = input.note;
+        Object.assign(changes, { resolvedAt: now, riskAcceptedUntil: null });
+        break;
+      case "accept_risk": {
+        const until = input.reviewDate!;
+        if (until <= nowMs) throw new ValidationError("The review date must be in the future.", { reviewDate: ["The review date must be in the future."] });
+        if (until > nowMs + MAX_RISK_ACCEPTANCE_DAYS * 86_400_000) {
+          throw new ValidationError("Review an accepted risk at least every three years.", { reviewDate: ["Choose a review date within three years."] });
+        }
+        toStatus = "risk_accepted";
+        note = input.justification;
+        Object.assign(changes, { riskAcceptedUntil: new Date(until) });
+        data.reviewDate = new Date(until).toISOString().slice(0, 10);
+        break;
+      }
+      case "comment":
+        note = input.note;
+        break;
+      case "assign": {
+        const person = assignee(input.assigneeId);
+        Object.assign(changes, { assigneeId: person.id });
+        Object.assign(data, { assigneeId: person.id, assigneeName: person.name });
+        note = `Assigned to ${person.name}`;
+        break;
+      }
+      case "reopen":
+        toStatus = "open";
+        note = input.note;
+        Object.assign(changes, { resolvedAt: null, riskAcceptedUntil: null });
+        break;
+    }
+    const after = tx
+      .update(findings)
+      .set({ ...changes, status: toStatus, updatedAt: now })
+      .where(eq(findings.id, before.id))
+      .returning()
+      .get();
+    tx.insert(findingEvents)
+      .values({ findingId: before.id, kind: EVENT_KIND[input.kind], fromStatus: before.status, toStatus, note, actorId: actor.id, data: Object.keys(data).length ? data : null, at: now })
+      .run();
+    recordAudit(tx, actor, {
+      action: EVENT_KIND[input.kind],
+      entityType: "finding",
+      entityId: before.id,
+      summary: `${before.title}: ${input.kind.replace("_", " ")}${before.status !== toStatus ? ` (${STATUS_LABEL[before.status]} → ${STATUS_LABEL[toStatus]})` : ""}${note ? ` — ${note}` : ""}`,
+      before: auditSnapshot({ status: before.status, assigneeId: before.assigneeId, mitigationPlan: before.mitigationPlan, riskAcceptedUntil: before.riskAcceptedUntil }),
+      after: auditSnapshot({ status: after.status, assigneeId: after.assigneeId, mitigationPlan: after.mitigationPlan, riskAcceptedUntil: after.riskAcceptedUntil }),
+    });
+    return after;
+  });
+}
