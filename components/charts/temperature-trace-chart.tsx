@@ -179,6 +179,12 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
     const x2 = Math.min(Math.max(endMs, x1 + spanMs * 0.004), toMs);
     return { ...e, x1, x2, wide: (x2 - x1) / spanMs > 0.09 };
   });
+  // One peak label per cluster: the highest peak speaks for excursions within a tenth of the window.
+  const labelledPeaks = new Set<number>();
+  for (const band of [...bands].sort((a, b) => b.peakTempC - a.peakTempC)) {
+    const near = [...labelledPeaks].some((id) => Math.abs(bands.find((b) => b.id === id)!.peakAtMs - band.peakAtMs) < spanMs * 0.1);
+    if (!near) labelledPeaks.add(band.id);
+  }
   const activePreset = PRESETS.find((p) => p.spanMs === spanMs && toMs === anchorMs)?.key;
   const go = (next: View) => {
     setDrag(null);
@@ -337,7 +343,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
                   stroke={EXCURSION}
                   strokeWidth={2}
                   ifOverflow="hidden"
-                  label={{ value: `Peak ${formatTempC(band.peakTempC)}`, position: peakLabelSide(band.peakAtMs, fromMs, spanMs), fill: EXCURSION_TEXT, fontSize: 11 }}
+                  label={labelledPeaks.has(band.id) ? { value: `Peak ${formatTempC(band.peakTempC)}`, position: peakLabelSide(band.peakAtMs, fromMs, spanMs), fill: EXCURSION_TEXT, fontSize: 11 } : undefined}
                 />
               ))}
             {drag && drag.endMs !== drag.startMs ? <ReferenceArea x1={Math.min(drag.startMs, drag.endMs)} x2={Math.max(drag.startMs, drag.endMs)} fill={INK} fillOpacity={0.12} stroke={INK} strokeDasharray="4 2" /> : null}

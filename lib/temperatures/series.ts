@@ -147,14 +147,20 @@ export function readingSeries(sensorId: number, window: { fromMs?: number; toMs?
     (extent && window.toMs == null ? Math.min(Math.max(extent.firstAtMs, toMs - DEFAULT_WINDOW_MS), toMs - DAY_MS) : toMs - DEFAULT_WINDOW_MS);
   const client = getDb().$client;
 
-  // SQLite fills bare columns from the row that holds the single min() or max() (documented
-  // behaviour of aggregate queries), so each query also says when the extreme was read.
+  // SQLite fills bare columns from the row that holds the single min() (documented behaviour of
+  // aggregate queries), so the query also says when the lowest was read.
   const low = client
     .prepare(`select count(*) as n, min(temp_c) as tempC, at from readings where sensor_id = ? and at between ? and ?`)
     .get(sensorId, fromMs, toMs) as { n: number; tempC: number | null; at: number | null };
-  const high = client
-    .prepare(`select max(temp_c) as tempC, at from readings where sensor_id = ? and at between ? and ?`)
-    .get(sensorId, fromMs, toMs) as { tempC: number | null; at: number | null };
+  const highC = (client.prepare(`select max(temp_c) as tempC from readings where sensor_id = ? and at between ? and ?`).get(sensorId, fromMs, toMs) as { tempC: number | null }).tempC;
+  // On a tie the latest instant, as the worst-case temperature reports it.
+  const high = {
+    tempC: highC,
+    at:
+      highC == null
+        ? null
+        : (client.prepare(`select max(at) as at from readings where sensor_id = ? and at between ? and ? and temp_c = ?`).get(sensorId, fromMs, toMs, highC) as { at: number }).at,
+  };
   const lastRow = client
     .prepare(`select at, temp_c as tempC from readings where sensor_id = ? and at between ? and ? order by at desc limit 1`)
     .get(sensorId, fromMs, toMs) as { at: number; tempC: number } | undefined;

@@ -126,7 +126,8 @@ describe("GET /api/v1/sensors/{id}/readings", () => {
     expect(data.points).toHaveLength(365 * 4);
     expect(data.points.reduce((sum: number, p: { count: number }) => sum + p.count, 0)).toBe(365 * 288);
     expect(data.summary.count).toBe(365 * 288);
-    expect(data.summary.maxC).toBeCloseTo(-18, 6);
+    expect(data.summary.maxC).toBe(-18); // −20 + 2 sin(π/2), reached every day at 06:00
+    expect(data.summary.maxAtMs).toBe(T0 + 364 * DAY + 6 * HOUR); // a tie: the latest day's, as the worst case reports it
     expect(data.summary.minC).toBeCloseTo(-22, 6);
     // The first 6-hour bucket holds the rising quarter of the daily swing: −20 °C up to just under −18 °C.
     expect(data.points[0].minC).toBe(-20);

@@ -101,7 +101,7 @@ export function ExcursionList({
                   <>
                     {" "}
                     ·{" "}
-                    <Link href={excursionWindowHref(row, nowMs)} className="font-medium text-accent-800 hover:underline" scroll={false}>
+                    <Link href={excursionWindowHref(row, nowMs)} className="whitespace-nowrap font-medium text-accent-800 hover:underline">
                       Show on the chart
                     </Link>
                   </>
