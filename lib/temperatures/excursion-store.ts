@@ -7,7 +7,7 @@ import { auditSnapshot } from "@/lib/audit/diff";
 import { recordAudit } from "@/lib/audit/record";
 import type { SessionUser } from "@/lib/auth/session";
 import { ConflictError, NotFoundError } from "@/lib/errors";
-import { detectExcursions, type ExcursionRule } from "./excursions";
+import { createExcursionDetector, type DetectedExcursion, type ExcursionRule } from "./excursions";
 
 export type SensorExcursionRule = ExcursionRule & { minDurationMin: number; roomId: number | null; storageUnitId: number | null; externalId: string };
 
@@ -92,13 +92,22 @@ function refreshSensor(tx: DbOrTx, sensorId: number, rule: SensorExcursionRule, 
           .get();
   const anchorMs = anchor?.atMs ?? null;
 
+  // Streamed in time order through the incremental detector: a logger file of a million readings
+  // is never held as an array of rows (drizzle's .all() would build one object per reading).
   const series = tx
     .select({ atMs: sql<number>`${readings.at}`, tempC: readings.tempC })
     .from(readings)
     .where(anchorMs == null ? eq(readings.sensorId, sensorId) : and(eq(readings.sensorId, sensorId), gte(readings.at, new Date(anchorMs))))
     .orderBy(asc(readings.at))
-    .all();
-  const detected = detectExcursions(series, rule);
+    .toSQL();
+  const detector = createExcursionDetector(rule);
+  const detected: DetectedExcursion[] = [];
+  const rows = getDb().$client.prepare(series.sql).raw(true).iterate(...series.params) as IterableIterator<[number, number]>;
+  for (const [atMs, tempC] of rows) {
+    const completed = detector.push({ atMs, tempC });
+    if (completed) detected.push(completed);
+  }
+  detected.push(...detector.finish());
 
   const stored = tx
     .select()

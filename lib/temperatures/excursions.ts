@@ -28,39 +28,48 @@ export type DetectedExcursion = {
   longestGapMs: number;
 };
 
-function orderedReadings(readings: readonly TemperatureReading[]): TemperatureReading[] {
-  for (const reading of readings) {
-    if (!Number.isFinite(reading.atMs) || !Number.isFinite(reading.tempC)) {
-      throw new RangeError("Every reading needs a finite time and temperature.");
-    }
+function checkReading(reading: TemperatureReading): void {
+  if (!Number.isFinite(reading.atMs) || !Number.isFinite(reading.tempC)) {
+    throw new RangeError("Every reading needs a finite time and temperature.");
   }
-  const sorted = [...readings].sort((a, b) => a.atMs - b.atMs || b.tempC - a.tempC);
-  const unique: TemperatureReading[] = [];
-  for (const reading of sorted) {
-    if (unique.length && unique[unique.length - 1].atMs === reading.atMs) continue; // the higher one came first
-    unique.push(reading);
-  }
-  return unique;
 }
 
-export function detectExcursions(readings: readonly TemperatureReading[], rule: ExcursionRule): DetectedExcursion[] {
+function checkRule(rule: ExcursionRule): void {
   if (!Number.isFinite(rule.thresholdC)) throw new RangeError("The excursion threshold must be a finite temperature.");
   if (!Number.isFinite(rule.minDurationMs) || rule.minDurationMs < 0) throw new RangeError("The minimum duration must be zero or more.");
-  const series = orderedReadings(readings);
-  const found: DetectedExcursion[] = [];
+}
+
+export type ExcursionDetector = {
+  /**
+   * The next reading, in time order (equal instants may follow each other; the higher temperature
+   * counts). Returns the excursion this reading's predecessor completed, if any: a reading is
+   * decided only once a later instant arrives.
+   */
+  push(reading: TemperatureReading): DetectedExcursion | null;
+  /** No more readings: what is left (the last completed excursion and an open one), in time order. */
+  finish(): DetectedExcursion[];
+};
+
+/**
+ * The detector for readings that arrive sorted (a database cursor, a file in time order): constant
+ * memory whatever the number of readings. `detectExcursions` is this detector over a sorted copy.
+ */
+export function createExcursionDetector(rule: ExcursionRule): ExcursionDetector {
+  checkRule(rule);
+  let pending: TemperatureReading | null = null;
+  let finished = false;
   let current: (Omit<DetectedExcursion, "endMs" | "durationMs"> & { lastAtMs: number }) | null = null;
 
-  const close = (endMs: number | null, lastAtMs: number) => {
-    if (!current) return;
-    const durationMs = (endMs ?? lastAtMs) - current.startMs;
-    if (durationMs >= rule.minDurationMs) {
-      const { lastAtMs: _last, ...rest } = current;
-      found.push({ ...rest, endMs, durationMs });
-    }
+  const close = (endMs: number | null, lastAtMs: number): DetectedExcursion | null => {
+    const open = current;
     current = null;
+    if (!open) return null;
+    const durationMs = (endMs ?? lastAtMs) - open.startMs;
+    if (durationMs < rule.minDurationMs) return null;
+    return { startMs: open.startMs, endMs, peakTempC: open.peakTempC, peakAtMs: open.peakAtMs, durationMs, readingsAbove: open.readingsAbove, longestGapMs: open.longestGapMs };
   };
 
-  for (const reading of series) {
+  const take = (reading: TemperatureReading): DetectedExcursion | null => {
     const above = reading.tempC > rule.thresholdC;
     if (above && !current) {
       current = { startMs: reading.atMs, peakTempC: reading.tempC, peakAtMs: reading.atMs, readingsAbove: 1, longestGapMs: 0, lastAtMs: reading.atMs };
@@ -74,9 +83,55 @@ export function detectExcursions(readings: readonly TemperatureReading[], rule: 
       }
     } else if (!above && current) {
       current.longestGapMs = Math.max(current.longestGapMs, reading.atMs - current.lastAtMs);
-      close(reading.atMs, current.lastAtMs);
+      return close(reading.atMs, current.lastAtMs);
     }
+    return null;
+  };
+
+  return {
+    push(reading) {
+      if (finished) throw new Error("The detector has finished; create a new one.");
+      checkReading(reading);
+      if (!pending) {
+        pending = { atMs: reading.atMs, tempC: reading.tempC };
+        return null;
+      }
+      if (reading.atMs < pending.atMs) throw new RangeError("Readings must arrive in time order; sort them or use detectExcursions.");
+      if (reading.atMs === pending.atMs) {
+        if (reading.tempC > pending.tempC) pending.tempC = reading.tempC; // the conservative choice
+        return null;
+      }
+      const completed = take(pending);
+      pending = { atMs: reading.atMs, tempC: reading.tempC };
+      return completed;
+    },
+    finish() {
+      if (finished) return [];
+      finished = true;
+      const found: DetectedExcursion[] = [];
+      if (pending) {
+        const completed = take(pending);
+        if (completed) found.push(completed);
+      }
+      if (current) {
+        const open = close(null, (current as { lastAtMs: number }).lastAtMs);
+        if (open) found.push(open);
+      }
+      return found;
+    },
+  };
+}
+
+export function detectExcursions(readings: readonly TemperatureReading[], rule: ExcursionRule): DetectedExcursion[] {
+  checkRule(rule);
+  readings.forEach(checkReading);
+  const sorted = [...readings].sort((a, b) => a.atMs - b.atMs);
+  const detector = createExcursionDetector(rule);
+  const found: DetectedExcursion[] = [];
+  for (const reading of sorted) {
+    const completed = detector.push(reading);
+    if (completed) found.push(completed);
   }
-  if (current) close(null, (current as { lastAtMs: number }).lastAtMs);
+  found.push(...detector.finish());
   return found;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { detectExcursions, type TemperatureReading } from "@/lib/temperatures/excursions";
+import { createExcursionDetector, detectExcursions, type DetectedExcursion, type TemperatureReading } from "@/lib/temperatures/excursions";
 import { fahrenheitToCelsius, toCelsius } from "@/lib/temperatures/units";
 
 const MIN = 60_000;
@@ -111,5 +111,70 @@ describe("°F handling", () => {
   it("refuses temperatures below absolute zero and non-numbers", () => {
     expect(() => toCelsius(-500, "F")).toThrow(/absolute zero/);
     expect(() => toCelsius(Number.POSITIVE_INFINITY, "C")).toThrow(/finite/);
+  });
+});
+
+describe("the incremental detector for sorted readings", () => {
+  const run = (readings: TemperatureReading[], rule = fridge) => {
+    const detector = createExcursionDetector(rule);
+    const found: DetectedExcursion[] = [];
+    for (const reading of readings) {
+      const completed = detector.push(reading);
+      if (completed) found.push(completed);
+    }
+    return [...found, ...detector.finish()];
+  };
+
+  it("finds what detectExcursions finds, closed and open, one reading at a time", () => {
+    const temps = [5, 9, 9, 9, 9, 9, 9, 9, 5, 5, 10, 10, 10, 10, 10, 10, 10, 5, 4, 11, 12, 13, 14, 15, 16, 17];
+    const found = run(series(temps));
+    expect(found).toEqual(detectExcursions(series(temps), fridge));
+    expect(found.map((e) => [e.startMs, e.endMs])).toEqual([
+      [t0 + 5 * MIN, t0 + 40 * MIN],
+      [t0 + 50 * MIN, t0 + 85 * MIN],
+      [t0 + 95 * MIN, null],
+    ]);
+  });
+
+  it("hands over a closed excursion when the reading after the one that ended it arrives", () => {
+    const detector = createExcursionDetector(fridge);
+    const readings = series([5, 9, 9, 9, 9, 9, 9, 9, 5, 5]);
+    const completedAt = readings.map((r) => detector.push(r));
+    // The 9th reading (5 °C at 40 min) ends the excursion; it is decided when the 10th arrives.
+    expect(completedAt.map((e) => (e ? e.endMs : null))).toEqual([null, null, null, null, null, null, null, null, null, t0 + 40 * MIN]);
+    expect(detector.finish()).toEqual([]);
+  });
+
+  it("counts readings at the same instant once, with the higher temperature", () => {
+    const readings = series([5, 9, 9, 9, 9, 9, 9, 5]);
+    readings.splice(3, 0, { atMs: readings[3].atMs, tempC: 12 });
+    const [excursion] = run(readings);
+    expect(excursion).toMatchObject({ peakTempC: 12, peakAtMs: t0 + 15 * MIN, readingsAbove: 6 });
+  });
+
+  it("refuses readings out of time order and readings after finish", () => {
+    const detector = createExcursionDetector(fridge);
+    detector.push({ atMs: t0 + MIN, tempC: 4 });
+    expect(() => detector.push({ atMs: t0, tempC: 4 })).toThrow(/time order/);
+    detector.finish();
+    expect(() => detector.push({ atMs: t0 + 2 * MIN, tempC: 4 })).toThrow(/finished/);
+  });
+
+  it("runs through a year of 30-second readings (1,051,200) and finds the 12 monthly excursions", () => {
+    const detector = createExcursionDetector(fridge);
+    const start = Date.UTC(2026, 0, 1);
+    const found: DetectedExcursion[] = [];
+    const step = 30_000;
+    for (let i = 0; i < 365 * 2880; i++) {
+      const atMs = start + i * step;
+      const day = new Date(atMs).getUTCDate();
+      const hour = new Date(atMs).getUTCHours();
+      // 12 °C from 10:00 to 11:00 on the 15th of every month, 5 °C otherwise.
+      const completed = detector.push({ atMs, tempC: day === 15 && hour === 10 ? 12 : 5 });
+      if (completed) found.push(completed);
+    }
+    found.push(...detector.finish());
+    expect(found).toHaveLength(12);
+    expect(found.every((e) => e.durationMs === 60 * MIN && e.peakTempC === 12)).toBe(true);
   });
 });

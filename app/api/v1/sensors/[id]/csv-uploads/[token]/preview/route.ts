@@ -1,0 +1,15 @@
+import { NextResponse } from "next/server";
+import { requireId } from "@/lib/http/params";
+import { route } from "@/lib/http/route";
+import { csvMappingSchema } from "@/lib/temperatures/csv";
+import { previewCsvUpload } from "@/lib/temperatures/csv-upload";
+
+/**
+ * Reads the upload with the mapping in the body and writes nothing: the first 20 readings, the
+ * row count, the first and last instant, how many are already stored, and every problem by line
+ * and column (the first 500 listed, all counted).
+ */
+export const POST = route({ action: "readings.upload", schema: csvMappingSchema }, async ({ params, user, input }) => {
+  const sensorId = requireId(params, "That sensor");
+  return NextResponse.json({ data: await previewCsvUpload(user, sensorId, params.token ?? "", input) });
+});
