@@ -307,7 +307,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
                 stroke={EXCURSION}
                 strokeOpacity={0.7}
                 ifOverflow="hidden"
-                label={band.wide ? { value: band.endAtMs == null ? "Excursion (open)" : "Excursion", position: "insideTop", fill: EXCURSION_TEXT, fontSize: 11 } : undefined}
+                label={band.wide ? { value: band.endAtMs == null ? "Excursion (open)" : "Excursion", position: "insideBottom", fill: EXCURSION_TEXT, fontSize: 11 } : undefined}
               />
             ))}
             {thresholdC != null ? (

@@ -96,9 +96,13 @@ export function LocationTemperatureCard({ user, location }: { user: SessionUser;
   }
 
   const sensors = mayReadSensors ? sensorsAt(location) : [];
-  const charted = sensors.find((s) => s.lastReadingAt != null) ?? sensors[0];
-  const initial = charted ? readingSeries(charted.id) : null;
   const excursionRows = mayReadSensors ? listExcursions(onUnit ? { storageUnitId: location.storageUnitId, limit: 50 } : { inRoomId: location.roomId, limit: 50 }) : [];
+  // The chart opens on what needs attention: an open excursion, else the latest excursion (the
+  // list is open-first, newest-first), else the first sensor with readings.
+  const ownIds = new Set(sensors.map((s) => s.id));
+  const attentionId = excursionRows.find((e) => ownIds.has(e.sensorId))?.sensorId;
+  const charted = sensors.find((s) => s.id === attentionId) ?? sensors.find((s) => s.lastReadingAt != null) ?? sensors[0];
+  const initial = charted ? readingSeries(charted.id) : null;
   const openCount = excursionRows.filter((e) => e.endAt == null).length;
   const registerHref = `/temperatures/sensors/new?location=${onUnit ? `unit:${location.storageUnitId}` : `room:${location.roomId}`}`;
 

@@ -21,11 +21,18 @@ export default async function TemperaturesPage() {
         title="Temperatures"
         description="Temperature loggers in rooms and storage units. Their readings and excursions set each location's worst-case temperature. Times are UTC."
         actions={
-          can(user.role, "sensors.write") ? (
-            <Link href="/temperatures/sensors/new" className={buttonClass("primary")}>
-              Register sensor
-            </Link>
-          ) : undefined
+          <>
+            {can(user.role, "readings.upload") ? (
+              <Link href="/temperatures/upload" className={buttonClass("secondary")}>
+                Upload logger file
+              </Link>
+            ) : null}
+            {can(user.role, "sensors.write") ? (
+              <Link href="/temperatures/sensors/new" className={buttonClass("primary")}>
+                Register sensor
+              </Link>
+            ) : null}
+          </>
         }
       />
       <Card title={`Open excursions (${open.length})`}>

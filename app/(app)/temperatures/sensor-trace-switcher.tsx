@@ -12,11 +12,11 @@ export function SensorTraceSwitcher({ sensors, initial }: { sensors: { id: numbe
   return (
     <div className="space-y-3">
       {sensors.length > 1 ? (
-        <div className="flex items-center gap-2">
-          <label htmlFor={id} className="text-sm font-medium text-ink-800">
+        <div className="flex flex-wrap items-center gap-2">
+          <label htmlFor={id} className="whitespace-nowrap text-sm font-medium text-ink-800">
             Chart of sensor
           </label>
-          <select id={id} className={`${inputClass} h-9 w-auto`} value={sensorId} onChange={(event) => setSensorId(Number(event.target.value))}>
+          <select id={id} className={`${inputClass} h-9 sm:max-w-sm`} value={sensorId} onChange={(event) => setSensorId(Number(event.target.value))}>
             {sensors.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.label}
