@@ -47,3 +47,14 @@ export function formatDateTime(value: Date | number | null | undefined): string 
   const date = typeof value === "number" ? new Date(value) : value;
   return `${date.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 }
+
+/** "2 h 5 min", "3 days 4 h", "45 min". */
+export function formatDurationMin(durationMin: number): string {
+  const total = Math.max(0, Math.round(durationMin));
+  if (total < 60) return `${total} min`;
+  const days = Math.floor(total / 1440);
+  const hours = Math.floor((total % 1440) / 60);
+  const minutes = total % 60;
+  if (days > 0) return `${days} day${days === 1 ? "" : "s"}${hours ? ` ${hours} h` : ""}`;
+  return `${hours} h${minutes ? ` ${minutes} min` : ""}`;
+}

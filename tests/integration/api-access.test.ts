@@ -67,6 +67,9 @@ const ROUTES: Entry[] = [
   { file: "api-keys/[id]/route.ts", method: "DELETE", path: "/api/v1/api-keys/999", action: "apiKeys.manage", params: { id: "999" } },
   { file: "sensors/route.ts", method: "GET", path: "/api/v1/sensors", action: "temperatures.read" },
   { file: "sensors/route.ts", method: "POST", path: "/api/v1/sensors", action: "sensors.write", body: {} },
+  { file: "sensors/[id]/route.ts", method: "GET", path: "/api/v1/sensors/999", action: "temperatures.read", params: { id: "999" } },
+  { file: "sensors/[id]/route.ts", method: "PATCH", path: "/api/v1/sensors/999", action: "sensors.write", params: { id: "999" }, body: {} },
+  { file: "sensors/[id]/readings/route.ts", method: "GET", path: "/api/v1/sensors/999/readings", action: "temperatures.read", params: { id: "999" } },
   // Logger-file uploads (multipart, then JSON mappings); an unknown sensor or token answers 404, an empty mapping 400.
   { file: "sensors/[id]/csv-uploads/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads", action: "readings.upload", params: { id: "999" } },
   { file: "sensors/[id]/csv-uploads/[token]/preview/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads/0123456789abcdef0123456789abcdef/preview", action: "readings.upload", params: { id: "999", token: "0123456789abcdef0123456789abcdef" }, body: {} },

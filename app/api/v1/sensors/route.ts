@@ -1,11 +1,13 @@
 import { NextResponse } from "next/server";
+import { listPage } from "@/lib/http/list-query";
 import { route } from "@/lib/http/route";
-import { sensorCreateSchema } from "@/lib/temperatures/schemas";
-import { createSensor, listSensorRows } from "@/lib/temperatures/sensors";
+import { sensorCreateSchema, sensorListQuerySchema } from "@/lib/temperatures/schemas";
+import { createSensor, listSensors } from "@/lib/temperatures/sensors";
 
-export const GET = route({ action: "temperatures.read" }, () => {
-  const data = listSensorRows();
-  return NextResponse.json({ data, page: 1, pageSize: data.length, total: data.length });
+/** The sensors, paged: `q` (device id or name), `status` (on/off), `excursion=open`; sort by externalId, name, location or lastReadingAt. */
+export const GET = route({ action: "temperatures.read", schema: sensorListQuerySchema }, ({ input }) => {
+  const { rows, total } = listSensors(input);
+  return NextResponse.json(listPage(input, rows, total));
 });
 
 /** Registers a logger by its device id, attached to one room or one storage unit. */

@@ -15,6 +15,7 @@ import { formatCount, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { RoomForm, UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
+import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
 
 export const metadata: Metadata = { title: "Room" };
 
@@ -58,6 +59,8 @@ export default async function RoomPage({ params }: { params: Promise<{ id: strin
           </div>
         ))}
       </dl>
+
+      <LocationTemperatureCard user={user} location={{ roomId: room.id }} />
 
       <Card title={`Storage units (${room.units.length})`}>
         <div className="-mx-4 -my-4 overflow-x-auto">

@@ -16,6 +16,7 @@ import { formatCount, formatQuantity, formatTempC } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
+import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -58,6 +59,8 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
           </div>
         ))}
       </dl>
+      <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
+
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>
         <ContainersTable rows={stored} showUnit={false} />
       </Card>
