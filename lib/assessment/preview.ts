@@ -18,7 +18,7 @@ export const assessmentPreviewSchema = z
     amountUnit: z.enum(AMOUNT_UNITS, { error: `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.` }),
   })
   .superRefine((value, ctx) => {
-    if ((value.substanceId == null) === (value.mixtureId == null)) ctx.addIssue({ code: "custom", path: ["substanceId"], message: "Give a substanceId or a mixtureId, not both." });
+    if ((value.substanceId == null) === (value.mixtureId == null)) ctx.addIssue({ code: "custom", path: ["substanceId"], message: "Give a substanceId or a mixtureId (one of them)." });
   });
 export type AssessmentPreviewInput = z.output<typeof assessmentPreviewSchema>;
 

@@ -1,0 +1,99 @@
+/**
+ * The register follows the stored state: moving containers re-assesses both locations, a failed
+ * refrigerator's readings raise its findings at the peak, and the what-if preview writes nothing.
+ * Runs on the demo organisation (its first assessment is part of the seed).
+ */
+import { beforeAll, describe, expect, it } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { seedDemo } from "@/db/seed/demo";
+import { containers, findingEvents, findings, rooms, sensors, storageUnits, substances, users, type User } from "@/db/schema";
+import * as previewRoute from "@/app/api/v1/assessments/preview/route";
+import { moveContainer } from "@/lib/inventory/service";
+import { ingestReadings } from "@/lib/temperatures/ingest";
+import { call, sessionCookieFor } from "./helpers/world";
+
+let safety: User;
+const unitId = (code: string) => getDb().select().from(storageUnits).where(eq(storageUnits.code, code)).get()!.id;
+const substanceId = (cas: string) => getDb().select().from(substances).where(eq(substances.cas, cas)).get()!.id;
+const ETHER = "60-29-7";
+
+beforeAll(async () => {
+  await seedDemo(getDb(), { bcryptCost: 4 });
+  safety = getDb().select().from(users).where(eq(users.role, "safety_officer")).get()!;
+});
+
+describe("the demo's first assessment", () => {
+  it("has the domestic refrigerator's ether finding, the failed refrigerator's and the heat wave's", () => {
+    const all = getDb().select().from(findings).all();
+    const fr1 = all.find((f) => f.rule === "ignition-source-unit" && f.storageUnitId === unitId("FR-1") && f.substanceId === substanceId(ETHER))!;
+    expect(fr1).toMatchObject({ severity: "critical", status: "open" });
+    const fsr1 = all.filter((f) => f.storageUnitId === unitId("FSR-1") && f.scenario === "in_control");
+    // The weekend failure of FSR-1 (peak about 21.7 °C) is its in-control worst case for a year.
+    expect(fsr1.some((f) => f.worstCaseSource?.includes("from sensor S-205"))).toBe(true);
+    const b014 = getDb().select().from(rooms).where(eq(rooms.code, "B-014")).get()!;
+    const heat = all.filter((f) => f.roomId === b014.id && f.worstCaseSource?.includes("sensor S-201"));
+    expect(heat.length).toBeGreaterThan(0);
+    expect(heat[0].worstCaseTempC).toBeGreaterThan(31);
+  });
+});
+
+describe("moving containers", () => {
+  it("resolves the finding where they were, with the move as the reason, and assesses where they went", () => {
+    const fr1 = unitId("FR-1");
+    const ethers = getDb().select().from(containers).where(and(eq(containers.storageUnitId, fr1), eq(containers.substanceId, substanceId(ETHER)))).all();
+    expect(ethers.length).toBe(2);
+    const finding = () => getDb().select().from(findings).where(and(eq(findings.rule, "ignition-source-unit"), eq(findings.storageUnitId, fr1), eq(findings.substanceId, substanceId(ETHER)))).get()!;
+    const actor = { id: safety.id, email: safety.email, name: safety.name, role: safety.role };
+    moveContainer(actor, "all", ethers[0].id, unitId("FSR-1"));
+    expect(finding().status).toBe("open"); // one bottle is still there
+    moveContainer(actor, "all", ethers[1].id, unitId("FSR-1"));
+    expect(finding()).toMatchObject({ status: "resolved", conditionHolds: false });
+    const last = getDb().select().from(findingEvents).where(eq(findingEvents.findingId, finding().id)).all().at(-1)!;
+    expect(last.kind).toBe("auto_resolved");
+    expect(last.note).toMatch(/moved from .*FR-1.* to .*FSR-1/);
+    // FSR-1 is rated for flammables: no ignition-source finding there, but its enclosure finding now counts the extra ether.
+    expect(getDb().select().from(findings).where(and(eq(findings.rule, "ignition-source-unit"), eq(findings.storageUnitId, unitId("FSR-1")))).all()).toHaveLength(0);
+    const evaluated = getDb().select().from(findings).where(eq(findings.storageUnitId, unitId("FSR-1"))).all();
+    expect(evaluated.every((f) => f.lastEvaluatedAt.getTime() >= finding().lastEvaluatedAt.getTime() - 1)).toBe(true);
+  });
+});
+
+describe("a refrigerator that fails", () => {
+  it("raises its in-control findings at the excursion's peak as the readings arrive", () => {
+    const xr1 = unitId("XR-1");
+    const sensor = getDb().select().from(sensors).where(eq(sensors.storageUnitId, xr1)).get()!;
+    const inControl = () => getDb().select().from(findings).where(and(eq(findings.storageUnitId, xr1), eq(findings.scenario, "in_control"), eq(findings.rule, "enclosure-lfl"))).all();
+    const before = new Map(inControl().map((f) => [f.fingerprint, f.worstCaseTempC]));
+    const start = Date.now() + 60_000;
+    const batch = Array.from({ length: 24 }, (_, i) => ({ sensor: sensor.externalId, at: new Date(start + i * 10 * 60_000).toISOString(), tempC: Math.min(24, 5 + i * 1.5) }));
+    const result = ingestReadings(batch);
+    expect(result.excursions.opened).toBe(1);
+    const after = inControl();
+    expect(after.length).toBeGreaterThan(0);
+    for (const f of after) {
+      expect(f.worstCaseTempC).toBe(24);
+      expect(f.worstCaseSource).toMatch(new RegExp(`sensor ${sensor.externalId}`));
+      expect(f.worstCaseTempC!).toBeGreaterThan(before.get(f.fingerprint) ?? -Infinity);
+    }
+  });
+});
+
+describe("POST /api/v1/assessments/preview", () => {
+  it("tells what 4 L of diethyl ether in FR-1 would raise, and writes nothing", async () => {
+    const count = () => [getDb().$client.prepare("select count(*) n from findings").get(), getDb().$client.prepare("select count(*) n from finding_events").get(), getDb().$client.prepare("select count(*) n from containers").get()];
+    const before = JSON.stringify(count());
+    const cookie = await sessionCookieFor(getDb().select().from(users).where(eq(users.role, "researcher")).get()!);
+    const response = await call(previewRoute.POST, { method: "POST", body: { storageUnitId: unitId("FR-1"), substanceId: substanceId(ETHER), amount: 4, amountUnit: "L" }, cookie });
+    expect(response.status).toBe(200);
+    const titles = response.body.data.findings.map((f: { title: string }) => f.title);
+    expect(titles.some((t: string) => /Diethyl ether .*FR-1.*if the refrigerator fails/i.test(t))).toBe(true);
+    expect(response.body.data.findings.some((f: { rule: string; isNew: boolean }) => f.rule === "ignition-source-unit" && f.isNew)).toBe(true);
+    expect(JSON.stringify(count())).toBe(before);
+    const bad = await call(previewRoute.POST, { method: "POST", body: { storageUnitId: unitId("FR-1"), amount: -1, amountUnit: "gal" }, cookie });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(["amount", "amountUnit"]);
+    const neither = await call(previewRoute.POST, { method: "POST", body: { storageUnitId: unitId("FR-1"), amount: 1, amountUnit: "L" }, cookie });
+    expect(neither.body.error.fields.substanceId[0]).toBe("Give a substanceId or a mixtureId (one of them).");
+  });
+});
