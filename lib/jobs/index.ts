@@ -1,5 +1,9 @@
 import "server-only";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { jobs } from "@/db/schema";
 import { startDigestJob } from "@/lib/alerts/digest";
+import { kickReassessments } from "@/lib/assessment/jobs";
 import { startOutboxJob } from "@/lib/mail/deliver";
 import { log } from "@/lib/log";
 
@@ -7,5 +11,11 @@ import { log } from "@/lib/log";
 export function startJobs(): void {
   startOutboxJob();
   startDigestJob();
-  log.info({ jobs: ["outbox", "daily-digest"] }, "background jobs started");
+  // A re-assessment that was running when the process stopped starts again from the beginning
+  // (each batch is a transaction of its own, so running it twice is harmless).
+  getDb().update(jobs).set({ status: "queued", progress: 0 }).where(eq(jobs.status, "running")).run();
+  const timer = setInterval(kickReassessments, 30_000);
+  timer.unref?.();
+  kickReassessments();
+  log.info({ jobs: ["outbox", "daily-digest", "re-assessment"] }, "background jobs started");
 }

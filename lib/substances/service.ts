@@ -1,4 +1,5 @@
 import "server-only";
+import { kickReassessments, queueReassessment, roomsHoldingSubstance } from "@/lib/assessment/jobs";
 import { asc, eq } from "drizzle-orm";
 import { getDb, type DbOrTx } from "@/db/client";
 import { exposureLimits, substances, type Substance } from "@/db/schema";
@@ -94,7 +95,7 @@ export function updateSubstance(actor: SessionUser, id: number, input: Substance
   const values = columnsFrom(input);
   checkWithEngine(values);
   try {
-    return getDb().transaction((tx) => {
+    const result = getDb().transaction((tx) => {
       const before = tx.select().from(substances).where(eq(substances.id, id)).get();
       if (!before) throw new NotFoundError("That substance");
       const limitsBefore = limitsOf(tx, id);
@@ -115,9 +116,12 @@ export function updateSubstance(actor: SessionUser, id: number, input: Substance
           before: diff.before,
           after: diff.after,
         });
+        queueReassessment(tx, { roomIds: roomsHoldingSubstance(tx, id), reason: `${after.name} corrected (${diff.keys.join(", ")})` }, actor.id);
       }
       return after;
     });
+    kickReassessments();
+    return result;
   } catch (error) {
     rethrowConstraint(error, CAS_UNIQUE);
   }

@@ -80,6 +80,8 @@ const ROUTES: Entry[] = [
   { file: "findings/[id]/route.ts", method: "GET", path: "/api/v1/findings/999", action: "findings.read", params: { id: "999" } },
   { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },
   { file: "assessments/preview/route.ts", method: "POST", path: "/api/v1/assessments/preview", action: "assessments.preview", body: {} },
+  { file: "settings/assessment/route.ts", method: "GET", path: "/api/v1/settings/assessment", action: "findings.read" },
+  { file: "settings/assessment/route.ts", method: "PUT", path: "/api/v1/settings/assessment", action: "hazardSettings.write", body: {} },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.

@@ -97,3 +97,35 @@ describe("POST /api/v1/assessments/preview", () => {
     expect(neither.body.error.fields.substanceId[0]).toBe("Give a substanceId or a mixtureId (one of them).");
   });
 });
+
+describe("settings that touch everything", () => {
+  it("re-assesses every location in a background job with progress when a safety officer changes the LFL thresholds", async () => {
+    const settingsRoute = await import("@/app/api/v1/settings/assessment/route");
+    const { runReassessmentJob } = await import("@/lib/assessment/jobs");
+    const { jobs } = await import("@/db/schema");
+    const cookie = await sessionCookieFor(safety);
+    const current = (await call(settingsRoute.GET, { cookie })).body.data;
+    expect(current.lfl).toMatchObject({ moderate: 0.1, high: 0.25, critical: 1 });
+    const refused = await call(settingsRoute.PUT, { method: "PUT", body: current, cookie: await sessionCookieFor(getDb().select().from(users).where(eq(users.role, "facilities")).get()!) });
+    expect(refused.status).toBe(403);
+    const bad = await call(settingsRoute.PUT, { method: "PUT", body: { ...current, lfl: { ...current.lfl, moderate: "ten" } }, cookie });
+    expect(bad.status).toBe(400);
+    const tooHigh = await call(settingsRoute.PUT, { method: "PUT", body: { ...current, lfl: { ...current.lfl, critical: 100 } }, cookie });
+    expect(tooHigh.body.error.fields["lfl.critical"][0]).toBe("The critical LFL fraction must be at most 10 (1000 %).");
+    // Critical only from 10 × the LFL: the enclosure findings between 1× and 10× drop to high.
+    const saved = await call(settingsRoute.PUT, { method: "PUT", body: { ...current, lfl: { ...current.lfl, critical: 10 } }, cookie });
+    expect(saved.status).toBe(202);
+    // The change started the job in the background; running it here too is harmless (it is claimed once).
+    await runReassessmentJob(saved.body.data.jobId, { yieldBetweenBatches: false });
+    const jobRow = () => getDb().select().from(jobs).where(eq(jobs.id, saved.body.data.jobId)).get()!;
+    for (let i = 0; i < 500 && jobRow().status !== "done"; i += 1) await new Promise((resolve) => setTimeout(resolve, 10));
+    const job = jobRow();
+    expect(job).toMatchObject({ status: "done", progress: job.total });
+    expect(job.total).toBe(getDb().select().from(rooms).all().length);
+    const stored = getDb().select().from(jobs).where(eq(jobs.id, job.id)).get()!;
+    expect(stored.status).toBe("done");
+    const enclosure = getDb().select().from(findings).where(and(eq(findings.rule, "enclosure-lfl"), eq(findings.status, "open"))).all();
+    expect(enclosure.some((f) => f.ratio! > 1 && f.ratio! < 10 && f.severity === "high")).toBe(true);
+    expect(enclosure.every((f) => !(f.ratio! < 10 && f.severity === "critical"))).toBe(true);
+  });
+});
