@@ -72,6 +72,8 @@ const ROUTES: Entry[] = [
   { file: "findings/route.ts", method: "GET", path: "/api/v1/findings", action: "findings.read" },
   { file: "findings/[id]/route.ts", method: "GET", path: "/api/v1/findings/999", action: "findings.read", params: { id: "999" } },
   { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },
+  // A binary download: an impossible site id keeps the allowed roles' answer JSON (400); the workbook itself is tested in register-export.test.ts.
+  { file: "exports/register.xlsx/route.ts", method: "GET", path: "/api/v1/exports/register.xlsx?siteId=0", action: "exports.download" },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.
