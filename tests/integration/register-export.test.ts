@@ -12,7 +12,6 @@ import { auditEvents, containers, excursions, exposureLimits, findings, rooms, s
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
 import { makeUser, sessionCookieFor } from "./helpers/world";
 
-const NOW = Date.parse("2026-08-03T12:00:00Z");
 const RAISED_AT = Date.parse("2026-08-01T09:30:00Z");
 const EXCURSION_START = Date.parse("2026-07-30T10:00:00Z");
 const FORMULA_LABEL = '=HYPERLINK("http://x")';
