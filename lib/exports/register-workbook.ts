@@ -4,15 +4,13 @@ import ExcelJS from "exceljs";
 import { getDb, type Db } from "@/db/client";
 import { FINDING_STATUSES, SEVERITIES, type FindingStatus, type Scenario, type Severity } from "@/db/enums";
 import {
-  containerPage,
   excursionPage,
-  findingPage,
+  exportPageQueries,
   findSite,
   locationRows,
   registerCounts,
   settingsInForce,
   substancesInScope,
-  tracePage,
   type ContainerExportRow,
   type ExcursionExportRow,
   type ExportScope,
@@ -22,10 +20,11 @@ import {
 import { NotFoundError } from "@/lib/errors";
 import { CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { ROOM_KIND_LABELS, STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels";
-import { lookBackDays, worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
+import { lookBackDays } from "@/lib/temperatures/queries";
+import { locationWorstCases } from "./location-worst-cases";
 import { assumptions, CAUTIONS, METHODS, SUMMARY_CAUTION, type MethodStatement } from "./methods";
 import { safeText, TEXT_NUM_FMT } from "./safe-text";
-import { DATETIME_NUM_FMT, ExportCancelledError, HEADER_STYLE, Pace, TableSheet, TEXT_STYLE, type Column } from "./table-sheet";
+import { DATETIME_NUM_FMT, ExportCancelledError, HEADER_STYLE, Pace, sharedTextOf, TableSheet, TEXT_STYLE, type Column, type SharedText } from "./table-sheet";
 import { traceRows, type TraceRow } from "./trace-rows";
 
 /**
@@ -49,6 +48,8 @@ export const REGISTER_SHEETS = [
 export const WORKBOOK_TITLE = "Vapor-hazard register: audit workbook";
 
 const PAGE_ROWS = 1000;
+/** Traces are large (kilobytes of JSON each): fewer per page keeps memory flat. */
+const TRACE_PAGE_ROWS = 200;
 
 export type RegisterWorkbookOptions = {
   siteId?: number;
@@ -59,7 +60,16 @@ export type RegisterWorkbookOptions = {
   maxSheetRows?: number;
 };
 
-export type RegisterWorkbookResult = { findings: number; traceRows: number; containers: number; locations: number; excursions: number; substances: number };
+export type RegisterWorkbookResult = {
+  findings: number;
+  traceRows: number;
+  containers: number;
+  locations: number;
+  excursions: number;
+  substances: number;
+  /** Time spent on each sheet (and the final commit), for logs and the benchmark. */
+  timingsMs: Record<string, number>;
+};
 
 export const SEVERITY_LABELS: Record<Severity, string> = { critical: "Critical", high: "High", moderate: "Moderate", low: "Low" };
 export const STATUS_LABELS: Record<FindingStatus, string> = {
@@ -88,11 +98,11 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Status", width: 14, kind: "text", value: (r) => label(STATUS_LABELS, r.status) },
   { header: "Rule", width: 22, kind: "text", value: (r) => r.rule },
   { header: "Scenario", width: 16, kind: "text", value: (r) => label(SCENARIO_LABELS, r.scenario) },
-  { header: "Title", width: 60, kind: "text", value: (r) => r.title },
+  { header: "Title", width: 60, kind: "text", unique: true, value: (r) => r.title },
   { header: "Site", width: 20, kind: "text", value: (r) => r.siteName },
   { header: "Room", width: 12, kind: "text", value: (r) => r.roomCode },
   { header: "Storage unit", width: 12, kind: "text", value: (r) => r.unitCode },
-  { header: "Container", width: 16, kind: "text", value: (r) => r.containerLabel },
+  { header: "Container", width: 16, kind: "text", unique: true, value: (r) => r.containerLabel },
   { header: "Substance or mixture", width: 26, kind: "text", value: (r) => r.substanceName ?? r.mixtureName },
   { header: "CAS number", width: 12, kind: "text", value: (r) => r.cas },
   { header: "Value", width: 12, kind: "number", value: (r) => r.value },
@@ -105,27 +115,27 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Last evaluated (UTC)", width: 17, kind: "datetime", value: (r) => r.lastEvaluatedAt },
   { header: "Resolved (UTC)", width: 17, kind: "datetime", value: (r) => r.resolvedAt },
   { header: "Assignee", width: 22, kind: "text", value: (r) => r.assigneeName },
-  { header: "Mitigation plan", width: 40, kind: "text", value: (r) => r.mitigationPlan },
+  { header: "Mitigation plan", width: 40, kind: "text", unique: true, value: (r) => r.mitigationPlan },
   { header: "Risk accepted until (UTC)", width: 14, kind: "date", value: (r) => r.riskAcceptedUntil },
-  { header: "Fingerprint", width: 40, kind: "text", value: (r) => r.fingerprint },
+  { header: "Fingerprint", width: 40, kind: "text", unique: true, value: (r) => r.fingerprint },
 ];
 
-type TraceSheetRow = TraceRow & { findingId: number; step: number };
+type TraceSheetRow = { findingId: number; step: number; row: TraceRow };
 
 const TRACE_COLUMNS: Column<TraceSheetRow>[] = [
   { header: "Finding ID", width: 10, kind: "number", value: (r) => r.findingId },
   { header: "Step", width: 6, kind: "number", value: (r) => r.step },
-  { header: "Path in the trace", width: 26, kind: "text", value: (r) => r.path },
-  { header: "Label or quantity", width: 40, kind: "text", value: (r) => r.label },
-  { header: "Formula or method", width: 40, kind: "text", value: (r) => r.formula },
-  { header: "With the numbers", width: 40, kind: "text", value: (r) => r.substituted },
-  { header: "Value", width: 14, kind: "value", value: (r) => r.value },
-  { header: "Unit", width: 10, kind: "text", value: (r) => r.unit },
-  { header: "Note or source", width: 50, kind: "text", value: (r) => r.note },
+  { header: "Path in the trace", width: 26, kind: "text", value: (r) => r.row.path },
+  { header: "Label or quantity", width: 40, kind: "text", value: (r) => r.row.label },
+  { header: "Formula or method", width: 40, kind: "text", value: (r) => r.row.formula },
+  { header: "With the numbers", width: 40, kind: "text", unique: true, value: (r) => r.row.substituted },
+  { header: "Value", width: 14, kind: "value", value: (r) => r.row.value },
+  { header: "Unit", width: 10, kind: "text", value: (r) => r.row.unit },
+  { header: "Note or source", width: 50, kind: "text", value: (r) => r.row.note },
 ];
 
 const INVENTORY_COLUMNS: Column<ContainerExportRow>[] = [
-  { header: "Container", width: 16, kind: "text", value: (r) => r.label },
+  { header: "Container", width: 16, kind: "text", unique: true, value: (r) => r.label },
   { header: "Substance or mixture", width: 26, kind: "text", value: (r) => r.substanceName ?? r.mixtureName },
   { header: "CAS number", width: 12, kind: "text", value: (r) => r.cas },
   { header: "Amount", width: 10, kind: "number", value: (r) => r.amount },
@@ -141,7 +151,7 @@ const INVENTORY_COLUMNS: Column<ContainerExportRow>[] = [
   { header: "Received (UTC)", width: 12, kind: "date", value: (r) => r.receivedAt },
   { header: "Opened (UTC)", width: 12, kind: "date", value: (r) => r.openedAt },
   { header: "Expires (UTC)", width: 12, kind: "date", value: (r) => r.expiresAt },
-  { header: "Notes", width: 40, kind: "text", value: (r) => r.notes },
+  { header: "Notes", width: 40, kind: "text", unique: true, value: (r) => r.notes },
 ];
 
 type LocationSheetRow = {
@@ -211,7 +221,7 @@ const EXCURSION_COLUMNS: Column<ExcursionExportRow & { durationMin: number }>[] 
   { header: "Peak at (UTC)", width: 17, kind: "datetime", value: (r) => r.peakAt },
   { header: "Acknowledged by", width: 22, kind: "text", value: (r) => r.acknowledgedByName },
   { header: "Acknowledged at (UTC)", width: 17, kind: "datetime", value: (r) => r.acknowledgedAt },
-  { header: "Comment", width: 40, kind: "text", value: (r) => r.acknowledgeComment },
+  { header: "Comment", width: 40, kind: "text", unique: true, value: (r) => r.acknowledgeComment },
 ];
 
 type SubstanceSheetRow = {
@@ -293,10 +303,10 @@ const METHOD_COLUMNS: Column<MethodSheetRow>[] = [
 // Sheets
 // -------------------------------------------------------------------------------------------------
 
-type Context = { workbook: ExcelJS.stream.xlsx.WorkbookWriter; db: Db; scope: ExportScope; pace: Pace; nowMs: number; maxSheetRows?: number };
+type Context = { workbook: ExcelJS.stream.xlsx.WorkbookWriter; db: Db; pages: ReturnType<typeof exportPageQueries>; scope: ExportScope; pace: Pace; shared: SharedText; nowMs: number; maxSheetRows?: number };
 
 function table<R>(ctx: Context, name: string, columns: Column<R>[]): TableSheet<R> {
-  return new TableSheet(ctx.workbook, name, columns, ctx.pace, ctx.maxSheetRows);
+  return new TableSheet(ctx.workbook, name, columns, ctx.pace, ctx.shared, ctx.maxSheetRows);
 }
 
 async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteName: string | null): Promise<void> {
@@ -386,8 +396,9 @@ async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteNam
 async function writeFindings(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Findings", FINDING_COLUMNS);
   for (let after = 0; ; ) {
-    const page = findingPage(ctx.db, ctx.scope, after, PAGE_ROWS);
-    for (const row of page) await sheet.add(row);
+    const page = ctx.pages.findings(ctx.scope, after, PAGE_ROWS);
+    for (const row of page) sheet.add(row);
+    await sheet.drain();
     if (page.length < PAGE_ROWS) break;
     after = page[page.length - 1].id;
   }
@@ -398,13 +409,14 @@ async function writeFindings(ctx: Context): Promise<number> {
 async function writeTraces(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Finding traces", TRACE_COLUMNS);
   for (let after = 0; ; ) {
-    const page = tracePage(ctx.db, ctx.scope, after, PAGE_ROWS);
+    const page = ctx.pages.traces(ctx.scope, after, TRACE_PAGE_ROWS);
     for (const finding of page) {
       if (finding.traceJson == null) continue;
-      let step = 0;
-      for (const traceRow of traceRows(finding.traceJson)) await sheet.add({ ...traceRow, findingId: finding.id, step: ++step });
+      const rows = traceRows(finding.traceJson);
+      for (let i = 0; i < rows.length; i++) sheet.add({ findingId: finding.id, step: i + 1, row: rows[i] });
     }
-    if (page.length < PAGE_ROWS) break;
+    await sheet.drain();
+    if (page.length < TRACE_PAGE_ROWS) break;
     after = page[page.length - 1].id;
   }
   await sheet.close();
@@ -414,8 +426,9 @@ async function writeTraces(ctx: Context): Promise<number> {
 async function writeInventory(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Inventory", INVENTORY_COLUMNS);
   for (let after = 0; ; ) {
-    const page = containerPage(ctx.db, ctx.scope, after, PAGE_ROWS);
-    for (const row of page) await sheet.add(row);
+    const page = ctx.pages.containers(ctx.scope, after, PAGE_ROWS);
+    for (const row of page) sheet.add(row);
+    await sheet.drain();
     if (page.length < PAGE_ROWS) break;
     after = page[page.length - 1].id;
   }
@@ -425,9 +438,10 @@ async function writeInventory(ctx: Context): Promise<number> {
 
 async function writeLocations(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Locations", LOCATION_COLUMNS);
+  const worstCases = locationWorstCases(ctx.db, ctx.nowMs);
   for (const room of locationRows(ctx.db, ctx.scope)) {
-    const roomWorst = worstCaseForRoom(room.id, ctx.nowMs, ctx.db);
-    await sheet.add({
+    const roomWorst = worstCases.room(room.id);
+    sheet.add({
       siteName: room.siteName,
       roomCode: room.code,
       roomName: room.name,
@@ -453,8 +467,8 @@ async function writeLocations(ctx: Context): Promise<number> {
       controlLostSource: null,
     });
     for (const unit of room.units) {
-      const worst = worstCaseForUnit(unit.id, ctx.nowMs, ctx.db);
-      await sheet.add({
+      const worst = worstCases.unit(unit.id);
+      sheet.add({
         siteName: room.siteName,
         roomCode: room.code,
         roomName: room.name,
@@ -480,6 +494,7 @@ async function writeLocations(ctx: Context): Promise<number> {
         controlLostSource: worst.controlLost?.description ?? null,
       });
     }
+    await sheet.drain();
   }
   await sheet.close();
   return sheet.rowCount;
@@ -492,8 +507,9 @@ async function writeExcursions(ctx: Context): Promise<number> {
     for (const row of page) {
       // End − start; for an open excursion, up to the sensor's latest reading.
       const endMs = row.endAt?.getTime() ?? row.lastReadingAtMs ?? row.startAt.getTime();
-      await sheet.add({ ...row, durationMin: Math.max(0, (endMs - row.startAt.getTime()) / 60_000) });
+      sheet.add({ ...row, durationMin: Math.max(0, (endMs - row.startAt.getTime()) / 60_000) });
     }
+    await sheet.drain();
     if (page.length < PAGE_ROWS) break;
     after = page[page.length - 1].id;
   }
@@ -507,9 +523,9 @@ async function writeSubstances(ctx: Context): Promise<number> {
   for (const substance of list) {
     const [first, ...further] = (substance.correlations ?? []) as Record<string, unknown>[];
     const base = { substance, correlation: first ?? null, furtherCorrelations: further.length ? further.map(correlationSummary).join(" | ") : null };
-    if (substance.exposureLimits.length === 0) await sheet.add({ ...base, limit: null });
+    if (substance.exposureLimits.length === 0) sheet.add({ ...base, limit: null });
     // One row per exposure limit, the substance's values repeated, so the sheet filters cleanly.
-    for (const limit of substance.exposureLimits) await sheet.add({ ...base, limit });
+    for (const limit of substance.exposureLimits) sheet.add({ ...base, limit });
   }
   await sheet.close();
   return list.length;
@@ -517,12 +533,12 @@ async function writeSubstances(ctx: Context): Promise<number> {
 
 async function writeMethods(ctx: Context): Promise<void> {
   const sheet = table(ctx, "Methods and cautions", METHOD_COLUMNS);
-  for (const m of METHODS) await sheet.add({ section: "Method", ...m });
-  for (const a of assumptions(lookBackDays(ctx.db))) await sheet.add({ section: "Assumption", ...a });
+  for (const m of METHODS) sheet.add({ section: "Method", ...m });
+  for (const a of assumptions(lookBackDays(ctx.db))) sheet.add({ section: "Assumption", ...a });
   const inForce = settingsInForce(ctx.db);
   for (const s of inForce.settings) {
     const isNumber = typeof s.value === "number";
-    await sheet.add({
+    sheet.add({
       section: "Setting",
       item: s.key,
       statement: isNumber ? "" : typeof s.value === "string" ? s.value : JSON.stringify(s.value),
@@ -532,7 +548,7 @@ async function writeMethods(ctx: Context): Promise<void> {
   }
   for (const q of inForce.quantityLimits) {
     const scopeText = q.scope === "flammable_cabinet" ? "Flammable-liquid cabinet" : q.scope === "storage_unit" ? "Storage unit" : "Room";
-    await sheet.add({
+    sheet.add({
       section: "Quantity limit",
       item: `${scopeText}: classes ${q.liquidClasses.join(", ")}`,
       statement: `At most this volume of the classes named${q.sprinkleredMaxVolumeL != null ? `; ${q.sprinkleredMaxVolumeL} L where the room is sprinklered` : ""}.`,
@@ -541,7 +557,7 @@ async function writeMethods(ctx: Context): Promise<void> {
       source: q.basis,
     });
   }
-  for (const c of CAUTIONS) await sheet.add({ section: "Caution", ...c });
+  for (const c of CAUTIONS) sheet.add({ section: "Caution", ...c });
   await sheet.close();
 }
 
@@ -573,18 +589,25 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
   });
   closedEarly.catch(() => {});
 
-  const ctx: Context = { workbook, db, scope, pace: new Pace(output), nowMs: opts.nowMs, maxSheetRows: opts.maxSheetRows };
+  const ctx: Context = { workbook, db, pages: exportPageQueries(db), scope, pace: new Pace(output), shared: sharedTextOf(workbook), nowMs: opts.nowMs, maxSheetRows: opts.maxSheetRows };
   try {
-    await writeSummary(ctx, opts, site?.name ?? null);
-    const findings = await writeFindings(ctx);
-    const traceRowCount = await writeTraces(ctx);
-    const containers = await writeInventory(ctx);
-    const locations = await writeLocations(ctx);
-    const excursions = await writeExcursions(ctx);
-    const substances = await writeSubstances(ctx);
-    await writeMethods(ctx);
-    await Promise.race([workbook.commit(), closedEarly]);
-    return { findings, traceRows: traceRowCount, containers, locations, excursions, substances };
+    const timingsMs: Record<string, number> = {};
+    const timed = async <T>(name: string, write: () => Promise<T>): Promise<T> => {
+      const startedAt = performance.now();
+      const result = await write();
+      timingsMs[name] = Math.round(performance.now() - startedAt);
+      return result;
+    };
+    await timed("Summary", () => writeSummary(ctx, opts, site?.name ?? null));
+    const findings = await timed("Findings", () => writeFindings(ctx));
+    const traceRowCount = await timed("Finding traces", () => writeTraces(ctx));
+    const containers = await timed("Inventory", () => writeInventory(ctx));
+    const locations = await timed("Locations", () => writeLocations(ctx));
+    const excursions = await timed("Excursions", () => writeExcursions(ctx));
+    const substances = await timed("Substances", () => writeSubstances(ctx));
+    await timed("Methods and cautions", () => writeMethods(ctx));
+    await timed("commit", () => Promise.race([workbook.commit(), closedEarly]));
+    return { findings, traceRows: traceRowCount, containers, locations, excursions, substances, timingsMs };
   } finally {
     output.off("close", onClose);
   }

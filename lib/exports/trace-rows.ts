@@ -72,81 +72,82 @@ function isEngineTrace(v: Obj): boolean {
   return typeof v.method === "string" && (Array.isArray(v.steps) || Array.isArray(v.inputs));
 }
 
-function* rest(v: Obj, used: readonly string[], path: string, depth: number): Generator<TraceRow> {
-  for (const [key, child] of Object.entries(v)) if (!used.includes(key)) yield* walk(child, join(path, key), key, depth + 1);
+function rest(out: TraceRow[], v: Obj, used: readonly string[], path: string, depth: number): void {
+  for (const key in v) if (!used.includes(key)) walk(out, v[key], join(path, key), key, depth + 1);
 }
 
-function* namedValueRows(v: Obj, path: string, depth: number, prefix = ""): Generator<TraceRow> {
-  yield row(path, { label: prefix + namedValueLabel(v), value: cellValue(v.value), unit: str(v.unit), note: str(v.source) ?? str(v.note) });
-  yield* rest(v, ["name", "symbol", "value", "unit", "source", "note"], path, depth);
+function namedValueRows(out: TraceRow[], v: Obj, path: string, depth: number, prefix = ""): void {
+  out.push(row(path, { label: prefix + namedValueLabel(v), value: cellValue(v.value), unit: str(v.unit), note: str(v.source) ?? str(v.note) }));
+  rest(out, v, ["name", "symbol", "value", "unit", "source", "note"], path, depth);
 }
 
-function* stepRows(v: Obj, path: string, depth: number): Generator<TraceRow> {
+function stepRows(out: TraceRow[], v: Obj, path: string, depth: number): void {
   const result = isObject(v.result) && isNamedValue(v.result) ? v.result : null;
   const resultNote = result ? [namedValueLabel(result), str(result.source)].filter(Boolean).join("; ") : null;
-  yield row(path, {
+  out.push(row(path, {
     label: str(v.description) ?? str(v.label),
     formula: str(v.formula) ?? str(v.method),
     substituted: str(v.substituted),
     value: cellValue(result ? result.value : v.value),
     unit: str(result ? result.unit : v.unit),
     note: [str(v.note), str(v.source), resultNote].filter(Boolean).join("; ") || null,
-  });
-  yield* rest(v, ["description", "label", "formula", "method", "substituted", "value", "unit", "note", "source", "result"].filter((k) => k !== "result" || result), path, depth);
+  }));
+  rest(out, v, ["description", "label", "formula", "method", "substituted", "value", "unit", "note", "source", "result"].filter((k) => k !== "result" || result), path, depth);
 }
 
-function* engineTraceRows(v: Obj, path: string, depth: number): Generator<TraceRow> {
-  yield row(join(path, "method"), { label: "Method", formula: String(v.method), note: str(v.source) });
+function engineTraceRows(out: TraceRow[], v: Obj, path: string, depth: number): void {
+  out.push(row(join(path, "method"), { label: "Method", formula: String(v.method), note: str(v.source) }));
   const inputs = Array.isArray(v.inputs) ? v.inputs : [];
   for (let i = 0; i < inputs.length; i++) {
     const input = inputs[i];
     const at = `${join(path, "inputs")}[${i + 1}]`;
-    if (isObject(input) && isNamedValue(input)) yield* namedValueRows(input, at, depth + 1, "Input: ");
-    else yield* walk(input, at, "input", depth + 1);
+    if (isObject(input) && isNamedValue(input)) namedValueRows(out, input, at, depth + 1, "Input: ");
+    else walk(out, input, at, "input", depth + 1);
   }
   const steps = Array.isArray(v.steps) ? v.steps : [];
-  for (let i = 0; i < steps.length; i++) yield* walk(steps[i], `${join(path, "steps")}[${i + 1}]`, "step", depth + 1);
-  if (isObject(v.result) && isNamedValue(v.result)) yield* namedValueRows(v.result, join(path, "result"), depth + 1, "Result: ");
-  else if (v.result !== undefined) yield* walk(v.result, join(path, "result"), "result", depth + 1);
+  for (let i = 0; i < steps.length; i++) walk(out, steps[i], `${join(path, "steps")}[${i + 1}]`, "step", depth + 1);
+  if (isObject(v.result) && isNamedValue(v.result)) namedValueRows(out, v.result, join(path, "result"), depth + 1, "Result: ");
+  else if (v.result !== undefined) walk(out, v.result, join(path, "result"), "result", depth + 1);
   const warnings = Array.isArray(v.warnings) ? v.warnings : v.warnings === undefined ? [] : [v.warnings];
   for (let i = 0; i < warnings.length; i++) {
     const at = `${join(path, "warnings")}[${i + 1}]`;
-    if (typeof warnings[i] === "string") yield row(at, { label: "Warning", note: warnings[i] as string });
-    else yield* walk(warnings[i], at, "warning", depth + 1);
+    if (typeof warnings[i] === "string") out.push(row(at, { label: "Warning", note: warnings[i] as string }));
+    else walk(out, warnings[i], at, "warning", depth + 1);
   }
-  yield* rest(v, ["method", "source", "inputs", "steps", "result", "warnings"], path, depth);
+  rest(out, v, ["method", "source", "inputs", "steps", "result", "warnings"], path, depth);
 }
 
-function* walk(node: unknown, path: string, key: string, depth: number): Generator<TraceRow> {
+function walk(out: TraceRow[], node: unknown, path: string, key: string, depth: number): void {
   if (node === null || node === undefined) return;
   if (depth > MAX_DEPTH) {
-    yield row(path, { label: key, value: cellValue(node), note: "nested too deeply to unfold; shown as JSON" });
+    out.push(row(path, { label: key, value: cellValue(node), note: "nested too deeply to unfold; shown as JSON" }));
     return;
   }
   if (Array.isArray(node)) {
-    for (let i = 0; i < node.length; i++) yield* walk(node[i], `${path}[${i + 1}]`, key, depth + 1);
+    for (let i = 0; i < node.length; i++) walk(out, node[i], `${path}[${i + 1}]`, key, depth + 1);
     return;
   }
   if (!isObject(node)) {
-    yield row(path, { label: key || null, value: cellValue(node) });
+    out.push(row(path, { label: key || null, value: cellValue(node) }));
     return;
   }
-  if (isEngineTrace(node)) yield* engineTraceRows(node, path, depth);
-  else if (isStep(node)) yield* stepRows(node, path, depth);
-  else if (isNamedValue(node)) yield* namedValueRows(node, path, depth);
-  else for (const [childKey, child] of Object.entries(node)) yield* walk(child, join(path, childKey), childKey, depth + 1);
+  if (isEngineTrace(node)) engineTraceRows(out, node, path, depth);
+  else if (isStep(node)) stepRows(out, node, path, depth);
+  else if (isNamedValue(node)) namedValueRows(out, node, path, depth);
+  else for (const childKey in node) walk(out, node[childKey], join(path, childKey), childKey, depth + 1);
 }
 
 /** The rows of one stored trace, in the trace's own order. A trace stored as a JSON string is parsed first. */
-export function* traceRows(trace: unknown): Generator<TraceRow> {
+export function traceRows(trace: unknown): TraceRow[] {
   let value = trace;
   if (typeof value === "string") {
     try {
       value = JSON.parse(value);
     } catch {
-      yield row("", { label: "Trace", value: cellValue(value) });
-      return;
+      return [row("", { label: "Trace", value: cellValue(value) })];
     }
   }
-  yield* walk(value, "", "", 0);
+  const out: TraceRow[] = [];
+  walk(out, value, "", "", 0);
+  return out;
 }

@@ -8,8 +8,13 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import ExcelJS from "exceljs";
 import { getDb } from "@/db/client";
-import { auditEvents, containers, excursions, exposureLimits, findings, rooms, sensors, sites, storageUnits, substances, type User } from "@/db/schema";
+import { auditEvents, containers, excursions, exposureLimits, findings, readings, rooms, sensors, sites, storageUnits, substances, type User } from "@/db/schema";
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
+import { PassThrough, Writable } from "node:stream";
+import { locationWorstCases } from "@/lib/exports/location-worst-cases";
+import { writeRegisterWorkbook } from "@/lib/exports/register-workbook";
+import { ExportCancelledError } from "@/lib/exports/table-sheet";
+import { worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
 import { makeUser, sessionCookieFor } from "./helpers/world";
 
 const RAISED_AT = Date.parse("2026-08-01T09:30:00Z");
@@ -389,5 +394,79 @@ describe("the site filter and who may download", () => {
     const anonymous = await download(null);
     expect(anonymous.status).toBe(401);
     expect((await anonymous.json()).error.code).toBe("unauthenticated");
+  });
+});
+
+describe("the Locations sheet's worst cases", () => {
+  it("are those of worstCaseForRoom and worstCaseForUnit, for rooms and units with and without sensors", () => {
+    const db = getDb();
+    const nowMs = Date.parse("2026-08-03T12:00:00Z");
+    const hour = 3_600_000;
+    const site = db.insert(sites).values({ name: "Temperature campus" }).returning().get().id;
+    const hot = db.insert(rooms).values({ siteId: site, code: "T-1", name: "Warm store", designMaxTempC: 25 }).returning().get().id;
+    const bare = db.insert(rooms).values({ siteId: site, code: "T-2", name: "No data" }).returning().get().id;
+    const fridge = db.insert(storageUnits).values({ roomId: hot, code: "TF-1", name: "Fridge", kind: "domestic_refrigerator", setMaxC: 8 }).returning().get().id;
+    const shelf = db.insert(storageUnits).values({ roomId: hot, code: "TS-1", name: "Shelf", kind: "open_shelving" }).returning().get().id;
+    const bareShelf = db.insert(storageUnits).values({ roomId: bare, code: "TS-2", name: "Shelf", kind: "open_shelving" }).returning().get().id;
+    const roomLogger = db.insert(sensors).values({ externalId: "T-ROOM-A", name: "Room A", roomId: hot }).returning().get().id;
+    const roomLogger2 = db.insert(sensors).values({ externalId: "T-ROOM-B", name: "Room B", roomId: hot }).returning().get().id;
+    const fridgeLogger = db.insert(sensors).values({ externalId: "T-FRIDGE", name: "Fridge", storageUnitId: fridge }).returning().get().id;
+    const shelfLogger = db.insert(sensors).values({ externalId: "T-SHELF", name: "Shelf", storageUnitId: shelf }).returning().get().id;
+    const at = (hoursAgo: number) => new Date(nowMs - hoursAgo * hour);
+    db.insert(readings)
+      .values([
+        { sensorId: roomLogger, at: at(500 * 24), tempC: 40 }, // outside the 365-day look-back
+        { sensorId: roomLogger, at: at(30), tempC: 31 },
+        { sensorId: roomLogger2, at: at(20), tempC: 31 }, // a tie: the later reading names the source
+        { sensorId: roomLogger2, at: at(10), tempC: 22 },
+        { sensorId: fridgeLogger, at: at(5), tempC: 9.5 },
+        { sensorId: shelfLogger, at: at(4), tempC: 24 },
+      ])
+      .run();
+    db.insert(excursions).values({ sensorId: fridgeLogger, storageUnitId: fridge, thresholdC: 9, startAt: at(6), peakTempC: 12, peakAt: at(5.5) }).run();
+
+    const book = locationWorstCases(db, nowMs);
+    for (const roomId of [hot, bare, 999_999]) expect(book.room(roomId)).toEqual(worstCaseForRoom(roomId, nowMs, db));
+    for (const unitId of [fridge, shelf, bareShelf, 999_999]) expect(book.unit(unitId)).toEqual(worstCaseForUnit(unitId, nowMs, db));
+    // The values themselves (from the readings and excursion inserted above):
+    expect(book.room(hot)?.tempC).toBe(31);
+    expect(book.room(hot)?.description).toContain("T-ROOM-B");
+    expect(book.unit(fridge).inControl?.tempC).toBe(12);
+    expect(book.unit(fridge).controlLost?.tempC).toBe(31);
+    expect(book.unit(shelf).inControl?.tempC).toBe(31);
+    expect(book.room(bare)).toBeNull();
+  });
+});
+
+describe("writeRegisterWorkbook", () => {
+  async function toBuffer(write: (output: Writable) => Promise<unknown>): Promise<Buffer> {
+    const output = new PassThrough();
+    const chunks: Buffer[] = [];
+    output.on("data", (chunk: Buffer) => chunks.push(chunk));
+    await write(output);
+    return Buffer.concat(chunks);
+  }
+
+  it("continues a table too long for one worksheet on the next, each part with its header, frozen row and filter", async () => {
+    const bytes = await toBuffer((output) => writeRegisterWorkbook(output, { generatedBy: "test", nowMs: Date.now(), maxSheetRows: 4, siteId }));
+    const workbook = new ExcelJS.Workbook();
+    await workbook.xlsx.load(bytes as unknown as ExcelJS.Buffer);
+    // The finding's trace has 6 rows: 3 per part below a header row.
+    expect(workbook.worksheets.map((s) => s.name)).toEqual(["Summary", "Findings", "Finding traces", "Finding traces (2)", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions", "Methods and cautions (2)", "Methods and cautions (3)", "Methods and cautions (4)", "Methods and cautions (5)", "Methods and cautions (6)", "Methods and cautions (7)", "Methods and cautions (8)"]);
+    for (const name of ["Finding traces", "Finding traces (2)"]) {
+      const sheet = workbook.getWorksheet(name)!;
+      expect(headers(sheet)[0]).toBe("Finding ID");
+      expect(sheet.views[0]).toMatchObject({ state: "frozen", ySplit: 1 });
+      expect(sheet.autoFilter).toBeTruthy();
+    }
+    const steps = [...rowsOf(workbook.getWorksheet("Finding traces")!), ...rowsOf(workbook.getWorksheet("Finding traces (2)")!)].map((r) => r["Step"].value);
+    expect(steps).toEqual([1, 2, 3, 4, 5, 6]);
+  });
+
+  it("stops with ExportCancelledError when its output closes early", async () => {
+    const output = new PassThrough();
+    output.once("data", () => output.destroy());
+    output.resume();
+    await expect(writeRegisterWorkbook(output, { generatedBy: "test", nowMs: Date.now() })).rejects.toBeInstanceOf(ExportCancelledError);
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { traceRows } from "@/lib/exports/trace-rows";
 
-const rows = (trace: unknown) => [...traceRows(trace)];
+const rows = (trace: unknown) => traceRows(trace);
 const brief = (trace: unknown) => rows(trace).map((r) => [r.path, r.label, r.value, r.unit]);
 
 describe("traceRows", () => {
