@@ -54,10 +54,14 @@ async function exportOnly(outFile: string): Promise<void> {
   const startMs = performance.now();
   const startCpu = process.cpuUsage();
   const output = fs.createWriteStream(outFile);
-  const counts = await writeRegisterWorkbook(output, { generatedBy: "Bench <bench@example.test>", nowMs: Date.now() });
+  let counts: RegisterWorkbookResult;
+  try {
+    counts = await writeRegisterWorkbook(output, { generatedBy: "Bench <bench@example.test>", nowMs: Date.now() });
+  } finally {
+    clearInterval(sampler);
+  }
   const seconds = (performance.now() - startMs) / 1000;
   const cpu = process.cpuUsage(startCpu);
-  clearInterval(sampler);
   peakRss = Math.max(peakRss, process.memoryUsage().rss);
   closeDb();
   const figures: ExportFigures = { seconds, cpuSeconds: (cpu.user + cpu.system) / 1e6, peakRssMb: peakRss / 2 ** 20, startRssMb, bytes: fs.statSync(outFile).size, counts };
@@ -263,5 +267,5 @@ async function main(): Promise<void> {
 
 main().catch((error) => {
   console.error(error);
-  process.exitCode = 0;
+  process.exitCode = 1;
 });

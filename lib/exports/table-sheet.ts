@@ -109,18 +109,23 @@ export class ExportCancelledError extends Error {
   }
 }
 
-function once(stream: Writable, event: "drain"): Promise<void> {
+/** Resolves on the stream's "drain", or as soon as either stream closes or fails (nothing will drain then). */
+function drained(stream: Writable, output: Writable): Promise<void> {
   return new Promise((resolve) => {
     const done = () => {
-      stream.off(event, done);
-      stream.off("close", done);
+      for (const [target, event] of listeners) target.off(event, done);
       resolve();
     };
-    stream.on(event, done);
-    stream.on("close", done);
+    const listeners: [Writable, string][] = [
+      [stream, "drain"],
+      [stream, "close"],
+      [stream, "error"],
+      [output, "close"],
+      [output, "error"],
+    ];
+    for (const [target, event] of listeners) target.on(event, done);
   });
 }
-
 
 /**
  * Lets the compressor and the reader keep up: waits while more than a few MB wait in front of the
@@ -134,12 +139,12 @@ export class Pace {
     for (;;) {
       if (this.output.destroyed) throw new ExportCancelledError();
       if (this.output.writableNeedDrain) {
-        await once(this.output, "drain");
+        await drained(this.output, this.output);
         continue;
       }
       const entry = sheet?.pipes?.[0];
       if (entry && backlogBytes(entry) > MAX_BACKLOG_BYTES) {
-        await once(entry, "drain");
+        await drained(entry, this.output);
         continue;
       }
       break;
