@@ -1,0 +1,17 @@
+import { registerExportQuerySchema } from "@/lib/exports/schemas";
+import { startRegisterDownload } from "@/lib/exports/service";
+import { route } from "@/lib/http/route";
+
+/** The register as an Excel workbook for audits, streamed (safety officers, auditors, admins); `?siteId=` for one site. */
+export const GET = route({ action: "exports.download", schema: registerExportQuerySchema }, ({ user, input }) => {
+  const { body, fileName } = startRegisterDownload(user, input);
+  return new Response(body, {
+    status: 200,
+    headers: {
+      "Content-Type": "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet",
+      "Content-Disposition": `attachment; filename="${fileName}"`,
+      "Cache-Control": "private, no-store",
+      "X-Content-Type-Options": "nosniff",
+    },
+  });
+});
