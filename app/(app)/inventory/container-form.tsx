@@ -9,6 +9,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
 import { AMOUNT_UNITS, CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { containerCreateSchema, containerEditFormSchema } from "@/lib/inventory/schemas";
+import { WhatIfPanel } from "./what-if-panel";
 
 type UnitOption = { id: number; code: string; name: string; roomCode: string; roomName: string; siteName: string };
 type Person = { id: number; name: string };
@@ -215,6 +216,9 @@ export function ContainerForm({
           return <textarea {...props} key={props.key} rows={2} className={`${inputClass} h-auto py-2`} />;
         })()}
       </Field>
+
+      {/* The what-if adds a new container; an edited one is already counted where it stands. */}
+      {mode === "create" ? <WhatIfPanel formId={form.id} /> : null}
 
       <Button type="submit" disabled={pending}>
         {pending ? "Saving…" : mode === "create" ? "Log container" : "Save changes"}

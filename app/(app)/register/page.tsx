@@ -3,6 +3,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { Suspense } from "react";
 import { Caution } from "@/components/ui/caution";
+import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SEVERITY_STYLE } from "@/components/ui/severity";
 import { countFindingsBySeverity } from "@/db/queries/findings";
@@ -14,6 +15,7 @@ import { formatCount } from "@/lib/format/numbers";
 import { RULE_LABELS } from "@/lib/register/rule-labels";
 import { findingListQuerySchema } from "@/lib/register/schemas";
 import { defaultRegisterView } from "@/lib/register/views";
+import { ReassessmentBanner } from "./reassessment-banner";
 import { registerFilters } from "./register-columns";
 import { RegisterTable } from "./register-table";
 import { SaveViewForm } from "./save-view-form";
@@ -46,7 +48,13 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
             ? "Findings on your containers and the locations you look after."
             : "Every finding the assessment has raised, with its status and history. Findings are never deleted."
         }
+        actions={
+          <Link href="/register/settings" className={buttonClass("secondary", "sm")}>
+            Thresholds and assumptions
+          </Link>
+        }
       />
+      <ReassessmentBanner />
       <section aria-label="Findings by severity in this view" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {SEVERITIES.map((severity) => {
           const style = SEVERITY_STYLE[severity];

@@ -1,0 +1,174 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import type { ReactNode } from "react";
+import { Caution } from "@/components/ui/caution";
+import { Card, PageHeader } from "@/components/ui/card";
+import { SeverityBadge } from "@/components/ui/severity";
+import type { Severity } from "@/db/enums";
+import type { AssessmentSettings } from "@/lib/assessment/rules";
+import { loadAssessmentSettings } from "@/lib/assessment/service";
+import { requirePagePermission } from "@/lib/auth/page";
+import { can } from "@/lib/auth/permissions";
+import { formatCount, formatNumber } from "@/lib/format/numbers";
+import { ReassessmentBanner } from "../reassessment-banner";
+import { SettingsForm } from "./settings-form";
+
+export const metadata: Metadata = { title: "Thresholds and assumptions" };
+
+type Group = { title: string; rows: [string, ReactNode][]; source: string };
+
+const percent = (fraction: number | null) => (fraction == null ? "not used" : `${formatNumber(fraction * 100)} %`);
+const sev = (severity: Severity) => <SeverityBadge severity={severity} />;
+const MODEL_LABELS: Record<AssessmentSettings["spill"]["evaporationModel"], string> = { "epa-rmp": "US EPA RMP (Eq. D-1)", "mackay-matsugu": "Mackay–Matsugu" };
+const MISSING_LABELS: Record<string, string> = {
+  "no-vapor-pressure-method": "No vapour-pressure method",
+  "no-correlation": "No vapour-pressure correlation (estimate used)",
+  "no-lfl": "No LFL",
+  "no-flash-point": "No flash point",
+  "no-room-volume": "No room volume",
+  "no-air-changes": "No air-change rate",
+  "no-unit-volume": "No unit volume",
+  "no-worst-case": "No worst-case temperature",
+  "no-density": "No density",
+  "no-exposure-limit": "No exposure limit",
+  "no-expansion-data": "No gas-expansion data",
+  "calculation-failed": "A calculation failed",
+};
+
+function groups(s: AssessmentSettings): Group[] {
+  return [
+    {
+      title: "Flammable vapour (share of the LFL)",
+      rows: [
+        ["Moderate from", percent(s.lfl.moderate)],
+        ["High from", percent(s.lfl.high)],
+        ["Critical from", percent(s.lfl.critical)],
+      ],
+      source: s.lfl.source,
+    },
+    {
+      title: "Flash point",
+      rows: [
+        ["Margin below the flash point", `${formatNumber(s.flashPoint.marginC)} °C`],
+        ["At or above the flash point", sev(s.flashPoint.atOrAboveSeverity)],
+        ["Within the margin", sev(s.flashPoint.withinMarginSeverity)],
+      ],
+      source: s.flashPoint.source,
+    },
+    { title: "Boiling point", rows: [["At or above the boiling point", sev(s.boilingPoint.severity)]], source: s.boilingPoint.source },
+    {
+      title: "Flammable liquids near ignition sources",
+      rows: [
+        ["Category 1 and 2", sev(s.ignitionSource.category1And2Severity)],
+        ["Category 3", sev(s.ignitionSource.category3Severity)],
+      ],
+      source: s.ignitionSource.source,
+    },
+    {
+      title: "Spill assumptions",
+      rows: [
+        ["Pool depth", `${formatNumber(s.spill.poolDepthM * 100)} cm`],
+        ["Pool limited to the floor area", s.spill.limitPoolToFloorArea ? "Yes" : "No"],
+        ["Air speed over the pool", `${formatNumber(s.spill.airSpeedMPerS)} m/s`],
+        ["Duration", `${formatNumber(s.spill.durationMin)} min`],
+        ["Evaporation model", MODEL_LABELS[s.spill.evaporationModel]],
+        ["Schmidt number (Mackay–Matsugu only)", formatNumber(s.spill.schmidtNumber)],
+      ],
+      source: s.spill.source,
+    },
+    {
+      title: "Exposure",
+      rows: [
+        ["Action level (share of the TWA)", percent(s.exposure.twaActionFraction)],
+        ["Above the action level", sev(s.exposure.actionSeverity)],
+        ["Above the TWA", sev(s.exposure.twaSeverity)],
+        ["Above the STEL", sev(s.exposure.stelSeverity)],
+        ["Above a ceiling", sev(s.exposure.ceilingSeverity)],
+        ["Above the IDLH", sev(s.exposure.idlhSeverity)],
+        ["Needs no limit (CAS)", s.exposure.noLimitNeededCas.length ? <span className="font-mono">{s.exposure.noLimitNeededCas.join(", ")}</span> : "—"],
+      ],
+      source: s.exposure.source,
+    },
+    {
+      title: "Oxygen (cryogens and compressed gases)",
+      rows: [
+        ["Normal air", `${formatNumber(s.oxygen.baselinePercent)} % O₂`],
+        ["Deficient below", `${formatNumber(s.oxygen.deficiencyPercent)} % O₂`],
+        ["Evacuate below", `${formatNumber(s.oxygen.evacuatePercent)} % O₂`],
+        ["Deficient", sev(s.oxygen.deficiencySeverity)],
+        ["Evacuate", sev(s.oxygen.evacuateSeverity)],
+        ["Gas volumes at", `${formatNumber(s.oxygen.expansionReferenceTempC)} °C`],
+      ],
+      source: s.oxygen.source,
+    },
+    {
+      title: "Carbon dioxide",
+      rows: s.carbonDioxide.limits.map((limit) => [`${limit.body} ${limit.kind}`, `${formatCount(limit.valuePpm)} ppm`] as [string, ReactNode]),
+      source: s.carbonDioxide.source,
+    },
+    {
+      title: "Quantities",
+      rows: [
+        ["Early warning from", percent(s.quantities.warnFraction)],
+        ["Near a limit", sev(s.quantities.warnSeverity)],
+        ["Over a limit", sev(s.quantities.exceededSeverity)],
+        ["Quantity limits", `${formatCount(s.quantities.limits.length)} (${s.quantities.limits.map((l) => l.name).join("; ") || "none"})`],
+      ],
+      source: s.quantities.source,
+    },
+    {
+      title: "Missing data",
+      rows: Object.entries(s.missingData.severities).map(([kind, severity]) => [MISSING_LABELS[kind] ?? kind, sev(severity)] as [string, ReactNode]),
+      source: s.missingData.source,
+    },
+  ];
+}
+
+/** The thresholds and assumptions every assessment applies; safety officers change them here. */
+export default async function AssessmentSettingsPage() {
+  const { user } = await requirePagePermission("findings.read");
+  const settings = loadAssessmentSettings();
+  const editable = can(user.role, "hazardSettings.write");
+  return (
+    <div className="space-y-5">
+      <PageHeader
+        title="Thresholds and assumptions"
+        description="What the assessment counts as moderate, high or critical, and the assumptions behind its worst cases. They are the organisation's defaults until a safety officer changes them; every location is then re-assessed."
+        actions={
+          <Link href="/register" className="text-sm font-medium text-accent-700 underline-offset-2 hover:underline">
+            Back to the register
+          </Link>
+        }
+      />
+      {editable ? (
+        <Card title="Change the main thresholds">
+          <SettingsForm settings={settings} progress={<ReassessmentBanner />} />
+        </Card>
+      ) : (
+        <>
+          <ReassessmentBanner />
+          <p className="text-sm text-ink-600">Only safety officers and administrators can change these.</p>
+        </>
+      )}
+      <div className="grid gap-4 lg:grid-cols-2">
+        {groups(settings).map((group) => (
+          <Card key={group.title} title={group.title}>
+            <dl className="grid grid-cols-[minmax(0,1fr)_auto] gap-x-4 gap-y-1.5 text-sm">
+              {group.rows.map(([label, value]) => (
+                <div key={label} className="contents">
+                  <dt className="text-ink-600">{label}</dt>
+                  <dd className="tabular text-right font-medium text-ink-900">{value}</dd>
+                </div>
+              ))}
+            </dl>
+            <p className="mt-3 border-t border-ink-100 pt-2 text-xs text-ink-600">
+              <span className="font-semibold text-ink-700">Source: </span>
+              {group.source}
+            </p>
+          </Card>
+        ))}
+      </div>
+      <Caution />
+    </div>
+  );
+}

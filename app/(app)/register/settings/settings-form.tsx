@@ -1,0 +1,150 @@
+"use client";
+import { useRouter } from "next/navigation";
+import { useState, type FormEvent, type ReactNode } from "react";
+import { Button } from "@/components/ui/button";
+import { describedBy, Field, inputClass } from "@/components/ui/field";
+import { FormMessage } from "@/components/ui/form-message";
+import type { AssessmentSettings } from "@/lib/assessment/rules";
+
+/** One editable number: its API path, how it is shown (a % of a fraction, cm of metres…). */
+type FieldSpec = { path: string; label: string; unit: string; toShown: (s: AssessmentSettings) => number; fromShown: (s: AssessmentSettings, shown: number) => AssessmentSettings };
+
+const round = (value: number) => Number(value.toPrecision(12));
+
+const FIELDS: { legend: string; fields: FieldSpec[] }[] = [
+  {
+    legend: "Flammable vapour (share of the LFL)",
+    fields: (["moderate", "high", "critical"] as const).map((level) => ({
+      path: `lfl.${level}`,
+      label: `${level[0].toUpperCase()}${level.slice(1)} from`,
+      unit: "% LFL",
+      toShown: (s) => round(s.lfl[level] * 100),
+      fromShown: (s, shown) => ({ ...s, lfl: { ...s.lfl, [level]: round(shown / 100) } }),
+    })),
+  },
+  {
+    legend: "Flash point",
+    fields: [
+      {
+        path: "flashPoint.marginC",
+        label: "Margin below the flash point",
+        unit: "°C",
+        toShown: (s) => s.flashPoint.marginC,
+        fromShown: (s, shown) => ({ ...s, flashPoint: { ...s.flashPoint, marginC: shown } }),
+      },
+    ],
+  },
+  {
+    legend: "Spill assumptions",
+    fields: [
+      {
+        path: "spill.poolDepthM",
+        label: "Pool depth",
+        unit: "cm",
+        toShown: (s) => round(s.spill.poolDepthM * 100),
+        fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, poolDepthM: round(shown / 100) } }),
+      },
+      {
+        path: "spill.durationMin",
+        label: "Duration",
+        unit: "min",
+        toShown: (s) => s.spill.durationMin,
+        fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, durationMin: shown } }),
+      },
+      {
+        path: "spill.airSpeedMPerS",
+        label: "Air speed over the pool",
+        unit: "m/s",
+        toShown: (s) => s.spill.airSpeedMPerS,
+        fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, airSpeedMPerS: shown } }),
+      },
+    ],
+  },
+];
+const ALL_FIELDS = FIELDS.flatMap((group) => group.fields);
+
+type ApiError = { error?: { code?: string; message?: string; fields?: Record<string, string[]> } };
+
+/**
+ * The main thresholds as a form. Saving sends the whole settings object (the fields here merged
+ * into the current one) and the server re-assesses every location; `progress` shows that job.
+ */
+export function SettingsForm({ settings, progress }: { settings: AssessmentSettings; progress: ReactNode }) {
+  const router = useRouter();
+  const [values, setValues] = useState<Record<string, string>>(() => Object.fromEntries(ALL_FIELDS.map((f) => [f.path, String(f.toShown(settings))])));
+  const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
+  const [formError, setFormError] = useState<string | undefined>();
+  const [saved, setSaved] = useState(false);
+  const [pending, setPending] = useState(false);
+
+  const submit = async (event: FormEvent<HTMLFormElement>) => {
+    event.preventDefault();
+    setSaved(false);
+    setFormError(undefined);
+    const errors: Record<string, string[]> = {};
+    let next = settings;
+    for (const field of ALL_FIELDS) {
+      const text = values[field.path].trim().replace(",", ".");
+      const shown = Number(text);
+      if (!text || !Number.isFinite(shown)) errors[field.path] = [`Enter a number in ${field.unit}.`];
+      else next = field.fromShown(next, shown);
+    }
+    setFieldErrors(errors);
+    if (Object.keys(errors).length) return;
+    setPending(true);
+    try {
+      const response = await fetch("/api/v1/settings/assessment", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(next) });
+      const body = (await response.json().catch(() => null)) as ApiError | null;
+      if (!response.ok) {
+        const fields = body?.error?.fields ?? {};
+        setFieldErrors(fields);
+        const unplaced = Object.entries(fields).filter(([path]) => !ALL_FIELDS.some((f) => f.path === path));
+        const message = response.status === 401 ? "Your session has ended. Sign in again, then save once more." : (body?.error?.message ?? `The server answered with an error (${response.status}).`);
+        setFormError([message, ...unplaced.map(([path, list]) => `${path}: ${list.join(" ")}`)].join(" "));
+        return;
+      }
+      setSaved(true);
+      router.refresh();
+    } catch {
+      setFormError("The settings could not be sent. Check the connection and try again.");
+    } finally {
+      setPending(false);
+    }
+  };
+
+  return (
+    <form onSubmit={submit} noValidate className="space-y-5">
+      <FormMessage errors={formError ? [formError] : undefined} success={saved ? "Saved. Re-assessing every location…" : undefined} />
+      {saved ? progress : null}
+      {FIELDS.map((group) => (
+        <fieldset key={group.legend} className="grid gap-4 sm:grid-cols-3">
+          <legend className="mb-2 text-sm font-semibold text-ink-900">{group.legend}</legend>
+          {group.fields.map((field) => {
+            const id = `setting-${field.path.replace(".", "-")}`;
+            const errors = fieldErrors[field.path];
+            return (
+              <Field key={field.path} id={id} label={`${field.label} (${field.unit})`} errors={errors}>
+                <input
+                  id={id}
+                  name={field.path}
+                  type="number"
+                  step="any"
+                  inputMode="decimal"
+                  className={inputClass}
+                  value={values[field.path]}
+                  aria-invalid={errors?.length ? true : undefined}
+                  aria-describedby={describedBy(id, undefined, errors)}
+                  onChange={(event) => setValues((v) => ({ ...v, [field.path]: event.target.value }))}
+                />
+              </Field>
+            );
+          })}
+        </fieldset>
+      ))}
+      <p className="text-xs text-ink-600">Saving re-assesses every location in the background; the register updates as it goes.</p>
+      <Button type="submit" disabled={pending}>
+        {pending ? "Saving…" : "Save and re-assess"}
+      </Button>
+    </form>
+  );
+}
