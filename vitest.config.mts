@@ -21,6 +21,8 @@ export default defineConfig({
           include: ["tests/integration/**/*.test.ts"],
           setupFiles: ["tests/integration/setup.ts"],
           testTimeout: 20_000,
+          // Seeding the demo (a year of readings and the first assessment) takes a few seconds, more on a busy machine.
+          hookTimeout: 60_000,
         },
       },
     ],
