@@ -35,7 +35,7 @@ export default defineConfig({
     // A fresh demo database, a production build, the server and the e-mail fake beside it.
     command: "npm run demo -- --fresh",
     url: `${BASE_URL}/api/health`,
-    timeout: 240_000,
+    timeout: 600_000,
     reuseExistingServer: !process.env.CI,
     stdout: "pipe",
     env: {
