@@ -49,7 +49,7 @@ export function previewRequestFrom(data: FormData): Request | null {
 export function changeNote(finding: PreviewFinding): string {
   if (finding.isNew || !finding.previous) return "new";
   const parts = [SEVERITY_STYLE[finding.previous.severity].label.toLowerCase()];
-  if (finding.previous.ratio != null && Number.isFinite(finding.previous.ratio)) parts.push(`${formatNumber(finding.previous.ratio * 100, 2)} %`);
+  if (finding.previous.ratio != null && Number.isFinite(finding.previous.ratio)) parts.push(`${formatNumber(finding.previous.ratio * 100)} %`);
   return `worse than now (was ${parts.join(", ")})`;
 }
 

@@ -15,7 +15,7 @@ import { SettingsForm } from "./settings-form";
 
 export const metadata: Metadata = { title: "Thresholds and assumptions" };
 
-type Group = { title: string; rows: [string, ReactNode][]; source: string };
+type Group = { title: string; rows: [string, ReactNode][]; list?: string[]; source: string };
 
 const percent = (fraction: number | null) => (fraction == null ? "not used" : `${formatNumber(fraction * 100)} %`);
 const sev = (severity: Severity) => <SeverityBadge severity={severity} />;
@@ -112,8 +112,9 @@ function groups(s: AssessmentSettings): Group[] {
         ["Early warning from", percent(s.quantities.warnFraction)],
         ["Near a limit", sev(s.quantities.warnSeverity)],
         ["Over a limit", sev(s.quantities.exceededSeverity)],
-        ["Quantity limits", `${formatCount(s.quantities.limits.length)} (${s.quantities.limits.map((l) => l.name).join("; ") || "none"})`],
+        ["Quantity limits", formatCount(s.quantities.limits.length)],
       ],
+      list: s.quantities.limits.map((limit) => `${limit.name}: ${formatNumber(limit.maxVolumeL)} L${limit.sprinkleredMaxVolumeL != null ? ` (${formatNumber(limit.sprinkleredMaxVolumeL)} L sprinklered)` : ""}`),
       source: s.quantities.source,
     },
     {
@@ -161,6 +162,13 @@ export default async function AssessmentSettingsPage() {
                 </div>
               ))}
             </dl>
+            {group.list?.length ? (
+              <ul className="mt-2 list-disc space-y-0.5 pl-5 text-xs text-ink-700">
+                {group.list.map((item) => (
+                  <li key={item}>{item}</li>
+                ))}
+              </ul>
+            ) : null}
             <p className="mt-3 border-t border-ink-100 pt-2 text-xs text-ink-600">
               <span className="font-semibold text-ink-700">Source: </span>
               {group.source}
