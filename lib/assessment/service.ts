@@ -16,7 +16,7 @@ import {
 } from "@/db/schema";
 import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
-import { roomWorstCandidates, worstCaseForUnit } from "@/lib/temperatures/queries";
+import { worstCasesForRooms } from "@/lib/temperatures/queries";
 import { selectWorstCase } from "@/lib/temperatures/worst-case";
 import {
   assessLocation,
@@ -157,9 +157,15 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
     list.push({ containerId: c.id, label: c.label, content, amount: c.amount, amountUnit: c.amountUnit, state: c.state });
     byUnit.set(c.storageUnitId, list);
   }
+  const worstCases = worstCasesForRooms(db, liveRoomIds, nowMs);
+  const unitsByRoom = new Map<number, (typeof unitRows)[number][]>();
+  for (const u of unitRows) {
+    const list = unitsByRoom.get(u.roomId) ?? [];
+    list.push(u);
+    unitsByRoom.set(u.roomId, list);
+  }
   const snapshots: LocationSnapshot[] = [];
   for (const { room: r, pressureKPa } of roomRows) {
-    const roomWorst = roomWorstCandidates(r.id, nowMs, db);
     const room: RoomInfo = {
       id: r.id,
       siteId: r.siteId,
@@ -172,12 +178,12 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
       mixingFactor: r.mixingFactor,
       sprinklered: r.sprinklered,
       atmosphericPressureKPa: pressureKPa,
-      worstCase: selectWorstCase(roomWorst.candidates),
+      worstCase: selectWorstCase(worstCases.room(r.id)),
     };
-    const units = unitRows.filter((u) => u.roomId === r.id);
+    const units = unitsByRoom.get(r.id) ?? [];
     snapshots.push({ kind: "room", room, contents: units.flatMap((u) => byUnit.get(u.id) ?? []) });
     for (const u of units) {
-      const worst = worstCaseForUnit(u.id, nowMs, db, roomWorst);
+      const worst = worstCases.unit(u);
       const unit: UnitInfo = {
         id: u.id,
         code: u.code,

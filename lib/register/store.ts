@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq, getTableColumns, inArray, isNull, or, type SQL } from "drizzle-orm";
+import { and, eq, inArray, isNull, or, type SQL } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { findingEvents, findings, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
 
@@ -30,6 +30,11 @@ export type ReconcileResult = { raised: number; updated: number; resolved: numbe
 
 const SEVERITY_RANK: Record<Severity, number> = { critical: 3, high: 2, moderate: 1, low: 0 };
 const WORKING: FindingStatus[] = ["open", "acknowledged", "mitigating"];
+
+type ExistingFinding = Pick<
+  Finding,
+  "id" | "fingerprint" | "severity" | "status" | "title" | "roomId" | "storageUnitId" | "value" | "limitValue" | "ratio" | "worstCaseTempC" | "worstCaseSource" | "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"
+>;
 
 /** A value that moved by less than this (relative) is the same finding, updated without an event. */
 const SIGNIFICANT_CHANGE = 0.01;
@@ -70,9 +75,26 @@ export function reconcileFindings(
   const now = new Date(opts.nowMs ?? Date.now());
   const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
   const where = findingsScope(scope);
-  // Without the stored traces: they are large and only ever replaced, never compared.
-  const { trace: _trace, ...columns } = getTableColumns(findings);
-  const existing = new Map<string, Omit<Finding, "trace">>();
+  // Only what the comparison needs: not the stored traces (large, only ever replaced, never compared),
+  // nor the people's fields (assignee, plan), which a re-assessment never changes.
+  const columns = {
+    id: findings.id,
+    fingerprint: findings.fingerprint,
+    severity: findings.severity,
+    status: findings.status,
+    title: findings.title,
+    roomId: findings.roomId,
+    storageUnitId: findings.storageUnitId,
+    value: findings.value,
+    limitValue: findings.limitValue,
+    ratio: findings.ratio,
+    worstCaseTempC: findings.worstCaseTempC,
+    worstCaseSource: findings.worstCaseSource,
+    conditionHolds: findings.conditionHolds,
+    riskAcceptedUntil: findings.riskAcceptedUntil,
+    resolvedAt: findings.resolvedAt,
+  };
+  const existing = new Map<string, ExistingFinding>();
   if (where) for (const row of tx.select(columns).from(findings).where(where).all()) existing.set(row.fingerprint, row);
   // A candidate may belong to a location outside the scope given (it should not, but its fingerprint is unique).
   const missing = candidates.filter((c) => !existing.has(c.fingerprint)).map((c) => c.fingerprint);
@@ -195,7 +217,7 @@ export function reconcileFindings(
   return result;
 }
 
-function isInScope(finding: Omit<Finding, "trace">, scope: { roomIds: number[]; storageUnitIds: number[] }): boolean {
+function isInScope(finding: ExistingFinding, scope: { roomIds: number[]; storageUnitIds: number[] }): boolean {
   if (finding.storageUnitId != null) return scope.storageUnitIds.includes(finding.storageUnitId);
   return finding.roomId != null && scope.roomIds.includes(finding.roomId);
 }

@@ -43,13 +43,20 @@ export function highestReading(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: num
 }
 
 function openExcursionPeaks(db: DbOrTx, sensorRefs: SensorRef[]): WorstCaseCandidate[] {
+  return openExcursionPeaksBySensor(db, sensorRefs).map((p) => p.candidate);
+}
+
+function openExcursionPeaksBySensor(db: DbOrTx, sensorRefs: SensorRef[]): { sensorId: number; candidate: WorstCaseCandidate }[] {
   if (sensorRefs.length === 0) return [];
   return db
     .select({ sensorId: excursions.sensorId, peakTempC: excursions.peakTempC, peakAtMs: sql<number>`${excursions.peakAt}` })
     .from(excursions)
     .where(and(inArray(excursions.sensorId, sensorRefs.map((s) => s.id)), isNull(excursions.endAt)))
     .all()
-    .map((row) => ({ kind: "excursion" as const, tempC: row.peakTempC, atMs: row.peakAtMs, sensor: sensorRefs.find((s) => s.id === row.sensorId)?.externalId ?? String(row.sensorId) }));
+    .map((row) => ({
+      sensorId: row.sensorId,
+      candidate: { kind: "excursion" as const, tempC: row.peakTempC, atMs: row.peakAtMs, sensor: sensorRefs.find((s) => s.id === row.sensorId)?.externalId ?? String(row.sensorId) },
+    }));
 }
 
 function roomCandidates(db: DbOrTx, roomId: number, sinceMs: number): WorstCaseCandidate[] | null {
@@ -98,16 +105,76 @@ export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx 
   if (!unit) return { inControl: null, controlLost: null, controlled: false };
   const sinceMs = nowMs - lookBackDays(db) * 86_400_000;
   const refs = sensorsAt(db, eq(sensors.storageUnitId, unitId));
-  const own: WorstCaseCandidate[] = [];
-  const controlled = unit.setMaxC != null;
-  if (controlled) own.push({ kind: "design", tempC: unit.setMaxC!, label: "upper end of the set range" });
+  const sensorCandidates: WorstCaseCandidate[] = [];
   const highest = highestReading(db, refs, sinceMs);
-  if (highest) own.push(highest);
-  own.push(...openExcursionPeaks(db, refs));
+  if (highest) sensorCandidates.push(highest);
+  sensorCandidates.push(...openExcursionPeaks(db, refs));
   const room = roomWorst && roomWorst.roomId === unit.roomId ? roomWorst.candidates : (roomCandidates(db, unit.roomId, sinceMs) ?? []);
+  return unitWorstCase(unit.setMaxC, sensorCandidates, room);
+}
+
+/** A unit's worst case from its set range, its own sensors' candidates and its room's candidates. */
+function unitWorstCase(setMaxC: number | null, sensorCandidates: WorstCaseCandidate[], room: WorstCaseCandidate[]): LocationWorstCase {
+  const own: WorstCaseCandidate[] = [];
+  const controlled = setMaxC != null;
+  if (controlled) own.push({ kind: "design", tempC: setMaxC, label: "upper end of the set range" });
+  own.push(...sensorCandidates);
   if (!controlled) return { inControl: selectWorstCase([...own, ...room]), controlLost: null, controlled };
   const inControl = selectWorstCase(own);
   return { inControl, controlLost: controlLostWorstCase(inControl, selectWorstCase(room)), controlled };
+}
+
+/**
+ * The worst cases of many rooms and their units at once, for a re-assessment: the same values as
+ * roomWorstCandidates and worstCaseForUnit, read in a few queries (the look-back setting once, the
+ * sensors and open excursions of all the rooms together, and the highest reading only of the
+ * sensors there are) instead of several queries per unit.
+ */
+export function worstCasesForRooms(
+  db: DbOrTx,
+  roomIds: number[],
+  nowMs = Date.now(),
+): { room(roomId: number): WorstCaseCandidate[]; unit(unit: { id: number; roomId: number; setMaxC: number | null }): LocationWorstCase } {
+  const sinceMs = nowMs - lookBackDays(db) * 86_400_000;
+  const roomRows = roomIds.length ? db.select({ id: rooms.id, designMaxTempC: rooms.designMaxTempC }).from(rooms).where(inArray(rooms.id, roomIds)).all() : [];
+  const sensorRows = roomIds.length
+    ? db
+        .select({ id: sensors.id, externalId: sensors.externalId, roomId: sensors.roomId, storageUnitId: sensors.storageUnitId })
+        .from(sensors)
+        .leftJoin(storageUnits, eq(storageUnits.id, sensors.storageUnitId))
+        .where(or(inArray(sensors.roomId, roomIds), inArray(storageUnits.roomId, roomIds)))
+        .all()
+    : [];
+  const peaks = openExcursionPeaksBySensor(db, sensorRows);
+  const sensorCandidates = (refs: SensorRef[]): WorstCaseCandidate[] => {
+    if (refs.length === 0) return [];
+    const found: WorstCaseCandidate[] = [];
+    const highest = highestReading(db, refs, sinceMs);
+    if (highest) found.push(highest);
+    // In the order openExcursionPeaks gives them for these sensors alone.
+    const ids = new Set(refs.map((r) => r.id));
+    for (const peak of peaks) if (ids.has(peak.sensorId)) found.push(peak.candidate);
+    return found;
+  };
+  const roomCandidatesById = new Map<number, WorstCaseCandidate[]>();
+  for (const row of roomRows) {
+    const candidates: WorstCaseCandidate[] = [];
+    if (row.designMaxTempC != null) candidates.push({ kind: "design", tempC: row.designMaxTempC });
+    candidates.push(...sensorCandidates(sensorRows.filter((s) => s.roomId === row.id)));
+    roomCandidatesById.set(row.id, candidates);
+  }
+  const unitSensors = new Map<number, SensorRef[]>();
+  for (const s of sensorRows) {
+    if (s.storageUnitId == null) continue;
+    const list = unitSensors.get(s.storageUnitId) ?? [];
+    list.push(s);
+    unitSensors.set(s.storageUnitId, list);
+  }
+  const roomOf = (roomId: number) => roomCandidatesById.get(roomId) ?? roomCandidates(db, roomId, sinceMs) ?? [];
+  return {
+    room: roomOf,
+    unit: (unit) => unitWorstCase(unit.setMaxC, sensorCandidates(unitSensors.get(unit.id) ?? []), roomOf(unit.roomId)),
+  };
 }
 
 export type ExcursionRow = {
