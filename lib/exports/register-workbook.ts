@@ -449,7 +449,8 @@ async function writeLocations(ctx: Context): Promise<number> {
       unitName: null,
       level: "Room",
       kind: label(ROOM_KIND_LABELS, room.kind) ?? room.kind,
-      roomVolumeM3: room.floorAreaM2 != null && room.heightM != null ? room.floorAreaM2 * room.heightM : null,
+      // toPrecision(12) drops binary noise such as 307.20000000000005 from area × height.
+      roomVolumeM3: room.floorAreaM2 != null && room.heightM != null ? Number((room.floorAreaM2 * room.heightM).toPrecision(12)) : null,
       unitVolumeL: null,
       airChangesPerHour: room.airChangesPerHour,
       mixingFactor: room.mixingFactor,
