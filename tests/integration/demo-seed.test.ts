@@ -16,7 +16,6 @@ import * as readingsRoute from "@/app/api/v1/readings/route";
 
 const SEEDED_AT = Date.parse("2026-12-02T09:07:00Z"); // readings end at the quarter hour before: 09:00
 const HOUR_MS = 3_600_000;
-let seedSeconds = 0;
 
 const sensorId = (externalId: string) => getDb().select({ id: sensors.id }).from(sensors).where(eq(sensors.externalId, externalId)).get()!.id;
 const excursionsOf = (externalId: string) => getDb().select().from(excursions).where(eq(excursions.sensorId, sensorId(externalId))).orderBy(asc(excursions.startAt)).all();
@@ -24,7 +23,8 @@ const excursionsOf = (externalId: string) => getDb().select().from(excursions).w
 beforeAll(async () => {
   const startedAt = performance.now();
   expect(await seedDemo(getDb(), { bcryptCost: 4, nowMs: SEEDED_AT })).toBe(true);
-  seedSeconds = (performance.now() - startedAt) / 1000;
+  // Reported, not asserted: speed is measured by the bench scripts, not by tests.
+  console.log(`demo seed: ${((performance.now() - startedAt) / 1000).toFixed(1)} s`);
 }, 60_000);
 
 describe("demo sensors and readings", () => {
@@ -46,10 +46,6 @@ describe("demo sensors and readings", () => {
     const placed = getDb().select({ externalId: sensors.externalId, name: sensors.name, roomId: sensors.roomId, unitId: sensors.storageUnitId }).from(sensors).all();
     expect(placed.filter((s) => s.unitId != null).map((s) => s.name)).toEqual(["2.107 FR-1 interior", "2.115 FSR-1 interior", "2.115 FZ-1 interior", "2.115 FZ-2 interior", "R-1.02 XR-1 interior"]);
     expect(placed.find((s) => s.externalId === "S-208")).toMatchObject({ name: "B-020 cold room", unitId: null });
-  });
-
-  it("seeds in a few seconds", () => {
-    expect(seedSeconds).toBeLessThan(15); // typically 2–4 s; generous for a loaded test machine
   });
 });
 
