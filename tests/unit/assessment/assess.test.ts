@@ -119,9 +119,6 @@ describe("finding traces", () => {
   });
 });
 
-describe("speed", () => {
-});
-
 describe("every trace can be built", () => {
   it("for units, rooms, spills of pure liquids and mixtures, cryogens, dry ice and missing data alike", () => {
     const acetoneEthanol = buildMixtureSnapshot({
