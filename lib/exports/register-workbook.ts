@@ -393,47 +393,44 @@ async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteNam
   await ctx.pace.breathe();
 }
 
-async function writeFindings(ctx: Context): Promise<number> {
-  const sheet = table(ctx, "Findings", FINDING_COLUMNS);
+/**
+ * Writes a table read page by page after the last id seen (keyset paging on the shared
+ * connection; no statement stays open between pages), draining the sheet after each page.
+ */
+async function writePaged<P extends { id: number }, R>(
+  sheet: TableSheet<R>,
+  pageSize: number,
+  fetch: (afterId: number) => P[],
+  write: (row: P) => void,
+): Promise<number> {
   for (let after = 0; ; ) {
-    const page = ctx.pages.findings(ctx.scope, after, PAGE_ROWS);
-    for (const row of page) sheet.add(row);
+    const page = fetch(after);
+    for (const row of page) write(row);
     await sheet.drain();
-    if (page.length < PAGE_ROWS) break;
+    if (page.length < pageSize) break;
     after = page[page.length - 1].id;
   }
   await sheet.close();
   return sheet.rowCount;
+}
+
+async function writeFindings(ctx: Context): Promise<number> {
+  const sheet = table(ctx, "Findings", FINDING_COLUMNS);
+  return writePaged(sheet, PAGE_ROWS, (after) => ctx.pages.findings(ctx.scope, after, PAGE_ROWS), (row) => sheet.add(row));
 }
 
 async function writeTraces(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Finding traces", TRACE_COLUMNS);
-  for (let after = 0; ; ) {
-    const page = ctx.pages.traces(ctx.scope, after, TRACE_PAGE_ROWS);
-    for (const finding of page) {
-      if (finding.traceJson == null) continue;
-      const rows = traceRows(finding.traceJson);
-      for (let i = 0; i < rows.length; i++) sheet.add({ findingId: finding.id, step: i + 1, row: rows[i] });
-    }
-    await sheet.drain();
-    if (page.length < TRACE_PAGE_ROWS) break;
-    after = page[page.length - 1].id;
-  }
-  await sheet.close();
-  return sheet.rowCount;
+  return writePaged(sheet, TRACE_PAGE_ROWS, (after) => ctx.pages.traces(ctx.scope, after, TRACE_PAGE_ROWS), (finding) => {
+    if (finding.traceJson == null) return;
+    const rows = traceRows(finding.traceJson);
+    for (let i = 0; i < rows.length; i++) sheet.add({ findingId: finding.id, step: i + 1, row: rows[i] });
+  });
 }
 
 async function writeInventory(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Inventory", INVENTORY_COLUMNS);
-  for (let after = 0; ; ) {
-    const page = ctx.pages.containers(ctx.scope, after, PAGE_ROWS);
-    for (const row of page) sheet.add(row);
-    await sheet.drain();
-    if (page.length < PAGE_ROWS) break;
-    after = page[page.length - 1].id;
-  }
-  await sheet.close();
-  return sheet.rowCount;
+  return writePaged(sheet, PAGE_ROWS, (after) => ctx.pages.containers(ctx.scope, after, PAGE_ROWS), (row) => sheet.add(row));
 }
 
 async function writeLocations(ctx: Context): Promise<number> {
@@ -503,19 +500,11 @@ async function writeLocations(ctx: Context): Promise<number> {
 
 async function writeExcursions(ctx: Context): Promise<number> {
   const sheet = table(ctx, "Excursions", EXCURSION_COLUMNS);
-  for (let after = 0; ; ) {
-    const page = excursionPage(ctx.db, ctx.scope, after, PAGE_ROWS);
-    for (const row of page) {
-      // End − start; for an open excursion, up to the sensor's latest reading.
-      const endMs = row.endAt?.getTime() ?? row.lastReadingAtMs ?? row.startAt.getTime();
-      sheet.add({ ...row, durationMin: Math.max(0, (endMs - row.startAt.getTime()) / 60_000) });
-    }
-    await sheet.drain();
-    if (page.length < PAGE_ROWS) break;
-    after = page[page.length - 1].id;
-  }
-  await sheet.close();
-  return sheet.rowCount;
+  return writePaged(sheet, PAGE_ROWS, (after) => excursionPage(ctx.db, ctx.scope, after, PAGE_ROWS), (row) => {
+    // End − start; for an open excursion, up to the sensor's latest reading.
+    const endMs = row.endAt?.getTime() ?? row.lastReadingAtMs ?? row.startAt.getTime();
+    sheet.add({ ...row, durationMin: Math.max(0, (endMs - row.startAt.getTime()) / 60_000) });
+  });
 }
 
 async function writeSubstances(ctx: Context): Promise<number> {
