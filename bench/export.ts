@@ -75,6 +75,7 @@ async function build(): Promise<void> {
   const { enclosureBound } = await import("@/lib/hazard");
   const { toVaporProperties } = await import("@/lib/substances/vapor");
   const { seededRandom } = await import("./lib/stats");
+  const { citingWith, traceText } = await import("@/lib/register/trace-text");
 
   const random = seededRandom(20_260_802);
   const pick = <T>(items: readonly T[]): T => items[Math.floor(random() * items.length)];
@@ -90,8 +91,15 @@ async function build(): Promise<void> {
   const library = db.select().from(substances).all().filter((s) => s.physicalState === "liquid" && s.correlations.length > 0);
 
   // A pool of real engine traces: each liquid of the library at several worst-case temperatures.
-  type Pooled = { substanceId: number; name: string; json: string; ppm: number; tempC: number };
+  // Each with its readable text, rendered as the register renders it (long sources cited from trace_sources).
+  type Pooled = { substanceId: number; name: string; json: string; text: string; sourceIds: string; ppm: number; tempC: number };
   const pool: Pooled[] = [];
+  const insertSource = sqlite.prepare("insert into trace_sources (text) values (?) on conflict (text) do update set text = excluded.text returning id");
+  const sourceIds = new Map<string, number>();
+  const sourceId = (text: string) => {
+    if (!sourceIds.has(text)) sourceIds.set(text, (insertSource.get(text) as { id: number }).id);
+    return sourceIds.get(text)!;
+  };
   for (const substance of library) {
     for (const tempC of [8, 22, 28, 31, 35]) {
       const bound = enclosureBound({
@@ -101,7 +109,14 @@ async function build(): Promise<void> {
         tempC,
         tempSource: `${tempC.toFixed(1)} °C, design maximum`,
         freeVolumeM3: 0.15,
-        containers: [{ label: "BX-000123", massG: 790, open: true }, { label: "BX-000124", massG: 395, open: false }],
+        containers: [
+          { label: "BX-000123", massG: 790, open: true },
+          { label: "BX-000124", massG: 395, open: false },
+          { label: "BX-000125", massG: 1580, open: true },
+          { label: "BX-000126", massG: 120.5, open: true },
+          { label: "BX-000127", massG: 790, open: false },
+          { label: "BX-000128", massG: 2370, open: false },
+        ],
         scenario: "largest-container",
       });
       const shortTrace = {
@@ -114,7 +129,10 @@ async function build(): Promise<void> {
         ],
         warnings: [],
       };
-      pool.push({ substanceId: substance.id, name: substance.name, json: JSON.stringify(SHORT_TRACES ? shortTrace : bound.trace), ppm: bound.concentrationPpm, tempC });
+      const trace = SHORT_TRACES ? shortTrace : bound.trace;
+      const citing = citingWith(sourceId);
+      const text = traceText(trace, citing.cite);
+      pool.push({ substanceId: substance.id, name: substance.name, json: JSON.stringify(trace), text, sourceIds: JSON.stringify(citing.ids()), ppm: bound.concentrationPpm, tempC });
     }
   }
 
@@ -135,12 +153,13 @@ async function build(): Promise<void> {
   );
   const insertFinding = sqlite.prepare(
     `insert into findings (fingerprint, rule, severity, status, scenario, title, site_id, room_id, storage_unit_id, substance_id,
-       value, limit_value, ratio, unit, worst_case_temp_c, worst_case_source, trace, assignee_id, mitigation_plan, risk_accepted_until,
+       value, limit_value, ratio, unit, worst_case_temp_c, worst_case_source, assignee_id, mitigation_plan, risk_accepted_until,
        first_raised_at, last_evaluated_at, resolved_at)
      values (@fingerprint, @rule, @severity, @status, @scenario, @title, @siteId, @roomId, @unitId, @substanceId,
-       @value, @limitValue, @ratio, @unit, @worstCaseTempC, @worstCaseSource, @trace, @assigneeId, @mitigationPlan, @riskAcceptedUntil,
+       @value, @limitValue, @ratio, @unit, @worstCaseTempC, @worstCaseSource, @assigneeId, @mitigationPlan, @riskAcceptedUntil,
        @firstRaisedAt, @lastEvaluatedAt, @resolvedAt)`,
   );
+  const insertTrace = sqlite.prepare("insert into finding_traces (finding_id, trace, text, source_ids) values (?, ?, ?, ?)");
 
   const nowMs = Date.now();
   const units: { id: number; roomId: number; siteId: number; code: string }[] = [];
@@ -185,7 +204,7 @@ async function build(): Promise<void> {
       const status = pick(STATUSES);
       const raisedAt = Math.round(nowMs - between(1, 400) * DAY_MS);
       const limitPpm = pick([25, 50, 100, 250, 500, 1000]);
-      insertFinding.run({
+      const findingId = insertFinding.run({
         fingerprint: `enclosure-oel|unit:${unit.id}|substance:${traced.substanceId}|${scenario}|${n}`,
         rule: "enclosure-oel",
         severity: pick(SEVERITIES),
@@ -202,21 +221,21 @@ async function build(): Promise<void> {
         unit: "ppm",
         worstCaseTempC: traced.tempC,
         worstCaseSource: `${traced.tempC.toFixed(1)} °C, design maximum`,
-        trace: traced.json,
         assigneeId: status === "mitigating" ? people[0].id : null,
         mitigationPlan: status === "mitigating" ? "Move the open bottles to the flammable-storage refrigerator and re-check." : null,
         riskAcceptedUntil: status === "risk_accepted" ? Math.round(nowMs + 90 * DAY_MS) : null,
         firstRaisedAt: raisedAt,
         lastEvaluatedAt: Math.round(raisedAt + random() * (nowMs - raisedAt)),
         resolvedAt: status === "resolved" ? nowMs - DAY_MS : null,
-      });
+      }).lastInsertRowid;
+      insertTrace.run(findingId, traced.json, traced.text, traced.sourceIds);
     }
   })();
   sqlite.exec("ANALYZE");
-  const traceBytes = (sqlite.prepare("select sum(length(trace)) as n from findings").get() as { n: number }).n;
+  const traceBytes = (sqlite.prepare("select sum(length(trace)) as json, sum(length(text)) as text from finding_traces").get() as { json: number; text: number });
   console.log(
     `Register built in ${fixed((performance.now() - startMs) / 1000, 2)} s: ${thousands(FINDING_COUNT)} findings ` +
-      `(${SHORT_TRACES ? "short traces" : "full engine traces"}: ${fixed(traceBytes / 2 ** 20)} MB of JSON, ${pool.length} distinct), ${thousands(CONTAINER_COUNT)} containers, ` +
+      `(${SHORT_TRACES ? "short traces" : "full engine traces"}: ${fixed(traceBytes.json / 2 ** 20)} MB of JSON, ${fixed(traceBytes.text / 2 ** 20)} MB as text, ${pool.length} distinct), ${thousands(CONTAINER_COUNT)} containers, ` +
       `${thousands(units.length)} storage units in ${roomsBuilt.length} rooms, ${SENSOR_COUNT} sensors with ${thousands(SENSOR_COUNT * READINGS_PER_SENSOR)} readings, ` +
       `${thousands(EXCURSION_COUNT)} excursions.`,
   );
@@ -246,7 +265,7 @@ async function main(): Promise<void> {
     const figures = JSON.parse(child.stdout.trim().split("\n").at(-1)!) as ExportFigures;
     const c = figures.counts;
     console.log(
-      `\nWorkbook written: ${fixed(figures.bytes / 2 ** 20)} MB; ${thousands(c.findings)} findings, ${thousands(c.traceRows)} trace rows, ` +
+      `\nWorkbook written: ${fixed(figures.bytes / 2 ** 20)} MB; ${thousands(c.findings)} findings, ${thousands(c.traces)} traces citing ${thousands(c.traceSources)} sources, ` +
         `${thousands(c.containers)} containers, ${thousands(c.locations)} location rows, ${thousands(c.excursions)} excursions, ${c.substances} substances.`,
     );
     console.log(`By sheet: ${Object.entries(c.timingsMs).map(([sheet, ms]) => `${sheet} ${fixed(ms / 1000, 2)} s`).join(", ")}.`);

@@ -543,7 +543,6 @@ export const findings = sqliteTable(
     unit: text("unit"),
     worstCaseTempC: real("worst_case_temp_c"),
     worstCaseSource: text("worst_case_source"),
-    trace: text("trace", { mode: "json" }).$type<unknown>(),
     conditionHolds: integer("condition_holds", { mode: "boolean" }).notNull().default(true),
     assigneeId: integer("assignee_id").references(() => users.id, { onDelete: "set null" }),
     mitigationPlan: text("mitigation_plan"),
@@ -568,6 +567,39 @@ export const findings = sqliteTable(
 );
 export type Finding = typeof findings.$inferSelect;
 export type NewFinding = typeof findings.$inferInsert;
+
+/**
+ * A finding's calculation trace, apart from the finding's row: it is large (several KB of JSON),
+ * written only when a finding is raised or changes, and read only by the finding page, the API and
+ * the workbook, so the register's lists and every re-assessment keep to narrow rows.
+ */
+export const findingTraces = sqliteTable("finding_traces", {
+  findingId: integer("finding_id")
+    .primaryKey()
+    .references(() => findings.id, { onDelete: "cascade" }),
+  /** The engine's full trace as JSON (see lib/assessment/rules/types.ts FindingTrace). */
+  trace: text("trace", { mode: "json" }).$type<unknown>().notNull(),
+  /**
+   * The same trace as readable lines for the workbook, rendered when the trace is written
+   * (lib/register/trace-text.ts); long sources are cited as "[S12]", ids of trace_sources.
+   * Null for a trace stored before the text was kept: the workbook renders it then.
+   */
+  text: text("text"),
+  /** The trace_sources ids the text cites, ascending. */
+  sourceIds: text("source_ids", { mode: "json" }).$type<number[]>(),
+  writtenAt: integer("written_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+});
+export type FindingTraceRow = typeof findingTraces.$inferSelect;
+
+/** Long source texts cited by the traces' readable text (each one stored once). */
+export const traceSources = sqliteTable(
+  "trace_sources",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    text: text("text").notNull(),
+  },
+  (t) => [uniqueIndex("trace_sources_text_unique").on(t.text)],
+);
 
 
 export const findingEvents = sqliteTable(

@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, desc, eq, inArray, or, sql as rawSql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { getDb } from "@/db/client";
-import { containers, findingEvents, findings, mixtures, rooms, sites, storageUnits, substances, users, type Severity } from "@/db/schema";
+import { containers, findingEvents, findings, findingTraces, mixtures, rooms, sites, storageUnits, substances, users, type Severity } from "@/db/schema";
 import type { FindingListQuery } from "@/lib/register/schemas";
 import type { Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
@@ -179,8 +179,14 @@ export function countFindingsBySeverity(user: SessionUser, scope: Scope, query: 
 
 export function getFinding(user: SessionUser, scope: Scope, id: number) {
   const db = getDb();
-  const finding = db.select().from(findings).where(and(eq(findings.id, id), findingsVisibleTo(user, scope))).get();
-  if (!finding) return null;
+  const row = db
+    .select({ finding: findings, trace: findingTraces.trace })
+    .from(findings)
+    .leftJoin(findingTraces, eq(findingTraces.findingId, findings.id))
+    .where(and(eq(findings.id, id), findingsVisibleTo(user, scope)))
+    .get();
+  if (!row) return null;
+  const finding = { ...row.finding, trace: row.trace ?? null };
   const actor = alias(users, "actor");
   const events = db
     .select({ id: findingEvents.id, kind: findingEvents.kind, fromStatus: findingEvents.fromStatus, toStatus: findingEvents.toStatus, note: findingEvents.note, data: findingEvents.data, at: findingEvents.at, actorId: findingEvents.actorId, actorName: actor.name })

@@ -15,6 +15,7 @@ import {
   sites,
   storageUnits,
   substances,
+  traceSources,
   users,
   type FindingStatus,
   type Severity,
@@ -118,8 +119,12 @@ export function exportPageQueries(db: Db) {
       where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
       order by f.id limit @limit`,
   );
+  // The readable text when it was rendered with the trace; the JSON only for a trace stored before.
   const traceStatement = sqlite.prepare(
-    `select f.id, f.trace as traceJson from findings f left join rooms r on r.id = f.room_id
+    `select f.id, f.title, t.text, t.source_ids as sourceIds, case when t.text is null then t.trace end as traceJson
+       from findings f
+       join finding_traces t on t.finding_id = f.id
+       left join rooms r on r.id = f.room_id
       where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
       order by f.id limit @limit`,
   );
@@ -140,11 +145,17 @@ export function exportPageQueries(db: Db) {
   );
   return {
     findings: (scope: ExportScope, after: number, limit: number) => findingStatement.all({ after, limit, site: scope.siteId ?? null }) as FindingExportRow[],
-    /** Findings' traces as the stored JSON text, parsed one finding at a time by the caller. */
+    /** Findings' traces as their stored readable text (or, for an older trace, its JSON), and the ids of the sources cited. */
     traces: (scope: ExportScope, after: number, limit: number) =>
-      traceStatement.all({ after, limit, site: scope.siteId ?? null }) as { id: number; traceJson: string | null }[],
+      traceStatement.all({ after, limit, site: scope.siteId ?? null }) as { id: number; title: string; text: string | null; sourceIds: string | null; traceJson: string | null }[],
     containers: (scope: ExportScope, after: number, limit: number) => containerStatement.all({ after, limit, site: scope.siteId ?? null }) as ContainerExportRow[],
   };
+}
+
+/** The cited sources with these ids (at most a few hundred at a time). */
+export function traceSourcesById(db: DbOrTx, ids: number[]) {
+  if (ids.length === 0) return [];
+  return db.select({ id: traceSources.id, text: traceSources.text }).from(traceSources).where(inArray(traceSources.id, ids)).orderBy(asc(traceSources.id)).all();
 }
 
 /** Rooms and storage units in use (not retired), in site, room and unit order. */

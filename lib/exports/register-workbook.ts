@@ -8,6 +8,7 @@ import {
   exportPageQueries,
   findSite,
   locationRows,
+  traceSourcesById,
   registerCounts,
   settingsInForce,
   substancesInScope,
@@ -25,11 +26,11 @@ import { locationWorstCases } from "./location-worst-cases";
 import { assumptions, CAUTIONS, METHODS, SUMMARY_CAUTION, type MethodStatement } from "./methods";
 import { safeText, TEXT_NUM_FMT } from "./safe-text";
 import { DATETIME_NUM_FMT, ExportCancelledError, HEADER_STYLE, Pace, sharedTextOf, TableSheet, TEXT_STYLE, type Column, type SharedText } from "./table-sheet";
-import { traceRows, type TraceRow } from "./trace-rows";
+import { traceText } from "@/lib/register/trace-text";
 
 /**
  * The register as an Excel workbook for auditors, streamed: Summary, Findings, Finding traces,
- * Inventory, Locations, Excursions, Substances, Methods and cautions. Each sheet is written row
+ * Trace sources, Inventory, Locations, Excursions, Substances, Methods and cautions. Each sheet is written row
  * by row and committed before the next begins, and the long tables are read in pages, so memory
  * stays flat for any size of register. Every string goes through safeText (lib/exports/safe-text.ts).
  */
@@ -38,6 +39,7 @@ export const REGISTER_SHEETS = [
   "Summary",
   "Findings",
   "Finding traces",
+  "Trace sources",
   "Inventory",
   "Locations",
   "Excursions",
@@ -48,8 +50,8 @@ export const REGISTER_SHEETS = [
 export const WORKBOOK_TITLE = "Vapor-hazard register: audit workbook";
 
 const PAGE_ROWS = 1000;
-/** Traces are large (kilobytes of JSON each): fewer per page keeps memory flat. */
-const TRACE_PAGE_ROWS = 200;
+/** Traces are kilobytes of text each: fewer per page keeps memory flat. */
+const TRACE_PAGE_ROWS = 250;
 
 export type RegisterWorkbookOptions = {
   siteId?: number;
@@ -62,7 +64,10 @@ export type RegisterWorkbookOptions = {
 
 export type RegisterWorkbookResult = {
   findings: number;
-  traceRows: number;
+  /** Findings with a trace on the "Finding traces" sheet. */
+  traces: number;
+  /** Sources the traces cite, listed on "Trace sources". */
+  traceSources: number;
   containers: number;
   locations: number;
   excursions: number;
@@ -120,18 +125,20 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Fingerprint", width: 40, kind: "text", unique: true, value: (r) => r.fingerprint },
 ];
 
-type TraceSheetRow = { findingId: number; step: number; row: TraceRow };
+type TraceSheetRow = { id: number; title: string; text: string; sourceIds: number[] };
 
 const TRACE_COLUMNS: Column<TraceSheetRow>[] = [
-  { header: "Finding ID", width: 10, kind: "number", value: (r) => r.findingId },
-  { header: "Step", width: 6, kind: "number", value: (r) => r.step },
-  { header: "Path in the trace", width: 26, kind: "text", value: (r) => r.row.path },
-  { header: "Label or quantity", width: 40, kind: "text", value: (r) => r.row.label },
-  { header: "Formula or method", width: 40, kind: "text", value: (r) => r.row.formula },
-  { header: "With the numbers", width: 40, kind: "text", unique: true, value: (r) => r.row.substituted },
-  { header: "Value", width: 14, kind: "value", value: (r) => r.row.value },
-  { header: "Unit", width: 10, kind: "text", value: (r) => r.row.unit },
-  { header: "Note or source", width: 50, kind: "text", value: (r) => r.row.note },
+  { header: "Finding ID", width: 10, kind: "number", value: (r) => r.id },
+  { header: "Finding", width: 40, kind: "text", value: (r) => r.title },
+  { header: "Calculation trace (one line per input, step, result and warning)", width: 120, kind: "text", unique: true, value: (r) => r.text },
+  { header: "Sources cited", width: 24, kind: "text", value: (r) => (r.sourceIds.length ? r.sourceIds.map((id) => `S${id}`).join(", ") : null) },
+];
+
+type TraceSourceSheetRow = { id: number; text: string };
+
+const TRACE_SOURCE_COLUMNS: Column<TraceSourceSheetRow>[] = [
+  { header: "Reference", width: 10, kind: "text", value: (r) => `S${r.id}` },
+  { header: "Source", width: 140, kind: "text", unique: true, value: (r) => r.text },
 ];
 
 const INVENTORY_COLUMNS: Column<ContainerExportRow>[] = [
@@ -381,7 +388,8 @@ async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteNam
   const about: Record<(typeof REGISTER_SHEETS)[number], string> = {
     Summary: "this page",
     Findings: "every finding with its value, limit, ratio, worst-case temperature and its source",
-    "Finding traces": "each finding's calculation, step by step: inputs, formulas, the numbers put in and results",
+    "Finding traces": "each finding's calculation in one cell, a line per step: inputs, formulas, the numbers put in, results and warnings",
+    "Trace sources": "the long sources the traces cite as [S…]: substance data, methods and the severity thresholds",
     Inventory: "every container in storage with its location, amount and owner",
     Locations: "rooms and storage units with their worst-case temperatures and where they came from",
     Excursions: "temperature excursions with start, end, duration and peak",
@@ -419,13 +427,31 @@ async function writeFindings(ctx: Context): Promise<number> {
   return writePaged(sheet, PAGE_ROWS, (after) => ctx.pages.findings(ctx.scope, after, PAGE_ROWS), (row) => sheet.add(row));
 }
 
-async function writeTraces(ctx: Context): Promise<number> {
+/**
+ * One row per finding with its trace as readable lines (rendered when the trace was stored, see
+ * lib/register/trace-text.ts; a trace stored before that is rendered here, its sources written
+ * out). Returns the ids of the sources the traces cite.
+ */
+async function writeTraces(ctx: Context): Promise<{ rows: number; sourceIds: Set<number> }> {
   const sheet = table(ctx, "Finding traces", TRACE_COLUMNS);
-  return writePaged(sheet, TRACE_PAGE_ROWS, (after) => ctx.pages.traces(ctx.scope, after, TRACE_PAGE_ROWS), (finding) => {
-    if (finding.traceJson == null) return;
-    const rows = traceRows(finding.traceJson);
-    for (let i = 0; i < rows.length; i++) sheet.add({ findingId: finding.id, step: i + 1, row: rows[i] });
+  const sourceIds = new Set<number>();
+  const rows = await writePaged(sheet, TRACE_PAGE_ROWS, (after) => ctx.pages.traces(ctx.scope, after, TRACE_PAGE_ROWS), (finding) => {
+    const cited: number[] = finding.sourceIds ? (JSON.parse(finding.sourceIds) as number[]) : [];
+    for (const id of cited) sourceIds.add(id);
+    sheet.add({ id: finding.id, title: finding.title, text: finding.text ?? traceText(finding.traceJson), sourceIds: cited });
   });
+  return { rows, sourceIds };
+}
+
+async function writeTraceSources(ctx: Context, ids: Set<number>): Promise<number> {
+  const sheet = table(ctx, "Trace sources", TRACE_SOURCE_COLUMNS);
+  const sorted = [...ids].sort((a, b) => a - b);
+  for (let i = 0; i < sorted.length; i += PAGE_ROWS) {
+    for (const row of traceSourcesById(ctx.db, sorted.slice(i, i + PAGE_ROWS))) sheet.add(row);
+    await sheet.drain();
+  }
+  await sheet.close();
+  return sheet.rowCount;
 }
 
 async function writeInventory(ctx: Context): Promise<number> {
@@ -562,7 +588,7 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
   const site = opts.siteId ? findSite(db, opts.siteId) : null;
   if (opts.siteId && !site) throw new NotFoundError("That site");
 
-  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: false });
+  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: false, zip: { zlib: { level: 1 } } });
   workbook.creator = "Headroom";
   workbook.lastModifiedBy = "Headroom";
   workbook.created = new Date(opts.nowMs);
@@ -590,14 +616,15 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
     };
     await timed("Summary", () => writeSummary(ctx, opts, site?.name ?? null));
     const findings = await timed("Findings", () => writeFindings(ctx));
-    const traceRowCount = await timed("Finding traces", () => writeTraces(ctx));
+    const traces = await timed("Finding traces", () => writeTraces(ctx));
+    const traceSources = await timed("Trace sources", () => writeTraceSources(ctx, traces.sourceIds));
     const containers = await timed("Inventory", () => writeInventory(ctx));
     const locations = await timed("Locations", () => writeLocations(ctx));
     const excursions = await timed("Excursions", () => writeExcursions(ctx));
     const substances = await timed("Substances", () => writeSubstances(ctx));
     await timed("Methods and cautions", () => writeMethods(ctx));
     await timed("commit", () => Promise.race([workbook.commit(), closedEarly]));
-    return { findings, traceRows: traceRowCount, containers, locations, excursions, substances, timingsMs };
+    return { findings, traces: traces.rows, traceSources, containers, locations, excursions, substances, timingsMs };
   } finally {
     output.off("close", onClose);
   }

@@ -1,7 +1,8 @@
 import "server-only";
 import { and, eq, inArray, isNull, or, type SQL } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { findingEvents, findings, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
+import { findingEvents, findings, findingTraces, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
+import { citingWith, traceText } from "./trace-text";
 
 /** What an assessment rule says about one location under one scenario (see lib/assessment). */
 export type FindingCandidate = {
@@ -45,6 +46,41 @@ function significantlyDifferent(a: number | null, b: number | null): boolean {
   return Math.abs(a - b) / scale > SIGNIFICANT_CHANGE;
 }
 
+/**
+ * Writes findings' traces (their own table, see db/schema.ts findingTraces) with the readable text
+ * the workbook shows, citing long sources by their trace_sources id. One per reconcile: it
+ * remembers the source ids it has looked up.
+ */
+export class TraceWriter {
+  private readonly sourceIds = new Map<string, number>();
+  constructor(
+    private readonly tx: DbOrTx,
+    private readonly now: Date,
+  ) {}
+
+  private sourceId(text: string): number {
+    const known = this.sourceIds.get(text);
+    if (known !== undefined) return known;
+    const id =
+      this.tx.select({ id: traceSources.id }).from(traceSources).where(eq(traceSources.text, text)).get()?.id ??
+      this.tx.insert(traceSources).values({ text }).returning({ id: traceSources.id }).get().id;
+    this.sourceIds.set(text, id);
+    return id;
+  }
+
+  write(findingId: number, trace: unknown): void {
+    const stored = trace ?? {};
+    const citing = citingWith((text) => this.sourceId(text));
+    const text = traceText(stored, citing.cite);
+    const sourceIds = citing.ids();
+    this.tx
+      .insert(findingTraces)
+      .values({ findingId, trace: stored, text, sourceIds, writtenAt: this.now })
+      .onConflictDoUpdate({ target: findingTraces.findingId, set: { trace: stored, text, sourceIds, writtenAt: this.now } })
+      .run();
+  }
+}
+
 /** Findings that belong to these locations: rooms' own findings and their units'. */
 export function findingsScope(scope: { roomIds: number[]; storageUnitIds: number[] }): SQL | undefined {
   const parts: SQL[] = [];
@@ -75,8 +111,7 @@ export function reconcileFindings(
   const now = new Date(opts.nowMs ?? Date.now());
   const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
   const where = findingsScope(scope);
-  // Only what the comparison needs: not the stored traces (large, only ever replaced, never compared),
-  // nor the people's fields (assignee, plan), which a re-assessment never changes.
+  // Only what the comparison needs: not the people's fields (assignee, plan), which a re-assessment never changes.
   const columns = {
     id: findings.id,
     fingerprint: findings.fingerprint,
@@ -102,6 +137,7 @@ export function reconcileFindings(
     for (const row of tx.select(columns).from(findings).where(inArray(findings.fingerprint, missing.slice(i, i + 500))).all()) existing.set(row.fingerprint, row);
   }
   const seen = new Set<string>();
+  const traces = new TraceWriter(tx, now);
   // Findings the assessment confirms unchanged: only their "last assessed" time moves (no trace rebuilt).
   const unchangedIds: number[] = [];
   const event = (findingId: number, kind: (typeof findingEvents.$inferInsert)["kind"], fromStatus: FindingStatus | null, toStatus: FindingStatus | null, note: string, data?: Record<string, unknown>) =>
@@ -131,7 +167,8 @@ export function reconcileFindings(
     };
     const before = existing.get(candidate.fingerprint);
     if (!before) {
-      const row = tx.insert(findings).values({ ...values, trace: candidate.trace, fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now }).returning().get();
+      const row = tx.insert(findings).values({ ...values, fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now }).returning().get();
+      traces.write(row.id, candidate.trace);
       event(row.id, "raised", null, "open", `Raised: ${candidate.title}`, { value: candidate.value, limit: candidate.limitValue, ratio: candidate.ratio, unit: candidate.unit, severity: candidate.severity });
       result.raised += 1;
       result.changes.push({ kind: "raised", finding: row });
@@ -144,10 +181,11 @@ export function reconcileFindings(
     if (returned || reviewPassed || stillHolds) {
       const row = tx
         .update(findings)
-        .set({ ...values, trace: candidate.trace, status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
+        .set({ ...values, status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
         .where(eq(findings.id, before.id))
         .returning()
         .get();
+      traces.write(row.id, candidate.trace);
       const note = returned
         ? `Re-opened: the condition holds again — ${candidate.title}${opts.reason ? ` (after: ${opts.reason})` : ""}.`
         : stillHolds
@@ -173,7 +211,8 @@ export function reconcileFindings(
       result.unchanged += 1;
       continue;
     }
-    const row = tx.update(findings).set({ ...values, trace: candidate.trace, updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
+    const row = tx.update(findings).set({ ...values, updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
+    traces.write(row.id, candidate.trace);
     if (severityChanged || valueChanged) {
       const note = severityChanged
         ? `Severity ${before.severity} → ${candidate.severity}: ${candidate.title}`

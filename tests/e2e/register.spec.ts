@@ -68,7 +68,7 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   expect(download.suggestedFilename()).toMatch(/^headroom-register-\d{4}-\d{2}-\d{2}\.xlsx$/);
   const workbook = new ExcelJS.Workbook();
   await workbook.xlsx.readFile(await download.path());
-  expect(workbook.worksheets.map((s) => s.name)).toEqual(["Summary", "Findings", "Finding traces", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions"]);
+  expect(workbook.worksheets.map((s) => s.name)).toEqual(["Summary", "Findings", "Finding traces", "Trace sources", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions"]);
   const sheet = workbook.getWorksheet("Findings")!;
   const headers = (sheet.getRow(1).values as unknown[]).slice(1);
   for (const header of ["Severity", "Status", "Rule", "Value", "Limit", "Ratio (value ÷ limit)", "Value unit", "Worst case (°C)", "Worst-case source"]) expect(headers).toContain(header);

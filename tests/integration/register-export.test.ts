@@ -8,12 +8,13 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import ExcelJS from "exceljs";
 import { getDb } from "@/db/client";
-import { auditEvents, containers, excursions, exposureLimits, findings, readings, rooms, sensors, sites, storageUnits, substances, type User } from "@/db/schema";
+import { auditEvents, containers, excursions, exposureLimits, findings, findingTraces, readings, rooms, sensors, sites, storageUnits, substances, type User } from "@/db/schema";
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
 import { PassThrough, Writable } from "node:stream";
 import { locationWorstCases } from "@/lib/exports/location-worst-cases";
 import { writeRegisterWorkbook } from "@/lib/exports/register-workbook";
 import { ExportCancelledError } from "@/lib/exports/table-sheet";
+import { TraceWriter } from "@/lib/register/store";
 import { worstCaseForRoom, worstCaseForUnit } from "@/lib/temperatures/queries";
 import { makeUser, sessionCookieFor } from "./helpers/world";
 
@@ -24,12 +25,15 @@ const FORMULA_LABEL = '=HYPERLINK("http://x")';
 let auditor: User, officer: User, researcher: User, facilities: User;
 let siteId: number, otherSiteId: number, findingId: number, otherFindingId: number;
 
+/** Long enough (≥ 100 characters) to be cited as [S…] and written out on the Trace sources sheet. */
+const LONG_SOURCE = "invented test value, as if from a handbook table of flammability limits measured in a closed vessel at 25 °C";
+
 const ENGINE_TRACE = {
   method: "Closed-enclosure bound",
   source: "after Popendorf's closed-room worst case",
   inputs: [
     { name: "Worst-case temperature", symbol: "T", value: 28, unit: "°C", source: "room design maximum" },
-    { name: "Lower flammable limit", symbol: "LFL", value: 1.9, unit: "% vol", source: "invented test value" },
+    { name: "Lower flammable limit", symbol: "LFL", value: 1.9, unit: "% vol", source: LONG_SOURCE },
   ],
   steps: [
     {
@@ -118,7 +122,6 @@ beforeAll(() => {
       unit: "% LFL",
       worstCaseTempC: 28,
       worstCaseSource: "28.0 °C, design maximum (the room's worst case, as if the unit had failed)",
-      trace: ENGINE_TRACE,
       assigneeId: officer.id,
       mitigationPlan: "-move it to a flammable-storage refrigerator",
       firstRaisedAt: new Date(RAISED_AT),
@@ -140,10 +143,12 @@ beforeAll(() => {
       limitValue: 50,
       ratio: 0.24,
       unit: "L",
-      trace: { steps: [{ label: "Class IB volume", value: 12, unit: "L" }] },
     })
     .returning()
     .get().id;
+  const traces = new TraceWriter(db, new Date(RAISED_AT));
+  traces.write(findingId, ENGINE_TRACE);
+  traces.write(otherFindingId, { steps: [{ label: "Class IB volume", value: 12, unit: "L" }] });
   const sensorId = db.insert(sensors).values({ externalId: "LOG-FR-1", name: "Fridge logger", storageUnitId: unitId }).returning().get().id;
   db.insert(excursions)
     .values({
@@ -188,7 +193,7 @@ function rowsOf(sheet: ExcelJS.Worksheet): Record<string, ExcelJS.Cell>[] {
   return rows;
 }
 
-const DATA_SHEETS = ["Findings", "Finding traces", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions"];
+const DATA_SHEETS = ["Findings", "Finding traces", "Trace sources", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions"];
 
 describe("GET /api/v1/exports/register.xlsx", () => {
   let workbook: ExcelJS.Workbook;
@@ -254,9 +259,8 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     const container = rowsOf(workbook.getWorksheet("Inventory")!).find((r) => r["Container"].value === FORMULA_LABEL)!;
     const finding = rowsOf(workbook.getWorksheet("Findings")!).find((r) => r["Finding ID"].value === findingId)!;
     const comment = rowsOf(workbook.getWorksheet("Excursions")!)[0]["Comment"];
-    const warning = rowsOf(workbook.getWorksheet("Finding traces")!).find((r) => r["Label or quantity"].value === "Warning")!["Note or source"];
-    const cells = [container["Container"], container["Notes"], finding["Container"], finding["Mitigation plan"], comment, warning];
-    expect(cells.map((c) => c.value)).toEqual([FORMULA_LABEL, "+1+2", FORMULA_LABEL, "-move it to a flammable-storage refrigerator", "@door left open", "@SUM(A1)"]);
+    const cells = [container["Container"], container["Notes"], finding["Container"], finding["Mitigation plan"], comment];
+    expect(cells.map((c) => c.value)).toEqual([FORMULA_LABEL, "+1+2", FORMULA_LABEL, "-move it to a flammable-storage refrigerator", "@door left open"]);
     for (const cell of cells) {
       expect(cell.type).toBe(ExcelJS.ValueType.String);
       expect(cell.formula).toBeUndefined();
@@ -264,26 +268,24 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     }
   });
 
-  it("unfolds the finding's trace step by step with numbers as numbers", () => {
-    const rows = rowsOf(workbook.getWorksheet("Finding traces")!).filter((r) => r["Finding ID"].value === findingId);
-    expect(rows.map((r) => r["Step"].value)).toEqual([1, 2, 3, 4, 5, 6]);
-    expect(rows.map((r) => r["Label or quantity"].value)).toEqual([
-      "Method",
-      "Input: Worst-case temperature (T)",
-      "Input: Lower flammable limit (LFL)",
-      "Saturation vapor pressure",
-      "Result: Fraction of the LFL (C/LFL)",
-      "Warning",
+  it("writes the finding's trace as readable lines in one cell, citing the long source on Trace sources", () => {
+    const [row] = rowsOf(workbook.getWorksheet("Finding traces")!).filter((r) => r["Finding ID"].value === findingId);
+    const sourceId = getDb().select().from(findingTraces).where(eq(findingTraces.findingId, findingId)).get()!.sourceIds![0];
+    expect(row["Finding"].value).toBe("exportol in FR-1 could reach 210 % LFL if the refrigerator fails");
+    const text = row["Calculation trace (one line per input, step, result and warning)"];
+    expect(text.type).toBe(ExcelJS.ValueType.String);
+    expect(text.numFmt).toBe("@");
+    expect(String(text.value).split("\n")).toEqual([
+      "Method: Closed-enclosure bound — after Popendorf's closed-room worst case",
+      "Worst-case temperature (T) = 28 °C — room design maximum",
+      `Lower flammable limit (LFL) = 1.9 % vol — [S${sourceId}]`,
+      "Saturation vapor pressure: log10(P/kPa) = A − B/(T + C); log10(P) = 6.1 − 1000/(28 + 230) → 22.7 kPa — Saturation vapor pressure (Psat)",
+      "Result: Fraction of the LFL (C/LFL) = 210 % LFL",
+      "Warning: @SUM(A1)",
     ]);
-    const step = rows[3];
-    expect(step["Formula or method"].value).toBe("log10(P/kPa) = A − B/(T + C)");
-    expect(step["With the numbers"].value).toBe("log10(P) = 6.1 − 1000/(28 + 230)");
-    expect(step["Value"].value).toBe(22.7);
-    expect(step["Value"].type).toBe(ExcelJS.ValueType.Number);
-    expect(step["Unit"].value).toBe("kPa");
-    expect(step["Path in the trace"].value).toBe("steps[1]");
-    expect(rows[1]["Note or source"].value).toBe("room design maximum");
-    expect(rows[0]["Formula or method"].value).toBe("Closed-enclosure bound");
+    expect(row["Sources cited"].value).toBe(`S${sourceId}`);
+    const sources = rowsOf(workbook.getWorksheet("Trace sources")!);
+    expect(sources.map((r) => [r["Reference"].value, r["Source"].value])).toEqual([[`S${sourceId}`, LONG_SOURCE]]);
   });
 
   it("lists the containers in storage, locations with worst cases, the excursion and the substance with its sources", () => {
@@ -372,7 +374,8 @@ describe("the site filter and who may download", () => {
     expect(rowsOf(workbook.getWorksheet("Locations")!).map((r) => r["Room"].value)).toEqual(["X-9", "X-9"]);
     expect(rowsOf(workbook.getWorksheet("Excursions")!)).toEqual([]);
     const trace = rowsOf(workbook.getWorksheet("Finding traces")!);
-    expect(trace.map((r) => [r["Label or quantity"].value, r["Value"].value, r["Unit"].value])).toEqual([["Class IB volume", 12, "L"]]);
+    expect(trace.map((r) => [r["Finding ID"].value, r["Calculation trace (one line per input, step, result and warning)"].value])).toEqual([[otherFindingId, "Class IB volume: 12 L"]]);
+    expect(rowsOf(workbook.getWorksheet("Trace sources")!)).toEqual([]);
     const labelled = new Map<string, unknown>();
     workbook.getWorksheet("Summary")!.eachRow((row) => labelled.set(String(row.getCell(1).value), row.getCell(2).value));
     expect(labelled.get("Site")).toBe("Other campus");
@@ -448,19 +451,20 @@ describe("writeRegisterWorkbook", () => {
   }
 
   it("continues a table too long for one worksheet on the next, each part with its header, frozen row and filter", async () => {
-    const bytes = await toBuffer((output) => writeRegisterWorkbook(output, { generatedBy: "test", nowMs: Date.now(), maxSheetRows: 4, siteId }));
+    const bytes = await toBuffer((output) => writeRegisterWorkbook(output, { generatedBy: "test", nowMs: Date.now(), maxSheetRows: 2 }));
     const workbook = new ExcelJS.Workbook();
     await workbook.xlsx.load(bytes as unknown as ExcelJS.Buffer);
-    // The finding's trace has 6 rows: 3 per part below a header row.
-    expect(workbook.worksheets.map((s) => s.name)).toEqual(["Summary", "Findings", "Finding traces", "Finding traces (2)", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions", "Methods and cautions (2)", "Methods and cautions (3)", "Methods and cautions (4)", "Methods and cautions (5)", "Methods and cautions (6)", "Methods and cautions (7)", "Methods and cautions (8)"]);
-    for (const name of ["Finding traces", "Finding traces (2)"]) {
+    // Two findings, one data row per part below its header row.
+    const names = workbook.worksheets.map((s) => s.name);
+    expect(names.slice(0, 5)).toEqual(["Summary", "Findings", "Findings (2)", "Finding traces", "Finding traces (2)"]);
+    for (const name of ["Findings", "Findings (2)", "Finding traces", "Finding traces (2)"]) {
       const sheet = workbook.getWorksheet(name)!;
       expect(headers(sheet)[0]).toBe("Finding ID");
       expect(sheet.views[0]).toMatchObject({ state: "frozen", ySplit: 1 });
       expect(sheet.autoFilter).toBeTruthy();
     }
-    const steps = [...rowsOf(workbook.getWorksheet("Finding traces")!), ...rowsOf(workbook.getWorksheet("Finding traces (2)")!)].map((r) => r["Step"].value);
-    expect(steps).toEqual([1, 2, 3, 4, 5, 6]);
+    const ids = ["Finding traces", "Finding traces (2)"].flatMap((name) => rowsOf(workbook.getWorksheet(name)!).map((r) => r["Finding ID"].value));
+    expect(ids).toEqual([findingId, otherFindingId]);
   });
 
   it("stops with ExportCancelledError when its output closes early", async () => {
