@@ -31,7 +31,7 @@ import {
 } from "./context";
 import { capitalise, formatSig, formatSignificant } from "./format";
 import { ruleLabel } from "./rule-ids";
-import { lflSeverity } from "./severity";
+import { lflSeverity, severityRank } from "./severity";
 import type { FindingTrace, SubstanceSnapshot } from "./types";
 import { groupVapor, lflOf, type ComponentVapor, type GroupVapor } from "./vapors";
 
@@ -66,6 +66,36 @@ export function lflSeverityStep(ctx: AssessmentContext, fraction: number, severi
     severity,
     ctx.settings.lfl.source,
   );
+}
+
+type EnclosureGrade = { severity: Severity; fromFraction: Severity; capped: boolean };
+
+/**
+ * An enclosure finding's severity: from the LFL alarm fractions, and inside a unit whose interior
+ * is free of ignition sources at most the settings' `lfl.ignitionFreeMaxSeverity`.
+ */
+export function enclosureSeverity(ctx: AssessmentContext, fraction: number): EnclosureGrade | null {
+  const fromFraction = lflSeverity(fraction, ctx.settings);
+  if (fromFraction === null) return null;
+  const cap = ctx.settings.lfl.ignitionFreeMaxSeverity;
+  if (ctx.unit?.ignitionSourceFree && severityRank(fromFraction) > severityRank(cap)) return { severity: cap, fromFraction, capped: true };
+  return { severity: fromFraction, fromFraction, capped: false };
+}
+
+function enclosureSeveritySteps(ctx: AssessmentContext, fraction: number, grade: EnclosureGrade): TraceStep[] {
+  const steps = [lflSeverityStep(ctx, fraction, grade.fromFraction)];
+  if (grade.capped) {
+    steps.push(
+      severityStep(
+        "The unit's interior is free of ignition sources: at most the severity the settings allow for such a unit",
+        "severity = min(severity from f, cap for an ignition-free interior)",
+        `min(${grade.fromFraction}, ${grade.severity}) = ${grade.severity}`,
+        grade.severity,
+        ctx.settings.lfl.source,
+      ),
+    );
+  }
+  return steps;
 }
 
 export function lflThresholdInputs(ctx: AssessmentContext): TraceValue[] {
@@ -177,8 +207,9 @@ function largestContainerFinding(
   const list = contributions(vapor, lfls, largest.massG, molarVolumeL, volume.freeVolumeM3);
   if (list.length === 0) return;
   const fraction = fractionOf(list);
-  const severity = lflSeverity(fraction, ctx.settings);
-  if (severity === null) return;
+  const grade = enclosureSeverity(ctx, fraction);
+  if (grade === null) return;
+  const severity = grade.severity;
   const percent = fraction * 100;
   ctx.finding({
     rule: "enclosure-lfl",
@@ -195,7 +226,7 @@ function largestContainerFinding(
     unit: "% LFL",
     view,
     containerIds: group.containers.map((c) => c.liquid.containerId),
-    trace: () => largestContainerTrace(ctx, group, vapor, list, largest, view, volume, molarVolumeL, fraction, severity),
+    trace: () => largestContainerTrace(ctx, group, vapor, list, largest, view, volume, molarVolumeL, fraction, grade),
   });
 }
 
@@ -209,7 +240,7 @@ function largestContainerTrace(
   volume: EnclosureVolume,
   molarVolumeL: number,
   fraction: number,
-  severity: Severity,
+  grade: EnclosureGrade,
 ): FindingTrace {
   const { lfl } = ctx.settings;
   const parts: Trace[] = [];
@@ -243,7 +274,7 @@ function largestContainerTrace(
   parts.push(lflPart(list, [lfl.moderate, lfl.high, lfl.critical]));
   const chatelier = leChatelierPart(list);
   if (chatelier) parts.push(chatelier);
-  steps.push(lflSeverityStep(ctx, fraction, severity));
+  steps.push(...enclosureSeveritySteps(ctx, fraction, grade));
   const percent = fraction * 100;
   return findingTrace({
     rule: "enclosure-lfl",
@@ -347,8 +378,9 @@ function openContainersFinding(
 ): void {
   const items = totals.map((total) => ({ total, concentrationPpm: Math.min(total.sumPpm, total.pureSaturatedPpm), lflVolPercent: total.lflVolPercent }));
   const fraction = fractionOf(items);
-  const severity = lflSeverity(fraction, ctx.settings);
-  if (severity === null) return;
+  const grade = enclosureSeverity(ctx, fraction);
+  if (grade === null) return;
+  const severity = grade.severity;
   const percent = fraction * 100;
   ctx.finding({
     rule: "enclosure-lfl",
@@ -377,7 +409,7 @@ function openContainersFinding(
           traceValue(`Concentration of ${item.total.substance.name}`, "C", item.concentrationPpm, "ppm"),
         ),
       );
-      steps.push(lflSeverityStep(ctx, fraction, severity));
+      steps.push(...enclosureSeveritySteps(ctx, fraction, grade));
       return findingTrace({
         rule: "enclosure-lfl",
         scenario: view.scenario,

@@ -78,7 +78,8 @@ export const DEFAULT_ASSESSMENT_SETTINGS: AssessmentSettings = {
     moderate: 0.1,
     high: 0.25,
     critical: 1,
-    source: `${DEFAULT_NOTE} 10 % LFL: OSHA 29 CFR 1910.146 (a hazardous atmosphere in a permit-required confined space has flammable vapor in excess of 10 % of its LFL) and the 10 % LEL criterion NIOSH added to its IDLH values in 1994. 25 % LFL: NYC Fire Code 502.9.5.1 (vapor detection shuts dispensing down at 25 % of the LFL), the usual ventilation design target and area-classification practice. 100 % LFL: the lower flammable limit itself — the vapor can burn. No single standard sets these alarm fractions; gas-detector defaults differ by maker.`,
+    ignitionFreeMaxSeverity: "high",
+    source: `${DEFAULT_NOTE} 10 % LFL: OSHA 29 CFR 1910.146 (a hazardous atmosphere in a permit-required confined space has flammable vapor in excess of 10 % of its LFL) and the 10 % LEL criterion NIOSH added to its IDLH values in 1994. 25 % LFL: NYC Fire Code 502.9.5.1 (vapor detection shuts dispensing down at 25 % of the LFL), the usual ventilation design target and area-classification practice. 100 % LFL: the lower flammable limit itself — the vapor can burn. No single standard sets these alarm fractions; gas-detector defaults differ by maker. At most high inside a unit whose interior is free of ignition sources (a rated flammable-liquid cabinet, a flammable-storage or explosion-proof refrigerator): Headroom's own default, common practice rather than a published rule — such a unit is built so that nothing inside can ignite the vapor, which becomes a hazard once it escapes (door opened, spill); set it to critical to grade such units like any other.`,
   },
   flashPoint: {
     marginC: 10,
@@ -184,7 +185,14 @@ const quantityLimitSchema = z
 
 export const assessmentSettingsSchema: z.ZodType<AssessmentSettings> = z.object({
   lfl: z
-    .object({ moderate: fractionOfLimit("The moderate LFL fraction"), high: fractionOfLimit("The high LFL fraction"), critical: fractionOfLimit("The critical LFL fraction"), source })
+    .object({
+      moderate: fractionOfLimit("The moderate LFL fraction"),
+      high: fractionOfLimit("The high LFL fraction"),
+      critical: fractionOfLimit("The critical LFL fraction"),
+      // Settings stored before this field existed keep their values and get the default.
+      ignitionFreeMaxSeverity: severity.default("high"),
+      source,
+    })
     .refine((lfl) => lfl.moderate < lfl.high && lfl.high < lfl.critical, {
       message: "The LFL fractions must rise from moderate to high to critical.",
       path: ["high"],

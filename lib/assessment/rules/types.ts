@@ -182,7 +182,18 @@ export type MissingDataKind =
  */
 export type AssessmentSettings = {
   /** Fractions of the LFL (0.10 = 10 % LFL) reached at or above which a finding has that severity. */
-  readonly lfl: { readonly moderate: number; readonly high: number; readonly critical: number; readonly source: string };
+  readonly lfl: {
+    readonly moderate: number;
+    readonly high: number;
+    readonly critical: number;
+    /**
+     * The most an enclosure finding can be inside a unit whose interior is free of ignition sources
+     * (a rated cabinet, a flammable-storage or explosion-proof refrigerator): the vapor there has
+     * nothing to ignite it until it escapes. "critical" treats such units like any other.
+     */
+    readonly ignitionFreeMaxSeverity: Severity;
+    readonly source: string;
+  };
   readonly flashPoint: {
     /** A worst case within this many °C below the flash point is flagged too. */
     readonly marginC: number;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { assessLocation, buildMixtureSnapshot, type CandidateFinding } from "@/lib/assessment/rules";
+import { assessLocation, buildMixtureSnapshot, DEFAULT_ASSESSMENT_SETTINGS, type CandidateFinding } from "@/lib/assessment/rules";
 import { CAS, container, designWorstCase, relativeDeviation, roomSnapshot, substance, unitSnapshot } from "./fixtures";
 
 const byFingerprint = (findings: CandidateFinding[], fingerprint: string) => {
@@ -12,7 +12,7 @@ const byFingerprint = (findings: CandidateFinding[], fingerprint: string) => {
 describe("enclosure-lfl: closed units", () => {
   const ether = substance(CAS.diethylEther);
 
-  it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 578 000 ppm = 3400 % LFL (critical)", () => {
+  it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 578 000 ppm = 3400 % LFL (critical by the fractions, high in a rated unit)", () => {
     // Psat(20 °C) from the Poling Antoine set: log10(P/bar) = 4.10962 − 1090.64/(293.15 − 41.95) → 58.600 kPa; the
     // handbook check value is 442 mmHg = 58.93 kPa (NRC Prudent Practices 1995, LCSS), 0.6 % higher.
     // C_sat = 58.600/101.325 × 10⁶ = 578 341 ppm. All-evaporated: 4 L × 713 g/L (density recalled from memory,
@@ -24,7 +24,13 @@ describe("enclosure-lfl: closed units", () => {
       }),
     );
     const finding = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|in_control");
-    expect(finding.severity).toBe("critical");
+    // 3400 % LFL ≥ 100 % → critical by the alarm fractions; the flammable-storage refrigerator's
+    // interior is free of ignition sources, so the default cap makes it high (both steps in the trace).
+    expect(finding.severity).toBe("high");
+    expect(finding.trace.steps.map((step) => [step.description, step.result?.value])).toEqual([
+      ["Severity from the LFL alarm fractions (reached at or above)", "critical"],
+      ["The unit's interior is free of ignition sources: at most the severity the settings allow for such a unit", "high"],
+    ]);
     expect(relativeDeviation(finding.value as number, 3402.0)).toBeLessThan(1e-4);
     expect(relativeDeviation(finding.value as number, (442 / 760) * 1e6 / 17000 * 100)).toBeLessThan(0.01);
     expect(finding).toMatchObject({ unit: "% LFL", limitValue: 100, containerId: 41, substanceId: 7, storageUnitId: 12, roomId: 7, siteId: 1 });
@@ -34,6 +40,17 @@ describe("enclosure-lfl: closed units", () => {
     expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3400 % LFL at its worst case in control (20.0 °C)");
     const bound = finding.trace.parts.find((part) => part.method === "Closed-enclosure bound");
     expect(bound?.steps.at(-1)?.description).toBe("The smaller of the two (saturation-limited)");
+  });
+
+  it("the same bottle is critical in a unit with ignition sources inside, or when the cap for rated units is set to critical", () => {
+    const bottle = [container(ether, 4, "L", "sealed", { containerId: 41 })];
+    const worstCase = { inControl: designWorstCase(20, "upper end of the set range"), controlLost: designWorstCase(20) };
+    const domestic = assessLocation(unitSnapshot(bottle, { kind: "domestic_refrigerator", ignitionSourceFree: false, worstCase }));
+    expect(byFingerprint(domestic, "enclosure-lfl|unit:12|substance:7|in_control").severity).toBe("critical");
+    const uncapped = { ...DEFAULT_ASSESSMENT_SETTINGS, lfl: { ...DEFAULT_ASSESSMENT_SETTINGS.lfl, ignitionFreeMaxSeverity: "critical" as const } };
+    const rated = byFingerprint(assessLocation(unitSnapshot(bottle, { worstCase }), uncapped), "enclosure-lfl|unit:12|substance:7|in_control");
+    expect(rated.severity).toBe("critical");
+    expect(rated.trace.steps).toHaveLength(1);
   });
 
   it("a 10 mL bottle in the same refrigerator at 4 °C is inventory-limited: 7813 ppm = 46 % LFL (high)", () => {

@@ -62,8 +62,9 @@ describe("missing-data: nothing is skipped silently", () => {
     expect(missing(findings).map((f) => [f.fingerprint, f.severity, f.title])).toEqual([
       ["missing-data|unit:12|unit-volume/no-unit-volume|in_control", "low", "Missing data: FSR-1 has no internal volume"],
     ]);
-    // 10 mL would have given 46 % LFL; without the volume the bound is C_sat = 2.9 × 10⁵ ppm: critical.
-    expect(findings.find((f) => f.rule === "enclosure-lfl")?.severity).toBe("critical");
+    // 10 mL would have given 46 % LFL; without the volume the bound is C_sat = 2.9 × 10⁵ ppm: critical by
+    // the fractions, high in this flammable-storage refrigerator (interior free of ignition sources).
+    expect(findings.find((f) => f.rule === "enclosure-lfl")?.severity).toBe("high");
   });
 
   it("no worst-case temperature: each scenario that lacks one is reported", () => {

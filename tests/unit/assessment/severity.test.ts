@@ -56,6 +56,13 @@ describe("default thresholds", () => {
     expect(assessmentSettingsSchema.parse(settings)).toEqual(settings);
   });
 
+  it("keeps settings stored before the cap for ignition-free units existed, giving them the default cap (high)", () => {
+    const { ignitionFreeMaxSeverity, ...olderLfl } = settings.lfl;
+    expect(ignitionFreeMaxSeverity).toBe("high");
+    const older = { ...settings, lfl: { ...olderLfl, critical: 2 } };
+    expect(assessmentSettingsSchema.parse(older).lfl).toEqual({ ...olderLfl, critical: 2, ignitionFreeMaxSeverity: "high" });
+  });
+
   it("the schema rejects fractions out of order, an evacuation level above the deficiency level and an empty source", () => {
     const bad = (change: (s: AssessmentSettings) => unknown) => assessmentSettingsSchema.safeParse(change(structuredClone(settings) as AssessmentSettings));
     const lfl = bad((s) => ({ ...s, lfl: { ...s.lfl, high: 0.05 } }));

@@ -43,6 +43,7 @@ function groups(s: AssessmentSettings): Group[] {
         ["Moderate from", percent(s.lfl.moderate)],
         ["High from", percent(s.lfl.high)],
         ["Critical from", percent(s.lfl.critical)],
+        ["At most, inside a unit free of ignition sources", sev(s.lfl.ignitionFreeMaxSeverity)],
       ],
       source: s.lfl.source,
     },

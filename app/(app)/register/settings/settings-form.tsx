@@ -1,43 +1,71 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent, type ReactNode } from "react";
+import { useState, type ChangeEvent, type FormEvent, type ReactNode } from "react";
 import { Button } from "@/components/ui/button";
 import { describedBy, Field, inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
+import { SEVERITIES, type Severity } from "@/db/enums";
 import type { AssessmentSettings } from "@/lib/assessment/rules";
 
-/** One editable number: its API path, how it is shown (a % of a fraction, cm of metres…). */
-type FieldSpec = { path: string; label: string; unit: string; toShown: (s: AssessmentSettings) => number; fromShown: (s: AssessmentSettings, shown: number) => AssessmentSettings };
+const SEVERITY_WORDS: Record<Severity, string> = { critical: "Critical", high: "High", moderate: "Moderate", low: "Low" };
+
+/**
+ * One editable setting: its API path, how it is shown (a % of a fraction, cm of metres…) and read
+ * back. Numbers are checked here first; the server's schema has the last word.
+ */
+type FieldSpec =
+  | { kind: "number"; path: string; label: string; unit: string; toShown: (s: AssessmentSettings) => number; fromShown: (s: AssessmentSettings, shown: number) => AssessmentSettings }
+  | { kind: "severity"; path: string; label: string; hint?: string; toShown: (s: AssessmentSettings) => Severity; fromShown: (s: AssessmentSettings, shown: Severity) => AssessmentSettings }
+  | { kind: "source"; path: string; label: string; toShown: (s: AssessmentSettings) => string; fromShown: (s: AssessmentSettings, shown: string) => AssessmentSettings };
 
 const round = (value: number) => Number(value.toPrecision(12));
+
+const SOURCE_HINT = "Where these values come from. Say so when you change one: it is printed with every finding they grade and in the audit workbook.";
 
 const FIELDS: { legend: string; fields: FieldSpec[] }[] = [
   {
     legend: "Flammable vapour (share of the LFL)",
-    fields: (["moderate", "high", "critical"] as const).map((level) => ({
-      path: `lfl.${level}`,
-      label: `${level[0].toUpperCase()}${level.slice(1)} from`,
-      unit: "% LFL",
-      toShown: (s) => round(s.lfl[level] * 100),
-      fromShown: (s, shown) => ({ ...s, lfl: { ...s.lfl, [level]: round(shown / 100) } }),
-    })),
+    fields: [
+      ...(["moderate", "high", "critical"] as const).map(
+        (level): FieldSpec => ({
+          kind: "number",
+          path: `lfl.${level}`,
+          label: `${level[0].toUpperCase()}${level.slice(1)} from`,
+          unit: "% LFL",
+          toShown: (s) => round(s.lfl[level] * 100),
+          fromShown: (s, shown) => ({ ...s, lfl: { ...s.lfl, [level]: round(shown / 100) } }),
+        }),
+      ),
+      {
+        kind: "severity",
+        path: "lfl.ignitionFreeMaxSeverity",
+        label: "At most, inside a unit free of ignition sources",
+        hint: "Rated cabinets and flammable-storage or explosion-proof refrigerators. Choose critical to grade them like any other unit.",
+        toShown: (s) => s.lfl.ignitionFreeMaxSeverity,
+        fromShown: (s, shown) => ({ ...s, lfl: { ...s.lfl, ignitionFreeMaxSeverity: shown } }),
+      },
+      { kind: "source", path: "lfl.source", label: "Source of these values", toShown: (s) => s.lfl.source, fromShown: (s, shown) => ({ ...s, lfl: { ...s.lfl, source: shown } }) },
+    ],
   },
   {
     legend: "Flash point",
     fields: [
       {
+        kind: "number",
         path: "flashPoint.marginC",
         label: "Margin below the flash point",
         unit: "°C",
         toShown: (s) => s.flashPoint.marginC,
         fromShown: (s, shown) => ({ ...s, flashPoint: { ...s.flashPoint, marginC: shown } }),
       },
+      { kind: "source", path: "flashPoint.source", label: "Source of these values", toShown: (s) => s.flashPoint.source, fromShown: (s, shown) => ({ ...s, flashPoint: { ...s.flashPoint, source: shown } }) },
     ],
   },
   {
     legend: "Spill assumptions",
     fields: [
       {
+        kind: "number",
         path: "spill.poolDepthM",
         label: "Pool depth",
         unit: "cm",
@@ -45,6 +73,7 @@ const FIELDS: { legend: string; fields: FieldSpec[] }[] = [
         fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, poolDepthM: round(shown / 100) } }),
       },
       {
+        kind: "number",
         path: "spill.durationMin",
         label: "Duration",
         unit: "min",
@@ -52,12 +81,14 @@ const FIELDS: { legend: string; fields: FieldSpec[] }[] = [
         fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, durationMin: shown } }),
       },
       {
+        kind: "number",
         path: "spill.airSpeedMPerS",
         label: "Air speed over the pool",
         unit: "m/s",
         toShown: (s) => s.spill.airSpeedMPerS,
         fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, airSpeedMPerS: shown } }),
       },
+      { kind: "source", path: "spill.source", label: "Source of these values", toShown: (s) => s.spill.source, fromShown: (s, shown) => ({ ...s, spill: { ...s.spill, source: shown } }) },
     ],
   },
 ];
@@ -84,10 +115,16 @@ export function SettingsForm({ settings, progress }: { settings: AssessmentSetti
     const errors: Record<string, string[]> = {};
     let next = settings;
     for (const field of ALL_FIELDS) {
-      const text = values[field.path].trim().replace(",", ".");
-      const shown = Number(text);
-      if (!text || !Number.isFinite(shown)) errors[field.path] = [`Enter a number in ${field.unit}.`];
-      else next = field.fromShown(next, shown);
+      const text = values[field.path].trim();
+      if (field.kind === "number") {
+        const shown = Number(text.replace(",", "."));
+        if (!text || !Number.isFinite(shown)) errors[field.path] = [`Enter a number in ${field.unit}.`];
+        else next = field.fromShown(next, shown);
+      } else if (field.kind === "severity") {
+        if (!(SEVERITIES as readonly string[]).includes(text)) errors[field.path] = ["Choose a severity."];
+        else next = field.fromShown(next, text as Severity);
+      } else if (!text) errors[field.path] = ["Say where the values come from."];
+      else next = field.fromShown(next, text);
     }
     setFieldErrors(errors);
     if (Object.keys(errors).length) return;
@@ -122,20 +159,38 @@ export function SettingsForm({ settings, progress }: { settings: AssessmentSetti
           {group.fields.map((field) => {
             const id = `setting-${field.path.replace(".", "-")}`;
             const errors = fieldErrors[field.path];
+            const common = {
+              id,
+              name: field.path,
+              value: values[field.path],
+              "aria-invalid": errors?.length ? true : undefined,
+              onChange: (event: ChangeEvent<HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement>) => setValues((v) => ({ ...v, [field.path]: event.target.value })),
+            };
+            if (field.kind === "source") {
+              return (
+                <div key={field.path} className="sm:col-span-3">
+                  <Field id={id} label={field.label} hint={SOURCE_HINT} errors={errors}>
+                    <textarea {...common} rows={3} maxLength={4000} className={`${inputClass} h-auto py-2`} aria-describedby={describedBy(id, SOURCE_HINT, errors)} />
+                  </Field>
+                </div>
+              );
+            }
+            if (field.kind === "severity") {
+              return (
+                <Field key={field.path} id={id} label={field.label} hint={field.hint} errors={errors}>
+                  <select {...common} className={inputClass} aria-describedby={describedBy(id, field.hint, errors)}>
+                    {SEVERITIES.map((severity) => (
+                      <option key={severity} value={severity}>
+                        {SEVERITY_WORDS[severity]}
+                      </option>
+                    ))}
+                  </select>
+                </Field>
+              );
+            }
             return (
               <Field key={field.path} id={id} label={`${field.label} (${field.unit})`} errors={errors}>
-                <input
-                  id={id}
-                  name={field.path}
-                  type="number"
-                  step="any"
-                  inputMode="decimal"
-                  className={inputClass}
-                  value={values[field.path]}
-                  aria-invalid={errors?.length ? true : undefined}
-                  aria-describedby={describedBy(id, undefined, errors)}
-                  onChange={(event) => setValues((v) => ({ ...v, [field.path]: event.target.value }))}
-                />
+                <input {...common} type="number" step="any" inputMode="decimal" className={inputClass} aria-describedby={describedBy(id, undefined, errors)} />
               </Field>
             );
           })}
