@@ -9,8 +9,11 @@
 // 2. Through the database: a temporary register of 100,000 containers in 2,000 units (100 rooms × 20)
 //    re-assessed with `reassessRooms` in batches of rooms, as the re-assessment job does. Targets: the
 //    full re-assessment with nothing changed under 2 s (also printed as a ratio to a bare scan of the
-//    same container rows), and one container moved (`moveContainer`, which re-assesses its two rooms
-//    in its transaction) well under 100 ms. Wall-clock times; the load average is printed beside them.
+//    same container rows) — every room's inputs are read and digested, and a room whose digest is
+//    that of its last assessment is not assessed again (lib/assessment/service.ts reassessRooms) —,
+//    the same forced through every rule for comparison (no target), and one container moved
+//    (`moveContainer`, which re-assesses its two rooms in its transaction) well under 100 ms.
+//    Wall-clock times; the load average is printed beside them.
 //
 // Run with `npx tsx --conditions=react-server bench/assessment.ts` (the condition makes
 // `import "server-only"` a no-op). `--rules-only` / `--database-only` run one section. It reports;
@@ -327,15 +330,15 @@ async function runDatabaseSection(): Promise<void> {
   console.log(`(a) Bare better-sqlite3 scan of the ${DB_CONTAINER_COUNT.toLocaleString("en-GB")} container rows: ${(scanS * 1000).toFixed(1)} ms (T0)`);
 
   const roomIds = allRoomIds(db);
-  const fullAssessment = (reason: string) => {
+  const fullAssessment = (reason: string, force = false) => {
     const begun = performance.now();
     const settings = loadAssessmentSettings(db);
     const library = new SnapshotLibrary(db);
-    const totals = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, units: 0 };
+    const totals = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, units: 0, roomsUnchanged: 0 };
     for (let i = 0; i < roomIds.length; i += ROOMS_PER_BATCH) {
       const batch = roomIds.slice(i, i + ROOMS_PER_BATCH);
-      const result = db.transaction((tx) => reassessRooms(tx, batch, { reason, settings, library, notify: false, nowMs: Date.now() }));
-      for (const key of ["raised", "updated", "resolved", "reopened", "unchanged", "units"] as const) totals[key] += result[key];
+      const result = db.transaction((tx) => reassessRooms(tx, batch, { reason, settings, library, notify: false, nowMs: Date.now(), force }));
+      for (const key of ["raised", "updated", "resolved", "reopened", "unchanged", "units", "roomsUnchanged"] as const) totals[key] += result[key];
     }
     return { seconds: secondsSince(begun), ...totals };
   };
@@ -350,10 +353,20 @@ async function runDatabaseSection(): Promise<void> {
   const reS = medianOf(again.map((r) => r.seconds));
   const last = again[again.length - 1];
   console.log(
-    `(c) Full re-assessment, nothing changed (${findingCount} findings: ${last.unchanged} unchanged, ${last.raised} raised, ${last.updated} updated, ${last.resolved} resolved): ` +
+    `(c) Full re-assessment, nothing changed (${findingCount} findings; in the rooms assessed: ${last.unchanged} unchanged, ${last.raised} raised, ${last.updated} updated, ${last.resolved} resolved): ` +
       `median ${reS.toFixed(2)} s of ${again.map((r) => r.seconds.toFixed(2)).join(", ")}, ${(reS / scanS).toFixed(0)} × T0 [load ${load()}]`,
   );
+  console.log(`    ${last.roomsUnchanged} of ${roomIds.length} rooms had the inputs of their last assessment (same settings, rooms, units, containers, substances and worst cases) and were not assessed again.`);
   console.log(`    Target under ${FULL_TARGET_S} s: ${reS < FULL_TARGET_S ? "met" : "NOT met"}`);
+
+  // (c′) The same, forced: every rule run and every finding compared although nothing changed
+  // (the cost when the inputs of every room do change, e.g. after a settings change).
+  const forced = [fullAssessment("forced re-assessment", true), fullAssessment("forced re-assessment", true)];
+  const forcedS = medianOf(forced.map((r) => r.seconds));
+  console.log(
+    `(c′) Forced full re-assessment, every rule run (${forced[1].unchanged} findings unchanged): median ${forcedS.toFixed(2)} s of ${forced.map((r) => r.seconds.toFixed(2)).join(", ")}, ` +
+      `${(forcedS / scanS).toFixed(0)} × T0 [load ${load()}] (no target; reported for comparison)`,
+  );
 
   // (d) One container moved to another room's unit: moveContainer re-assesses both rooms in its transaction.
   const officer = sqlite.prepare("select id, email, name, role from users where role = 'safety_officer'").get() as { id: number; email: string; name: string; role: "safety_officer" };

@@ -47,3 +47,24 @@ export function closeDb(): void {
 
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 export type DbOrTx = Db | Tx;
+
+/** The better-sqlite3 connection under a Drizzle database or transaction (one connection per process). */
+export function sqliteOf(db: DbOrTx): Database.Database {
+  return (db as unknown as { session: { client: Database.Database } }).session.client;
+}
+
+const statementCache = new WeakMap<Database.Database, Map<string, Database.Statement>>();
+
+/**
+ * A prepared statement on the connection under `db`, prepared once per connection. For the few
+ * hot paths (re-assessment, exports) where the query builder's row mapping costs as much as SQLite.
+ * Pass lists as JSON text and read them with `json_each(?)`.
+ */
+export function preparedOn(db: DbOrTx, source: string): Database.Statement {
+  const sqlite = sqliteOf(db);
+  let cache = statementCache.get(sqlite);
+  if (!cache) statementCache.set(sqlite, (cache = new Map()));
+  let statement = cache.get(source);
+  if (!statement) cache.set(source, (statement = sqlite.prepare(source)));
+  return statement;
+}

@@ -177,6 +177,14 @@ export const rooms = sqliteTable(
     facilitiesContactId: integer("facilities_contact_id").references(() => users.id, { onDelete: "set null" }),
     notes: text("notes"),
     retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    /**
+     * When the room and its units were last assessed. A finding whose condition still holds was
+     * assessed then too (its own last_evaluated_at moves only when it is written), so a
+     * re-assessment that changes nothing writes one row per room, not one per finding.
+     */
+    assessedAt: integer("assessed_at", { mode: "timestamp_ms" }),
+    /** The digest of what that assessment read (lib/assessment/service.ts roomInputKey); equal inputs are not assessed again. */
+    assessmentInputKey: text("assessment_input_key"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -557,7 +565,8 @@ export const findings = sqliteTable(
     uniqueIndex("findings_fingerprint_unique").on(t.fingerprint),
     index("findings_status_severity_idx").on(t.status, t.severity),
     index("findings_site_idx").on(t.siteId),
-    index("findings_room_idx").on(t.roomId),
+    // Room first, then unit: a room's own findings (unit null) without reading its units' findings.
+    index("findings_room_unit_idx").on(t.roomId, t.storageUnitId),
     index("findings_storage_unit_idx").on(t.storageUnitId),
     index("findings_container_idx").on(t.containerId),
     index("findings_substance_idx").on(t.substanceId),

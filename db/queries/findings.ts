@@ -4,6 +4,7 @@ import { alias } from "drizzle-orm/sqlite-core";
 import { getDb } from "@/db/client";
 import { containers, findingEvents, findings, findingTraces, mixtures, rooms, sites, storageUnits, substances, users, type Severity } from "@/db/schema";
 import type { FindingListQuery } from "@/lib/register/schemas";
+import { lastAssessedAt } from "@/lib/register/store";
 import type { Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 
@@ -180,13 +181,14 @@ export function countFindingsBySeverity(user: SessionUser, scope: Scope, query: 
 export function getFinding(user: SessionUser, scope: Scope, id: number) {
   const db = getDb();
   const row = db
-    .select({ finding: findings, trace: findingTraces.trace })
+    .select({ finding: findings, trace: findingTraces.trace, roomAssessedAt: rooms.assessedAt })
     .from(findings)
     .leftJoin(findingTraces, eq(findingTraces.findingId, findings.id))
+    .leftJoin(rooms, eq(rooms.id, findings.roomId))
     .where(and(eq(findings.id, id), findingsVisibleTo(user, scope)))
     .get();
   if (!row) return null;
-  const finding = { ...row.finding, trace: row.trace ?? null };
+  const finding = { ...row.finding, lastEvaluatedAt: lastAssessedAt(row.finding, row.roomAssessedAt), trace: row.trace ?? null };
   const actor = alias(users, "actor");
   const events = db
     .select({ id: findingEvents.id, kind: findingEvents.kind, fromStatus: findingEvents.fromStatus, toStatus: findingEvents.toStatus, note: findingEvents.note, data: findingEvents.data, at: findingEvents.at, actorId: findingEvents.actorId, actorName: actor.name })

@@ -105,7 +105,7 @@ export function exportPageQueries(db: Db) {
     `select f.id, f.severity, f.status, f.rule, f.scenario, f.title, s.name as siteName, r.code as roomCode, u.code as unitCode,
             c.label as containerLabel, sub.name as substanceName, sub.cas as cas, m.name as mixtureName,
             f.value, f.limit_value as limitValue, f.ratio, f.unit, f.worst_case_temp_c as worstCaseTempC,
-            f.worst_case_source as worstCaseSource, f.first_raised_at as firstRaisedAt, f.last_evaluated_at as lastEvaluatedAt,
+            f.worst_case_source as worstCaseSource, f.first_raised_at as firstRaisedAt, case when f.condition_holds and r.assessed_at > f.last_evaluated_at then r.assessed_at else f.last_evaluated_at end as lastEvaluatedAt,
             f.resolved_at as resolvedAt, a.name as assigneeName, f.mitigation_plan as mitigationPlan,
             f.risk_accepted_until as riskAcceptedUntil, f.fingerprint
        from findings f

@@ -2,8 +2,8 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { AMOUNT_UNITS } from "@/db/enums";
-import { mixtures, storageUnits, substances } from "@/db/schema";
+import { AMOUNT_UNITS, CONTAINER_STATES } from "@/db/enums";
+import { containers, mixtures, storageUnits, substances } from "@/db/schema";
 import { NotFoundError, ValidationError } from "@/lib/errors";
 import { optionalId, requiredId } from "@/lib/validation/fields";
 import { assessLocation, createAssessmentCache, severityRank } from "./rules";
@@ -16,6 +16,10 @@ export const assessmentPreviewSchema = z
     mixtureId: optionalId("mixture"),
     amount: z.coerce.number({ error: "amount must be a number." }).refine((v) => Number.isFinite(v) && v > 0, "amount must be more than 0."),
     amountUnit: z.enum(AMOUNT_UNITS, { error: `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.` }),
+    /** Optional: the stored container being edited, which the preview replaces by this one. */
+    containerId: optionalId("container"),
+    /** Optional: the container's state (sealed when not given; empty or disposed stores nothing). */
+    state: z.enum(CONTAINER_STATES, { error: `state must be one of: ${CONTAINER_STATES.join(", ")}.` }).optional(),
   })
   .superRefine((value, ctx) => {
     if ((value.substanceId == null) === (value.mixtureId == null)) ctx.addIssue({ code: "custom", path: ["substanceId"], message: "Give a substanceId or a mixtureId (one of them)." });
@@ -24,7 +28,8 @@ export type AssessmentPreviewInput = z.output<typeof assessmentPreviewSchema>;
 
 /**
  * What-if: the findings that storing this amount in this unit would raise or make worse, computed
- * on the current state plus the new container, without writing anything.
+ * on the current state plus the new container (or with an edited container as it would be), without
+ * writing anything.
  */
 export function previewStoring(input: AssessmentPreviewInput, nowMs = Date.now()) {
   const db = getDb();
@@ -36,11 +41,17 @@ export function previewStoring(input: AssessmentPreviewInput, nowMs = Date.now()
   if (input.mixtureId != null && !db.select({ id: mixtures.id }).from(mixtures).where(eq(mixtures.id, input.mixtureId)).get()) {
     throw new ValidationError("Choose an existing mixture.", { mixtureId: ["Choose an existing mixture."] });
   }
+  let label = "(new container)";
+  if (input.containerId != null) {
+    const stored = db.select({ id: containers.id, label: containers.label }).from(containers).where(eq(containers.id, input.containerId)).get();
+    if (!stored) throw new ValidationError("Choose an existing container.", { containerId: ["No such container."] });
+    label = stored.label;
+  }
   const settings = loadAssessmentSettings(db);
   const library = new SnapshotLibrary(db);
   const cache = createAssessmentCache();
   const run = (withNew: boolean) =>
-    buildSnapshots(db, [unit.roomId], nowMs, library, withNew ? [{ storageUnitId: unit.id, substanceId: input.substanceId ?? null, mixtureId: input.mixtureId ?? null, amount: input.amount, amountUnit: input.amountUnit, label: "(new container)" }] : [])
+    buildSnapshots(db, [unit.roomId], nowMs, library, withNew ? [{ storageUnitId: unit.id, substanceId: input.substanceId ?? null, mixtureId: input.mixtureId ?? null, amount: input.amount, amountUnit: input.amountUnit, label, state: input.state, replacesContainerId: input.containerId ?? undefined }] : [])
       .flatMap((snapshot) => assessLocation(snapshot, settings, { cache }))
       .map(toStoredCandidate);
   const before = new Map(run(false).map((c) => [c.fingerprint, c]));

@@ -1,8 +1,8 @@
 import "server-only";
-import { and, eq, inArray, isNull, notInArray } from "drizzle-orm";
-import { getDb, type DbOrTx } from "@/db/client";
+import { createHash, randomUUID } from "node:crypto";
+import { and, eq, inArray, isNull } from "drizzle-orm";
+import { getDb, preparedOn, type DbOrTx } from "@/db/client";
 import {
-  containers,
   exposureLimits,
   mixtureComponents,
   mixtures,
@@ -13,6 +13,7 @@ import {
   sites,
   storageUnits,
   substances,
+  type Container,
 } from "@/db/schema";
 import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
@@ -111,6 +112,19 @@ export class SnapshotLibrary {
     }
   }
 
+  private readonly digests = new WeakMap<object, string>();
+
+  /** A digest of everything the rules may read of a substance or mixture (computed once per run). */
+  digest(content: StoredLiquid["content"]): string {
+    const data = content.kind === "substance" ? content.substance : content.mixture;
+    let digest = this.digests.get(data);
+    if (digest === undefined) {
+      digest = createHash("sha1").update(JSON.stringify(data)).digest("base64");
+      this.digests.set(data, digest);
+    }
+    return digest;
+  }
+
   content(substanceId: number | null, mixtureId: number | null): StoredLiquid["content"] | null {
     if (substanceId != null) {
       const substance = this.substances.get(substanceId);
@@ -121,7 +135,22 @@ export class SnapshotLibrary {
   }
 }
 
-export type ExtraContent = { storageUnitId: number; substanceId: number | null; mixtureId: number | null; amount: number; amountUnit: StoredLiquid["amountUnit"]; label: string };
+/**
+ * A container that is not stored (yet) as it would be: the what-if preview. `replacesContainerId`
+ * leaves that stored container out (an edit of it); `state` defaults to sealed.
+ */
+export type ExtraContent = {
+  storageUnitId: number;
+  substanceId: number | null;
+  mixtureId: number | null;
+  amount: number;
+  amountUnit: StoredLiquid["amountUnit"];
+  label: string;
+  state?: StoredLiquid["state"];
+  replacesContainerId?: number;
+};
+
+type ContainerRow = Pick<Container, "id" | "label" | "substanceId" | "mixtureId" | "amount" | "amountUnit" | "state" | "storageUnitId">;
 
 /** Everything the rules need about some rooms and their units, read in a handful of queries. */
 export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, library = new SnapshotLibrary(db), extra: ExtraContent[] = []): LocationSnapshot[] {
@@ -136,15 +165,21 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
   if (liveRoomIds.length === 0) return [];
   const unitRows = db.select().from(storageUnits).where(and(inArray(storageUnits.roomId, liveRoomIds), isNull(storageUnits.retiredAt))).all();
   const unitIds = unitRows.map((u) => u.id);
-  const containerRows = unitIds.length
-    ? db
-        .select({ id: containers.id, label: containers.label, substanceId: containers.substanceId, mixtureId: containers.mixtureId, amount: containers.amount, amountUnit: containers.amountUnit, state: containers.state, storageUnitId: containers.storageUnitId })
-        .from(containers)
-        .where(and(inArray(containers.storageUnitId, unitIds), notInArray(containers.state, ["empty", "disposed"])))
-        .all()
+  // Straight from SQLite: for 100,000 containers the query builder's row mapping costs more than the query.
+  let containerRows = unitIds.length
+    ? (preparedOn(
+        db,
+        `select id, label, substance_id as substanceId, mixture_id as mixtureId, amount, amount_unit as amountUnit, state, storage_unit_id as storageUnitId
+           from containers where storage_unit_id in (select value from json_each(?)) and state not in ('empty', 'disposed')`,
+      ).all(JSON.stringify(unitIds)) as ContainerRow[])
     : [];
-  // A container that is not stored yet (the what-if preview): id 0, sealed.
-  for (const e of extra) containerRows.push({ id: 0, label: e.label, substanceId: e.substanceId, mixtureId: e.mixtureId, amount: e.amount, amountUnit: e.amountUnit, state: "sealed", storageUnitId: e.storageUnitId });
+  // A container that is not stored (the what-if preview): id 0 or the id of the one it stands in for.
+  const replaced = new Set(extra.flatMap((e) => (e.replacesContainerId == null ? [] : [e.replacesContainerId])));
+  if (replaced.size) containerRows = containerRows.filter((c) => !replaced.has(c.id));
+  for (const e of extra) {
+    if (e.state === "empty" || e.state === "disposed") continue;
+    containerRows.push({ id: e.replacesContainerId ?? 0, label: e.label, substanceId: e.substanceId, mixtureId: e.mixtureId, amount: e.amount, amountUnit: e.amountUnit, state: e.state ?? "sealed", storageUnitId: e.storageUnitId });
+  }
   library.load(
     [...new Set(containerRows.flatMap((c) => (c.substanceId == null ? [] : [c.substanceId])))],
     [...new Set(containerRows.flatMap((c) => (c.mixtureId == null ? [] : [c.mixtureId])))],
@@ -231,30 +266,112 @@ export function toStoredCandidate(c: CandidateFinding): FindingCandidate {
   };
 }
 
-export type ReassessResult = ReconcileResult & { rooms: number; units: number; alertsQueued: number };
+export type ReassessResult = ReconcileResult & {
+  rooms: number;
+  units: number;
+  /** Rooms whose inputs were those of their last assessment (in this process): their findings stand as they are. */
+  roomsUnchanged: number;
+  alertsQueued: number;
+};
+
+/**
+ * Changes with every start of the process, so an input key written by another process, or by an
+ * earlier version of the rules, never matches: after a deploy every room is assessed afresh.
+ */
+const PROCESS_KEY = randomUUID();
+
+/**
+ * Everything the rules read for one room and its units, as one digest: the settings, the room and
+ * unit facts with their worst cases, every container in storage and the full data of each substance
+ * and mixture in them. The rules are pure functions of exactly this, so equal digests mean equal
+ * candidates.
+ */
+function roomInputKey(settingsJson: string, room: LocationSnapshot[], library: SnapshotLibrary): string {
+  const hash = createHash("sha1").update(PROCESS_KEY).update(settingsJson);
+  for (const snapshot of room) {
+    if (snapshot.kind === "room") {
+      hash.update(JSON.stringify(snapshot.room));
+      continue;
+    }
+    hash.update(JSON.stringify(snapshot.unit));
+    for (const liquid of snapshot.contents) {
+      hash.update(`${liquid.containerId}|${liquid.label}|${liquid.amount}|${liquid.amountUnit}|${liquid.state}|${library.digest(liquid.content)};`);
+    }
+  }
+  return hash.digest("base64");
+}
 
 /**
  * Re-assesses these rooms with all their units, in the caller's transaction, and brings their
  * findings in line (raise, update, resolve, re-open), queueing the alerts for critical and high
  * ones. A retired room or unit has no candidates, so its findings resolve themselves.
+ *
+ * A room whose input digest (roomInputKey) is the one stored by its last assessment in this process
+ * is not assessed again — unless a person has changed one of its findings since (a finding marked
+ * resolved while its condition holds re-opens) or an accepted risk's review date has passed — nor
+ * when `force` is set. The digest is stored on the room in the same transaction.
  */
 export function reassessRooms(
   tx: DbOrTx,
   roomIds: number[],
-  opts: { reason?: string; nowMs?: number; notify?: boolean; settings?: AssessmentSettings; library?: SnapshotLibrary } = {},
+  opts: { reason?: string; nowMs?: number; notify?: boolean; settings?: AssessmentSettings; library?: SnapshotLibrary; force?: boolean } = {},
 ): ReassessResult {
   const nowMs = opts.nowMs ?? Date.now();
   const ids = [...new Set(roomIds)];
-  const empty: ReassessResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [], rooms: 0, units: 0, alertsQueued: 0 };
+  const empty: ReassessResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [], rooms: 0, units: 0, roomsUnchanged: 0, alertsQueued: 0 };
   if (ids.length === 0) return empty;
   const settingsNow = opts.settings ?? loadAssessmentSettings(tx);
-  const snapshots = buildSnapshots(tx, ids, nowMs, opts.library ?? new SnapshotLibrary(tx));
+  const library = opts.library ?? new SnapshotLibrary(tx);
+  const snapshots = buildSnapshots(tx, ids, nowMs, library);
+
+  const byRoom = new Map<number, LocationSnapshot[]>();
+  for (const snapshot of snapshots) {
+    const list = byRoom.get(snapshot.room.id) ?? [];
+    list.push(snapshot);
+    byRoom.set(snapshot.room.id, list);
+  }
+  const settingsJson = JSON.stringify(settingsNow);
+  const keys = new Map([...byRoom].map(([roomId, list]) => [roomId, roomInputKey(settingsJson, list, library)]));
+  const unchanged = new Set<number>();
+  if (!opts.force && keys.size) {
+    const stored = preparedOn(tx, "select id, assessment_input_key as inputKey, assessed_at as assessedAt from rooms where id in (select value from json_each(?))").all(JSON.stringify([...keys.keys()])) as {
+      id: number;
+      inputKey: string | null;
+      assessedAt: number | null;
+    }[];
+    const candidatesToSkip = stored.filter((room) => room.inputKey != null && room.inputKey === keys.get(room.id) && room.assessedAt != null);
+    if (candidatesToSkip.length) {
+      const since = Math.min(...candidatesToSkip.map((room) => room.assessedAt!));
+      const touched = new Set(
+        (
+          preparedOn(
+            tx,
+            `select distinct room_id as roomId from findings where room_id in (select value from json_each(?))
+               and (updated_at > ? or (status = 'risk_accepted' and risk_accepted_until <= ?))`,
+          ).all(JSON.stringify(candidatesToSkip.map((room) => room.id)), since, nowMs) as { roomId: number }[]
+        ).map((row) => row.roomId),
+      );
+      for (const room of candidatesToSkip) if (!touched.has(room.id)) unchanged.add(room.id);
+    }
+  }
+
+  const assessIds = ids.filter((id) => !unchanged.has(id));
   const cache = createAssessmentCache();
-  const candidates = snapshots.flatMap((snapshot) => assessLocation(snapshot, settingsNow, { cache }).map(toStoredCandidate));
-  const unitIds = tx.select({ id: storageUnits.id }).from(storageUnits).where(inArray(storageUnits.roomId, ids)).all().map((u) => u.id);
-  const result = reconcileFindings(tx, { roomIds: ids, storageUnitIds: unitIds }, candidates, { nowMs, reason: opts.reason });
+  const candidates = snapshots.filter((snapshot) => !unchanged.has(snapshot.room.id)).flatMap((snapshot) => assessLocation(snapshot, settingsNow, { cache }).map(toStoredCandidate));
+  const unitIds = assessIds.length ? tx.select({ id: storageUnits.id }).from(storageUnits).where(inArray(storageUnits.roomId, assessIds)).all().map((u) => u.id) : [];
+  const result = assessIds.length
+    ? reconcileFindings(tx, { roomIds: assessIds, storageUnitIds: unitIds }, candidates, { nowMs, reason: opts.reason })
+    : { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
+  const setKey = preparedOn(tx, "update rooms set assessment_input_key = ?, assessed_at = ? where id = ?");
+  for (const [roomId, key] of keys) setKey.run(key, nowMs, roomId);
   const alertsQueued = opts.notify === false ? 0 : queueFindingAlerts(tx, result.changes);
-  return { ...result, rooms: snapshots.filter((s) => s.kind === "room").length, units: snapshots.filter((s) => s.kind === "unit").length, alertsQueued };
+  return {
+    ...result,
+    rooms: snapshots.filter((s) => s.kind === "room").length,
+    units: snapshots.filter((s) => s.kind === "unit").length,
+    roomsUnchanged: unchanged.size,
+    alertsQueued,
+  };
 }
 
 /** The rooms that hold these units. */

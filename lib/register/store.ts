@@ -1,6 +1,6 @@
 import "server-only";
-import { and, eq, inArray, isNull, or, type SQL } from "drizzle-orm";
-import type { DbOrTx } from "@/db/client";
+import { eq } from "drizzle-orm";
+import { preparedOn, type DbOrTx } from "@/db/client";
 import { findingEvents, findings, findingTraces, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
 import { citingWith, traceText } from "./trace-text";
 
@@ -32,10 +32,39 @@ export type ReconcileResult = { raised: number; updated: number; resolved: numbe
 const SEVERITY_RANK: Record<Severity, number> = { critical: 3, high: 2, moderate: 1, low: 0 };
 const WORKING: FindingStatus[] = ["open", "acknowledged", "mitigating"];
 
+/**
+ * What the comparison needs, read straight from SQLite (for 36,000 findings the query builder's row
+ * mapping costs more than the query): not the people's fields (assignee, plan), which a
+ * re-assessment never changes, nor the trace.
+ */
+const EXISTING_SELECT = `select id, fingerprint, severity, status, title, room_id as roomId, storage_unit_id as storageUnitId, value,
+  limit_value as limitValue, ratio, worst_case_temp_c as worstCaseTempC, worst_case_source as worstCaseSource,
+  condition_holds as conditionHolds, risk_accepted_until as riskAcceptedUntil, resolved_at as resolvedAt from findings`;
+
+type ExistingRow = Omit<ExistingFinding, "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"> & { conditionHolds: number; riskAcceptedUntil: number | null; resolvedAt: number | null };
+
+function toExisting(row: ExistingRow): ExistingFinding {
+  return {
+    ...row,
+    conditionHolds: row.conditionHolds === 1,
+    riskAcceptedUntil: row.riskAcceptedUntil == null ? null : new Date(row.riskAcceptedUntil),
+    resolvedAt: row.resolvedAt == null ? null : new Date(row.resolvedAt),
+  };
+}
+
 type ExistingFinding = Pick<
   Finding,
   "id" | "fingerprint" | "severity" | "status" | "title" | "roomId" | "storageUnitId" | "value" | "limitValue" | "ratio" | "worstCaseTempC" | "worstCaseSource" | "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"
 >;
+
+/**
+ * When a finding was last assessed: its own last write, or — while its condition holds — the last
+ * assessment of its room, which confirmed it unchanged (rooms.assessedAt).
+ */
+export function lastAssessedAt(finding: { conditionHolds: boolean; lastEvaluatedAt: Date }, roomAssessedAt: Date | null): Date {
+  if (!finding.conditionHolds || roomAssessedAt == null) return finding.lastEvaluatedAt;
+  return roomAssessedAt.getTime() > finding.lastEvaluatedAt.getTime() ? roomAssessedAt : finding.lastEvaluatedAt;
+}
 
 /** A value that moved by less than this (relative) is the same finding, updated without an event. */
 const SIGNIFICANT_CHANGE = 0.01;
@@ -81,14 +110,6 @@ export class TraceWriter {
   }
 }
 
-/** Findings that belong to these locations: rooms' own findings and their units'. */
-export function findingsScope(scope: { roomIds: number[]; storageUnitIds: number[] }): SQL | undefined {
-  const parts: SQL[] = [];
-  if (scope.roomIds.length) parts.push(and(inArray(findings.roomId, scope.roomIds), isNull(findings.storageUnitId))!);
-  if (scope.storageUnitIds.length) parts.push(inArray(findings.storageUnitId, scope.storageUnitIds));
-  return parts.length ? or(...parts) : undefined;
-}
-
 /**
  * Brings the register in line with a fresh assessment of some locations, in the caller's
  * transaction. By fingerprint (rule + location + substance + scenario):
@@ -110,64 +131,27 @@ export function reconcileFindings(
 ): ReconcileResult {
   const now = new Date(opts.nowMs ?? Date.now());
   const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
-  const where = findingsScope(scope);
-  // Only what the comparison needs: not the people's fields (assignee, plan), which a re-assessment never changes.
-  const columns = {
-    id: findings.id,
-    fingerprint: findings.fingerprint,
-    severity: findings.severity,
-    status: findings.status,
-    title: findings.title,
-    roomId: findings.roomId,
-    storageUnitId: findings.storageUnitId,
-    value: findings.value,
-    limitValue: findings.limitValue,
-    ratio: findings.ratio,
-    worstCaseTempC: findings.worstCaseTempC,
-    worstCaseSource: findings.worstCaseSource,
-    conditionHolds: findings.conditionHolds,
-    riskAcceptedUntil: findings.riskAcceptedUntil,
-    resolvedAt: findings.resolvedAt,
-  };
   const existing = new Map<string, ExistingFinding>();
-  if (where) for (const row of tx.select(columns).from(findings).where(where).all()) existing.set(row.fingerprint, row);
+  const add = (rows: unknown[]) => {
+    for (const row of rows as ExistingRow[]) existing.set(row.fingerprint, toExisting(row));
+  };
+  if (scope.storageUnitIds.length) add(preparedOn(tx, `${EXISTING_SELECT} where storage_unit_id in (select value from json_each(?))`).all(JSON.stringify(scope.storageUnitIds)));
+  // Through findings_room_unit_idx: the rooms' own findings (unit null) without reading their units'.
+  if (scope.roomIds.length) add(preparedOn(tx, `${EXISTING_SELECT} where room_id in (select value from json_each(?)) and storage_unit_id is null`).all(JSON.stringify(scope.roomIds)));
   // A candidate may belong to a location outside the scope given (it should not, but its fingerprint is unique).
   const missing = candidates.filter((c) => !existing.has(c.fingerprint)).map((c) => c.fingerprint);
-  for (let i = 0; i < missing.length; i += 500) {
-    for (const row of tx.select(columns).from(findings).where(inArray(findings.fingerprint, missing.slice(i, i + 500))).all()) existing.set(row.fingerprint, row);
-  }
+  if (missing.length) add(preparedOn(tx, `${EXISTING_SELECT} where fingerprint in (select value from json_each(?))`).all(JSON.stringify(missing)));
   const seen = new Set<string>();
   const traces = new TraceWriter(tx, now);
-  // Findings the assessment confirms unchanged: only their "last assessed" time moves (no trace rebuilt).
-  const unchangedIds: number[] = [];
   const event = (findingId: number, kind: (typeof findingEvents.$inferInsert)["kind"], fromStatus: FindingStatus | null, toStatus: FindingStatus | null, note: string, data?: Record<string, unknown>) =>
     tx.insert(findingEvents).values({ findingId, kind, fromStatus, toStatus, note, data: data ?? null, actorId: null, at: now }).run();
 
   for (const candidate of candidates) {
     if (seen.has(candidate.fingerprint)) continue;
     seen.add(candidate.fingerprint);
-    const values = {
-      rule: candidate.rule,
-      severity: candidate.severity,
-      scenario: candidate.scenario,
-      title: candidate.title,
-      siteId: candidate.siteId,
-      roomId: candidate.roomId,
-      storageUnitId: candidate.storageUnitId,
-      containerId: candidate.containerId,
-      substanceId: candidate.substanceId,
-      mixtureId: candidate.mixtureId,
-      value: candidate.value,
-      limitValue: candidate.limitValue,
-      ratio: candidate.ratio,
-      unit: candidate.unit,
-      worstCaseTempC: candidate.worstCaseTempC,
-      worstCaseSource: candidate.worstCaseSource,
-      lastEvaluatedAt: now,
-    };
     const before = existing.get(candidate.fingerprint);
     if (!before) {
-      const row = tx.insert(findings).values({ ...values, fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now }).returning().get();
+      const row = tx.insert(findings).values({ ...writtenValues(candidate, now), fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now, updatedAt: now }).returning().get();
       traces.write(row.id, candidate.trace);
       event(row.id, "raised", null, "open", `Raised: ${candidate.title}`, { value: candidate.value, limit: candidate.limitValue, ratio: candidate.ratio, unit: candidate.unit, severity: candidate.severity });
       result.raised += 1;
@@ -181,7 +165,7 @@ export function reconcileFindings(
     if (returned || reviewPassed || stillHolds) {
       const row = tx
         .update(findings)
-        .set({ ...values, status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
+        .set({ ...writtenValues(candidate, now), status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
         .where(eq(findings.id, before.id))
         .returning()
         .get();
@@ -207,11 +191,10 @@ export function reconcileFindings(
       before.worstCaseSource !== candidate.worstCaseSource ||
       before.title !== candidate.title;
     if (!anyChange) {
-      unchangedIds.push(before.id);
       result.unchanged += 1;
       continue;
     }
-    const row = tx.update(findings).set({ ...values, updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
+    const row = tx.update(findings).set({ ...writtenValues(candidate, now), updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
     traces.write(row.id, candidate.trace);
     if (severityChanged || valueChanged) {
       const note = severityChanged
@@ -229,13 +212,14 @@ export function reconcileFindings(
     }
   }
 
-  for (let i = 0; i < unchangedIds.length; i += 500) {
-    tx.update(findings).set({ lastEvaluatedAt: now }).where(inArray(findings.id, unchangedIds.slice(i, i + 500))).run();
-  }
+  // The findings confirmed unchanged were assessed now too: one write per room (see rooms.assessedAt).
+  if (scope.roomIds.length) preparedOn(tx, "update rooms set assessed_at = ? where id in (select value from json_each(?))").run(now.getTime(), JSON.stringify(scope.roomIds));
 
+  const scopeRooms = new Set(scope.roomIds);
+  const scopeUnits = new Set(scope.storageUnitIds);
   for (const [fingerprint, before] of existing) {
     if (seen.has(fingerprint) || !before.conditionHolds) continue;
-    if (!isInScope(before, scope)) continue;
+    if (!isInScope(before, scopeRooms, scopeUnits)) continue;
     const wasWorked = before.status !== "resolved";
     tx.update(findings)
       .set({ status: "resolved", conditionHolds: false, resolvedAt: wasWorked ? now : before.resolvedAt ?? now, lastEvaluatedAt: now, updatedAt: now })
@@ -256,7 +240,29 @@ export function reconcileFindings(
   return result;
 }
 
-function isInScope(finding: ExistingFinding, scope: { roomIds: number[]; storageUnitIds: number[] }): boolean {
-  if (finding.storageUnitId != null) return scope.storageUnitIds.includes(finding.storageUnitId);
-  return finding.roomId != null && scope.roomIds.includes(finding.roomId);
+function writtenValues(candidate: FindingCandidate, now: Date) {
+  return {
+    rule: candidate.rule,
+    severity: candidate.severity,
+    scenario: candidate.scenario,
+    title: candidate.title,
+    siteId: candidate.siteId,
+    roomId: candidate.roomId,
+    storageUnitId: candidate.storageUnitId,
+    containerId: candidate.containerId,
+    substanceId: candidate.substanceId,
+    mixtureId: candidate.mixtureId,
+    value: candidate.value,
+    limitValue: candidate.limitValue,
+    ratio: candidate.ratio,
+    unit: candidate.unit,
+    worstCaseTempC: candidate.worstCaseTempC,
+    worstCaseSource: candidate.worstCaseSource,
+    lastEvaluatedAt: now,
+  };
+}
+
+function isInScope(finding: ExistingFinding, roomIds: Set<number>, storageUnitIds: Set<number>): boolean {
+  if (finding.storageUnitId != null) return storageUnitIds.has(finding.storageUnitId);
+  return finding.roomId != null && roomIds.has(finding.roomId);
 }

@@ -11,7 +11,7 @@ import * as listRoute from "@/app/api/v1/findings/route";
 import * as oneRoute from "@/app/api/v1/findings/[id]/route";
 import * as eventsRoute from "@/app/api/v1/findings/[id]/events/route";
 import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
-import { reconcileFindings, type FindingCandidate } from "@/lib/register/store";
+import { lastAssessedAt, reconcileFindings, type FindingCandidate } from "@/lib/register/store";
 import { call, makeUser, sessionCookieFor } from "./helpers/world";
 
 let officer: User, admin: User, owner: User, stranger: User, contact: User, auditor: User;
@@ -68,6 +68,13 @@ describe("reconciling findings by fingerprint", () => {
     expect(first).toMatchObject({ raised: 1, updated: 0, resolved: 0 });
     expect(reconcile([candidate()], T0 + 1000)).toMatchObject({ raised: 0, unchanged: 1 });
     expect(eventsOf(only().id).map((e) => e.kind)).toEqual(["raised"]);
+    // Unchanged, the finding's row is not written; its room records the assessment, and the
+    // finding counts as assessed then.
+    expect(only().lastEvaluatedAt.getTime()).toBe(T0);
+    const room = getDb().select({ assessedAt: rooms.assessedAt }).from(rooms).where(eq(rooms.id, roomId)).get()!;
+    expect(room.assessedAt?.getTime()).toBe(T0 + 1000);
+    expect(lastAssessedAt(only(), room.assessedAt).getTime()).toBe(T0 + 1000);
+    expect(lastAssessedAt({ ...only(), conditionHolds: false }, room.assessedAt).getTime()).toBe(T0);
   });
 
   it("updates values in place, with an event only when severity or value moves by more than 1 %", () => {

@@ -218,7 +218,11 @@ export function ContainerForm({
       </Field>
 
       {/* The what-if adds a new container; an edited one is already counted where it stands. */}
-      {mode === "create" ? <WhatIfPanel formId={form.id} /> : null}
+      {mode === "create" ? (
+        <WhatIfPanel formId={form.id} />
+      ) : values.id != null && values.storageUnitId != null ? (
+        <WhatIfPanel formId={form.id} edited={{ id: values.id, storageUnitId: values.storageUnitId }} />
+      ) : null}
 
       <Button type="submit" disabled={pending}>
         {pending ? "Saving…" : mode === "create" ? "Log container" : "Save changes"}

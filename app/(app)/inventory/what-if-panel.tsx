@@ -16,7 +16,10 @@ export type PreviewFinding = {
   previous: { severity: Severity; ratio: number | null } | null;
 };
 
-type Request = { storageUnitId: number; substanceId?: number; mixtureId?: number; amount: number; amountUnit: string };
+type Request = { storageUnitId: number; substanceId?: number; mixtureId?: number; amount: number; amountUnit: string; containerId?: number; state?: string };
+
+/** The stored container an edit form changes: its unit (the edit form has no unit field) and id. */
+export type EditedContainer = { id: number; storageUnitId: number };
 
 type State =
   | { kind: "idle" }
@@ -28,20 +31,21 @@ const DEBOUNCE_MS = 400;
 const SHOWN = 6;
 
 /** Reads what the preview needs from the form; null until every part is filled in. */
-export function previewRequestFrom(data: FormData): Request | null {
+export function previewRequestFrom(data: FormData, edited?: EditedContainer): Request | null {
   const text = (name: string) => {
     const value = data.get(name);
     return typeof value === "string" ? value.trim() : "";
   };
-  const storageUnitId = Number(text("storageUnitId"));
+  const storageUnitId = edited ? edited.storageUnitId : Number(text("storageUnitId"));
   const substanceId = Number(text("substanceId"));
   const mixtureId = Number(text("mixtureId"));
   const amount = Number(text("amount"));
   const amountUnit = text("amountUnit");
   if (!Number.isInteger(storageUnitId) || storageUnitId <= 0) return null;
   if (!text("amount") || !Number.isFinite(amount) || amount <= 0 || !amountUnit) return null;
-  if (Number.isInteger(substanceId) && substanceId > 0) return { storageUnitId, substanceId, amount, amountUnit };
-  if (Number.isInteger(mixtureId) && mixtureId > 0) return { storageUnitId, mixtureId, amount, amountUnit };
+  const extra = edited ? { containerId: edited.id, ...(text("state") ? { state: text("state") } : {}) } : text("state") ? { state: text("state") } : {};
+  if (Number.isInteger(substanceId) && substanceId > 0) return { storageUnitId, substanceId, amount, amountUnit, ...extra };
+  if (Number.isInteger(mixtureId) && mixtureId > 0) return { storageUnitId, mixtureId, amount, amountUnit, ...extra };
   return null;
 }
 
@@ -58,7 +62,9 @@ export function changeNote(finding: PreviewFinding): string {
  * only — it never blocks saving. Follows the form's fields (also those a picker sets in a hidden
  * input), waits for typing to settle and drops answers to questions no longer asked.
  */
-export function WhatIfPanel({ formId }: { formId: string }) {
+export function WhatIfPanel({ formId, edited: editedProp }: { formId: string; edited?: EditedContainer }) {
+  const editedId = editedProp?.id;
+  const editedUnitId = editedProp?.storageUnitId;
   const [request, setRequest] = useState<Request | null>(null);
   // The answer, tagged with the question it answers: a newer question shows "checking" until answered.
   const [answer, setAnswer] = useState<{ key: string; state: State }>({ key: "null", state: { kind: "idle" } });
@@ -68,7 +74,8 @@ export function WhatIfPanel({ formId }: { formId: string }) {
     const form = document.getElementById(formId);
     if (!(form instanceof HTMLFormElement)) return;
     const read = () => {
-      const next = previewRequestFrom(new FormData(form));
+      const edited = editedId != null && editedUnitId != null ? { id: editedId, storageUnitId: editedUnitId } : undefined;
+      const next = previewRequestFrom(new FormData(form), edited);
       const key = JSON.stringify(next);
       if (key === lastKey.current) return;
       lastKey.current = key;
@@ -86,7 +93,7 @@ export function WhatIfPanel({ formId }: { formId: string }) {
       form.removeEventListener("change", read);
       observer.disconnect();
     };
-  }, [formId]);
+  }, [formId, editedId, editedUnitId]);
 
   useEffect(() => {
     if (!request) return;
@@ -126,15 +133,17 @@ export function WhatIfPanel({ formId }: { formId: string }) {
         Before you save
       </h2>
       <div aria-live="polite" aria-busy={state.kind === "loading"} className="text-sm text-ink-700">
-        <PanelBody state={state} />
+        <PanelBody state={state} editing={editedId != null} />
       </div>
       <Caution />
     </section>
   );
 }
 
-function PanelBody({ state }: { state: State }) {
-  if (state.kind === "idle") return <p className="text-ink-600">Choose the storage unit, the substance or mixture and the amount to see what storing it here would raise.</p>;
+function PanelBody({ state, editing }: { state: State; editing: boolean }) {
+  if (state.kind === "idle") {
+    return <p className="text-ink-600">{editing ? "Give the substance or mixture and the amount to see what these changes would raise." : "Choose the storage unit, the substance or mixture and the amount to see what storing it here would raise."}</p>;
+  }
   if (state.kind === "loading") return <p className="text-ink-600">Checking what this would raise…</p>;
   if (state.kind === "error") return <p className="text-ink-600">{state.message} You can still save.</p>;
   if (state.findings.length === 0) return <p>Nothing new would be raised here.</p>;
@@ -143,7 +152,7 @@ function PanelBody({ state }: { state: State }) {
   return (
     <div className="space-y-2">
       <p>
-        Storing this here would raise {state.findings.length === 1 ? "1 finding" : `${formatCount(state.findings.length)} findings`}. You can still save; the register will list{" "}
+        {editing ? "Saving these changes would raise" : "Storing this here would raise"} {state.findings.length === 1 ? "1 finding" : `${formatCount(state.findings.length)} findings`}. You can still save; the register will list{" "}
         {state.findings.length === 1 ? "it" : "them"}.
       </p>
       <ul className="space-y-2">

@@ -141,6 +141,7 @@ export default async function ContainerPage({ params, searchParams }: { params: 
                 capacityUnit: container.capacityUnit,
                 containerKind: container.containerKind,
                 state: container.state,
+                storageUnitId: container.storageUnitId,
                 ownerId: container.ownerId,
                 receivedAt: isoDate(container.receivedAt),
                 openedAt: isoDate(container.openedAt),
