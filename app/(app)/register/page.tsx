@@ -12,7 +12,7 @@ import { SEVERITIES } from "@/db/schema";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatCount } from "@/lib/format/numbers";
-import { RULE_LABELS } from "@/lib/register/rule-labels";
+import { RULE_SHORT_LABELS } from "@/lib/register/rule-labels";
 import { findingListQuerySchema } from "@/lib/register/schemas";
 import { defaultRegisterView } from "@/lib/register/views";
 import { ReassessmentBanner } from "./reassessment-banner";
@@ -37,7 +37,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
     next.delete("page");
     return `/register?${next.toString()}`;
   };
-  const ruleOptions = Object.entries(RULE_LABELS).map(([value, label]) => ({ value, label }));
+  const ruleOptions = Object.entries(RULE_SHORT_LABELS).map(([value, label]) => ({ value, label }));
   const sites = siteOptions().map((s) => ({ value: String(s.id), label: s.name }));
   return (
     <div className="space-y-5">
@@ -72,7 +72,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
         })}
       </section>
       <Suspense fallback={<p className="rounded-lg border border-ink-200 bg-white px-4 py-10 text-center text-sm text-ink-500">Loading the register…</p>}>
-        <RegisterTable filters={registerFilters(ruleOptions, sites)} ruleLabels={RULE_LABELS} />
+        <RegisterTable filters={registerFilters(ruleOptions, sites)} ruleLabels={RULE_SHORT_LABELS} />
       </Suspense>
       {can(user.role, "findings.work") ? (
         <Card title="Default views">

@@ -319,6 +319,9 @@ function mixtureSteps(vapor: GroupVapor): TraceStep[] {
   );
 }
 
+/** The whole volume, in ppm. */
+const PPM_WHOLE = 1_000_000;
+
 type OpenTotal = {
   substance: SubstanceSnapshot;
   lflVolPercent: number;
@@ -376,7 +379,13 @@ function openContainersFinding(
   openContainerIds: number[],
   molarVolumeL: number,
 ): void {
-  const items = totals.map((total) => ({ total, concentrationPpm: Math.min(total.sumPpm, total.pureSaturatedPpm), lflVolPercent: total.lflVolPercent }));
+  const own = totals.map((total) => ({ total, ownPpm: Math.min(total.sumPpm, total.pureSaturatedPpm), lflVolPercent: total.lflVolPercent }));
+  // Each liquid evaporates to its own saturation (Dalton's law); if the partial pressures together
+  // exceed the ambient pressure, the enclosure (not pressure-tight) holds vapor only, shared in
+  // proportion to them: the concentrations cannot add up to more than 10⁶ ppm.
+  const sumPpm = own.reduce((sum, item) => sum + item.ownPpm, 0);
+  const scale = sumPpm > PPM_WHOLE ? PPM_WHOLE / sumPpm : 1;
+  const items = own.map((item) => ({ ...item, concentrationPpm: item.ownPpm * scale }));
   const fraction = fractionOf(items);
   const grade = enclosureSeverity(ctx, fraction);
   if (grade === null) return;
@@ -405,10 +414,20 @@ function openContainersFinding(
         traceStep(
           `${capitalise(item.total.substance.name)} from every open container, at most its own saturated concentration`,
           "Cᵢ = min(C_sat,i, Σ over open containers of min(C_sat, (m/M)·Vm/(1000·V_free) × 10⁶))",
-          `${shareText(item.total)}; C = min(${formatSig(item.total.pureSaturatedPpm, 5)}, ${formatSig(item.total.sumPpm, 5)}) = ${formatSig(item.concentrationPpm, 5)} ppm`,
-          traceValue(`Concentration of ${item.total.substance.name}`, "C", item.concentrationPpm, "ppm"),
+          `${shareText(item.total)}; C = min(${formatSig(item.total.pureSaturatedPpm, 5)}, ${formatSig(item.total.sumPpm, 5)}) = ${formatSig(item.ownPpm, 5)} ppm`,
+          traceValue(`Concentration of ${item.total.substance.name}${scale < 1 ? " on its own" : ""}`, "C", item.ownPpm, "ppm"),
         ),
       );
+      if (scale < 1) {
+        steps.push(
+          traceStep(
+            "Together more than the whole enclosure: it holds vapor only, each in proportion to its own (Dalton's law)",
+            "Cᵢ' = Cᵢ × 10⁶ / Σ Cⱼ when Σ Cⱼ > 10⁶ ppm",
+            `Σ C = ${formatSig(sumPpm, 5)} ppm > 10⁶ ppm; factor 10⁶/${formatSig(sumPpm, 5)} = ${formatSig(scale, 4)}; ${items.map((item) => `${item.total.substance.name}: ${formatSig(item.concentrationPpm, 5)} ppm`).join("; ")}`,
+            traceValue("Total vapor concentration", "ΣC'", PPM_WHOLE, "ppm"),
+          ),
+        );
+      }
       steps.push(...enclosureSeveritySteps(ctx, fraction, grade));
       return findingTrace({
         rule: "enclosure-lfl",

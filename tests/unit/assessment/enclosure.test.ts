@@ -98,6 +98,24 @@ describe("enclosure-lfl: closed units", () => {
     expect(open.title).toBe("Open containers in FSR-1 could reach 91.9 % LFL together at its worst case in control (4.0 °C)");
   });
 
+  it("open liquids whose vapor pressures add up to more than the ambient pressure fill the enclosure with vapor only (Dalton's law)", () => {
+    // By hand at 30 °C (Poling 5th ed. App. A Antoine sets, P in bar, T in K):
+    // ether log10 P = 4.10962 − 1090.64/(303.15 − 41.95) = −0.06588 → 85.93 kPa (handbook ≈ 86 kPa at 30 °C, recalled from memory);
+    // acetone log10 P = 4.2184 − 1197.01/(303.15 − 45.09) = −0.42010 → 38.01 kPa.
+    // Together 123.94 kPa > 101.325 kPa: the vapor displaces all the air, y = Pᵢ/ΣP → ether 0.6933, acetone 0.3067.
+    // LFL 1.7 % and 2.5 % (IEC 60079-20-1): f = 693 300/17 000 + 306 700/25 000 = 40.78 + 12.27 = 53.05.
+    const acetone = substance(CAS.acetone);
+    const findings = assessLocation(
+      unitSnapshot([container(ether, 1, "L", "opened"), container(acetone, 1, "L", "opened")], { worstCase: { inControl: designWorstCase(30), controlLost: designWorstCase(30) } }),
+    );
+    const open = byFingerprint(findings, "enclosure-lfl|unit:12|open-containers|in_control");
+    expect(relativeDeviation(open.ratio as number, 53.05)).toBeLessThan(0.003);
+    const dalton = open.trace.steps.find((step) => step.description.startsWith("Together more than the whole enclosure"));
+    expect(dalton?.result?.value).toBe(1_000_000);
+    // Without the cap the two would have given (85.93 / 17 000 + 38.01 / 25 000) / 101.325 × 10⁶ = 64.9.
+    expect(open.ratio as number).toBeLessThan(64);
+  });
+
   it("raises nothing below 10 % LFL, and nothing for open shelving", () => {
     const hexane = substance(CAS.nHexane);
     const cold = assessLocation(unitSnapshot([container(hexane, 1, "mL", "opened")], { worstCase: { inControl: designWorstCase(4), controlLost: designWorstCase(4) } }));
