@@ -13,7 +13,8 @@ export const metadata: Metadata = { title: "Exports" };
 const SHEETS = [
   ["Summary", "findings by severity and status, containers, locations and open excursions, when and by whom it was made, and the caution"],
   ["Findings", "every finding with its value, limit, ratio, worst-case temperature and where it came from"],
-  ["Finding traces", "each finding's calculation step by step: inputs with their sources, formulas, the numbers put in, results and warnings"],
+  ["Finding traces", "each finding's calculation in one cell, a line per step: inputs with their sources, formulas, the numbers put in, results and warnings"],
+  ["Trace sources", "the long sources the traces cite as [S…], each written out once"],
   ["Inventory", "every container in storage with its location, amount and owner"],
   ["Locations", "rooms and storage units with their worst-case temperatures (in control and control lost) and where they came from"],
   ["Excursions", "temperature excursions with start, end, duration, peak and acknowledgement"],
