@@ -120,7 +120,7 @@ export default async function OverviewPage() {
                             {[row.roomCode, row.unitCode].filter(Boolean).join(" › ")}
                           </Link>
                         </td>
-                        <td className="py-2 text-right font-medium">{row.ratio == null ? "—" : `${formatNumber(row.ratio * 100)} %`}</td>
+                        <td className="py-2 text-right font-medium">{row.ratio == null ? "—" : row.ratio === Infinity ? <span title="The value is 0: no oxygen would be left">∞</span> : `${formatNumber(row.ratio * 100)} %`}</td>
                         <td className="py-2 text-right">{formatCount(row.findings)}</td>
                       </tr>
                     ))}
