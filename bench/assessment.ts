@@ -344,7 +344,7 @@ async function runDatabaseSection(): Promise<void> {
   };
 
   // (b) The first assessment: every finding is new, inserted with its trace.
-  const first = fullAssessment("first assessment");
+  const first = await profiled("first-assessment", () => fullAssessment("first assessment"));
   const findingCount = (sqlite.prepare("select count(*) as n from findings").get() as { n: number }).n;
   console.log(`(b) First full assessment (${roomIds.length} rooms, ${first.units} units, ${first.raised} findings raised with traces): ${first.seconds.toFixed(2)} s [load ${load()}]`);
 

@@ -1,7 +1,7 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import { preparedOn, type DbOrTx } from "@/db/client";
-import { findingEvents, findings, findingTraces, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
+import { findingEvents, findings, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
 import { citingWith, traceText } from "./trace-text";
 
 /** What an assessment rule says about one location under one scenario (see lib/assessment). */
@@ -102,11 +102,11 @@ export class TraceWriter {
     const citing = citingWith((text) => this.sourceId(text));
     const text = traceText(stored, citing.cite);
     const sourceIds = citing.ids();
-    this.tx
-      .insert(findingTraces)
-      .values({ findingId, trace: stored, text, sourceIds, writtenAt: this.now })
-      .onConflictDoUpdate({ target: findingTraces.findingId, set: { trace: stored, text, sourceIds, writtenAt: this.now } })
-      .run();
+    preparedOn(
+      this.tx,
+      `insert into finding_traces (finding_id, trace, text, source_ids, written_at) values (?, ?, ?, ?, ?)
+         on conflict (finding_id) do update set trace = excluded.trace, text = excluded.text, source_ids = excluded.source_ids, written_at = excluded.written_at`,
+    ).run(findingId, JSON.stringify(stored), text, JSON.stringify(sourceIds), this.now.getTime());
   }
 }
 
@@ -143,15 +143,16 @@ export function reconcileFindings(
   if (missing.length) add(preparedOn(tx, `${EXISTING_SELECT} where fingerprint in (select value from json_each(?))`).all(JSON.stringify(missing)));
   const seen = new Set<string>();
   const traces = new TraceWriter(tx, now);
+  const insertEvent = preparedOn(tx, "insert into finding_events (finding_id, kind, from_status, to_status, note, data, actor_id, at) values (?, ?, ?, ?, ?, ?, null, ?)");
   const event = (findingId: number, kind: (typeof findingEvents.$inferInsert)["kind"], fromStatus: FindingStatus | null, toStatus: FindingStatus | null, note: string, data?: Record<string, unknown>) =>
-    tx.insert(findingEvents).values({ findingId, kind, fromStatus, toStatus, note, data: data ?? null, actorId: null, at: now }).run();
+    insertEvent.run(findingId, kind, fromStatus, toStatus, note, data ? JSON.stringify(data) : null, now.getTime());
 
   for (const candidate of candidates) {
     if (seen.has(candidate.fingerprint)) continue;
     seen.add(candidate.fingerprint);
     const before = existing.get(candidate.fingerprint);
     if (!before) {
-      const row = tx.insert(findings).values({ ...writtenValues(candidate, now), fingerprint: candidate.fingerprint, status: "open", conditionHolds: true, firstRaisedAt: now, updatedAt: now }).returning().get();
+      const row = insertFinding(tx, candidate, now);
       traces.write(row.id, candidate.trace);
       event(row.id, "raised", null, "open", `Raised: ${candidate.title}`, { value: candidate.value, limit: candidate.limitValue, ratio: candidate.ratio, unit: candidate.unit, severity: candidate.severity });
       result.raised += 1;
@@ -238,6 +239,57 @@ export function reconcileFindings(
     result.resolved += 1;
   }
   return result;
+}
+
+/**
+ * A new finding, straight through SQLite (a first assessment raises tens of thousands: the query
+ * builder's statement building costs several times the insert), returned as the row it wrote.
+ */
+function insertFinding(tx: DbOrTx, candidate: FindingCandidate, now: Date): Finding {
+  const values = writtenValues(candidate, now);
+  const at = now.getTime();
+  const { id } = preparedOn(
+    tx,
+    `insert into findings (fingerprint, rule, severity, status, scenario, title, site_id, room_id, storage_unit_id, container_id, substance_id, mixture_id,
+       value, limit_value, ratio, unit, worst_case_temp_c, worst_case_source, condition_holds, first_raised_at, last_evaluated_at, created_at, updated_at)
+     values (?, ?, ?, 'open', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 1, ?, ?, ?, ?) returning id`,
+  ).get(
+    candidate.fingerprint,
+    values.rule,
+    values.severity,
+    values.scenario,
+    values.title,
+    values.siteId,
+    values.roomId,
+    values.storageUnitId,
+    values.containerId,
+    values.substanceId,
+    values.mixtureId,
+    values.value,
+    values.limitValue,
+    values.ratio,
+    values.unit,
+    values.worstCaseTempC,
+    values.worstCaseSource,
+    at,
+    at,
+    at,
+    at,
+  ) as { id: number };
+  return {
+    ...values,
+    id,
+    fingerprint: candidate.fingerprint,
+    status: "open",
+    conditionHolds: true,
+    assigneeId: null,
+    mitigationPlan: null,
+    riskAcceptedUntil: null,
+    firstRaisedAt: now,
+    resolvedAt: null,
+    createdAt: now,
+    updatedAt: now,
+  };
 }
 
 function writtenValues(candidate: FindingCandidate, now: Date) {
