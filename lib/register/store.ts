@@ -1,7 +1,7 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import { preparedOn, type DbOrTx } from "@/db/client";
-import { findingEvents, findings, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
+import { findingEvents, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
 import { citingWith, traceText } from "./trace-text";
 
 /** What an assessment rule says about one location under one scenario (see lib/assessment). */
@@ -164,12 +164,7 @@ export function reconcileFindings(
     // Resolved by a person while the condition still holds: the register says what is true.
     const stillHolds = before.conditionHolds && before.status === "resolved";
     if (returned || reviewPassed || stillHolds) {
-      const row = tx
-        .update(findings)
-        .set({ ...writtenValues(candidate, now), status: "open", conditionHolds: true, resolvedAt: null, riskAcceptedUntil: reviewPassed ? null : before.riskAcceptedUntil, updatedAt: now })
-        .where(eq(findings.id, before.id))
-        .returning()
-        .get();
+      const row = updateFinding(tx, before.id, candidate, now, { reopen: true, clearRiskAcceptance: reviewPassed });
       traces.write(row.id, candidate.trace);
       const note = returned
         ? `Re-opened: the condition holds again — ${candidate.title}${opts.reason ? ` (after: ${opts.reason})` : ""}.`
@@ -195,7 +190,7 @@ export function reconcileFindings(
       result.unchanged += 1;
       continue;
     }
-    const row = tx.update(findings).set({ ...writtenValues(candidate, now), updatedAt: now }).where(eq(findings.id, before.id)).returning().get();
+    const row = updateFinding(tx, before.id, candidate, now, { reopen: false, clearRiskAcceptance: false });
     traces.write(row.id, candidate.trace);
     if (severityChanged || valueChanged) {
       const note = severityChanged
@@ -216,16 +211,14 @@ export function reconcileFindings(
   // The findings confirmed unchanged were assessed now too: one write per room (see rooms.assessedAt).
   if (scope.roomIds.length) preparedOn(tx, "update rooms set assessed_at = ? where id in (select value from json_each(?))").run(now.getTime(), JSON.stringify(scope.roomIds));
 
+  const resolveFinding = preparedOn(tx, "update findings set status = 'resolved', condition_holds = 0, resolved_at = ?, last_evaluated_at = ?, updated_at = ? where id = ?");
   const scopeRooms = new Set(scope.roomIds);
   const scopeUnits = new Set(scope.storageUnitIds);
   for (const [fingerprint, before] of existing) {
     if (seen.has(fingerprint) || !before.conditionHolds) continue;
     if (!isInScope(before, scopeRooms, scopeUnits)) continue;
     const wasWorked = before.status !== "resolved";
-    tx.update(findings)
-      .set({ status: "resolved", conditionHolds: false, resolvedAt: wasWorked ? now : before.resolvedAt ?? now, lastEvaluatedAt: now, updatedAt: now })
-      .where(eq(findings.id, before.id))
-      .run();
+    resolveFinding.run((wasWorked ? now : (before.resolvedAt ?? now)).getTime(), now.getTime(), now.getTime(), before.id);
     if (wasWorked) {
       event(
         before.id,
@@ -290,6 +283,117 @@ function insertFinding(tx: DbOrTx, candidate: FindingCandidate, now: Date): Find
     createdAt: now,
     updatedAt: now,
   };
+}
+
+type FindingRow = {
+  id: number;
+  fingerprint: string;
+  rule: string;
+  severity: Severity;
+  status: FindingStatus;
+  scenario: Scenario;
+  title: string;
+  site_id: number | null;
+  room_id: number | null;
+  storage_unit_id: number | null;
+  container_id: number | null;
+  substance_id: number | null;
+  mixture_id: number | null;
+  value: number | null;
+  limit_value: number | null;
+  ratio: number | null;
+  unit: string | null;
+  worst_case_temp_c: number | null;
+  worst_case_source: string | null;
+  condition_holds: number;
+  assignee_id: number | null;
+  mitigation_plan: string | null;
+  risk_accepted_until: number | null;
+  first_raised_at: number;
+  last_evaluated_at: number;
+  resolved_at: number | null;
+  created_at: number;
+  updated_at: number;
+};
+
+const dateOrNull = (ms: number | null) => (ms == null ? null : new Date(ms));
+
+function toFinding(row: FindingRow): Finding {
+  return {
+    id: row.id,
+    fingerprint: row.fingerprint,
+    rule: row.rule,
+    severity: row.severity,
+    status: row.status,
+    scenario: row.scenario,
+    title: row.title,
+    siteId: row.site_id,
+    roomId: row.room_id,
+    storageUnitId: row.storage_unit_id,
+    containerId: row.container_id,
+    substanceId: row.substance_id,
+    mixtureId: row.mixture_id,
+    value: row.value,
+    limitValue: row.limit_value,
+    ratio: row.ratio,
+    unit: row.unit,
+    worstCaseTempC: row.worst_case_temp_c,
+    worstCaseSource: row.worst_case_source,
+    conditionHolds: row.condition_holds === 1,
+    assigneeId: row.assignee_id,
+    mitigationPlan: row.mitigation_plan,
+    riskAcceptedUntil: dateOrNull(row.risk_accepted_until),
+    firstRaisedAt: new Date(row.first_raised_at),
+    lastEvaluatedAt: new Date(row.last_evaluated_at),
+    resolvedAt: dateOrNull(row.resolved_at),
+    createdAt: new Date(row.created_at),
+    updatedAt: new Date(row.updated_at),
+  };
+}
+
+/**
+ * A finding brought in line with its candidate (straight through SQLite, like insertFinding);
+ * `reopen` opens it again (condition holds, not resolved), `clearRiskAcceptance` ends an accepted
+ * risk whose review date has passed. Returns the row as written.
+ */
+function updateFinding(tx: DbOrTx, id: number, candidate: FindingCandidate, now: Date, opts: { reopen: boolean; clearRiskAcceptance: boolean }): Finding {
+  const at = now.getTime();
+  const row = preparedOn(
+    tx,
+    `update findings set rule = ?, severity = ?, scenario = ?, title = ?, site_id = ?, room_id = ?, storage_unit_id = ?, container_id = ?,
+       substance_id = ?, mixture_id = ?, value = ?, limit_value = ?, ratio = ?, unit = ?, worst_case_temp_c = ?, worst_case_source = ?,
+       last_evaluated_at = ?, updated_at = ?,
+       status = case when ? then 'open' else status end,
+       condition_holds = case when ? then 1 else condition_holds end,
+       resolved_at = case when ? then null else resolved_at end,
+       risk_accepted_until = case when ? then null else risk_accepted_until end
+     where id = ? returning *`,
+  ).get(
+    candidate.rule,
+    candidate.severity,
+    candidate.scenario,
+    candidate.title,
+    candidate.siteId,
+    candidate.roomId,
+    candidate.storageUnitId,
+    candidate.containerId,
+    candidate.substanceId,
+    candidate.mixtureId,
+    candidate.value,
+    candidate.limitValue,
+    candidate.ratio,
+    candidate.unit,
+    candidate.worstCaseTempC,
+    candidate.worstCaseSource,
+    at,
+    at,
+    opts.reopen ? 1 : 0,
+    opts.reopen ? 1 : 0,
+    opts.reopen ? 1 : 0,
+    opts.clearRiskAcceptance ? 1 : 0,
+    id,
+  ) as FindingRow;
+  return toFinding(row);
 }
 
 function writtenValues(candidate: FindingCandidate, now: Date) {
