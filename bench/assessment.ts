@@ -9,8 +9,9 @@
 // 2. Through the database: a temporary register of 100,000 containers in 2,000 units (100 rooms × 20)
 //    re-assessed with `reassessRooms` in batches of rooms, as the re-assessment job does. Targets: the
 //    full re-assessment with nothing changed under 2 s (also printed as a ratio to a bare scan of the
-//    same container rows) — every room's inputs are read and digested, and a room whose digest is
-//    that of its last assessment is not assessed again (lib/assessment/service.ts reassessRooms) —,
+//    same container rows) — every location's inputs are read and digested, and a room's own rules or
+//    a unit whose digest is that of its last assessment are not run again (lib/assessment/service.ts
+//    reassessRooms) —,
 //    the same forced through every rule for comparison (no target), and one container moved
 //    (`moveContainer`, which re-assesses its two rooms in its transaction) well under 100 ms.
 //    Wall-clock times; the load average is printed beside them.

@@ -183,7 +183,7 @@ export const rooms = sqliteTable(
      * re-assessment that changes nothing writes one row per room, not one per finding.
      */
     assessedAt: integer("assessed_at", { mode: "timestamp_ms" }),
-    /** The digest of what that assessment read (lib/assessment/service.ts roomInputKey); equal inputs are not assessed again. */
+    /** The digest of what the room's own rules read at that assessment (lib/assessment/service.ts); equal inputs are not assessed again. */
     assessmentInputKey: text("assessment_input_key"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -219,6 +219,9 @@ export const storageUnits = sqliteTable(
     ownerId: integer("owner_id").references(() => users.id, { onDelete: "set null" }),
     notes: text("notes"),
     retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
+    /** As rooms.assessmentInputKey, for the unit's own rules (lib/assessment/service.ts). */
+    assessmentInputKey: text("assessment_input_key"),
+    assessedAt: integer("assessed_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

@@ -281,35 +281,33 @@ export type ReassessResult = ReconcileResult & {
 const PROCESS_KEY = randomUUID();
 
 /**
- * Everything the rules read for one room and its units, as one digest: the settings, the room and
- * unit facts with their worst cases, every container in storage and the full data of each substance
- * and mixture in them. The rules are pure functions of exactly this, so equal digests mean equal
- * candidates.
+ * Everything the rules read for one location, as one digest: the settings, the room's facts with
+ * its worst case, for a unit its facts and worst cases, and every container there (for the room:
+ * in all its units) with the full data of each substance and mixture. The rules are pure functions
+ * of exactly this (a LocationSnapshot and the settings), so equal digests mean equal candidates.
  */
-function roomInputKey(settingsJson: string, room: LocationSnapshot[], library: SnapshotLibrary): string {
-  const hash = createHash("sha1").update(PROCESS_KEY).update(settingsJson);
-  for (const snapshot of room) {
-    if (snapshot.kind === "room") {
-      hash.update(JSON.stringify(snapshot.room));
-      continue;
-    }
-    hash.update(JSON.stringify(snapshot.unit));
-    for (const liquid of snapshot.contents) {
-      hash.update(`${liquid.containerId}|${liquid.label}|${liquid.amount}|${liquid.amountUnit}|${liquid.state}|${library.digest(liquid.content)};`);
-    }
+function inputKey(settingsJson: string, snapshot: LocationSnapshot, library: SnapshotLibrary): string {
+  const hash = createHash("sha1").update(PROCESS_KEY).update(settingsJson).update(JSON.stringify(snapshot.room));
+  if (snapshot.kind === "unit") hash.update(JSON.stringify(snapshot.unit));
+  for (const liquid of snapshot.contents) {
+    hash.update(`${liquid.containerId}|${liquid.label}|${liquid.amount}|${liquid.amountUnit}|${liquid.state}|${library.digest(liquid.content)};`);
   }
   return hash.digest("base64");
 }
+
+type StoredKey = { id: number; inputKey: string | null; assessedAt: number | null };
 
 /**
  * Re-assesses these rooms with all their units, in the caller's transaction, and brings their
  * findings in line (raise, update, resolve, re-open), queueing the alerts for critical and high
  * ones. A retired room or unit has no candidates, so its findings resolve themselves.
  *
- * A room whose input digest (roomInputKey) is the one stored by its last assessment in this process
- * is not assessed again — unless a person has changed one of its findings since (a finding marked
- * resolved while its condition holds re-opens) or an accepted risk's review date has passed — nor
- * when `force` is set. The digest is stored on the room in the same transaction.
+ * A location (a room's own rules, or one unit) whose input digest (inputKey) is the one stored by
+ * its last assessment in this process is not assessed again — unless a person has changed one of
+ * its findings since (a finding marked resolved while its condition holds re-opens) or an accepted
+ * risk's review date has passed — nor when `force` is set. Moving one container thus re-assesses
+ * the two units and the two rooms' own rules, not every unit of both rooms. The digests are stored
+ * in the same transaction; every room's assessed_at moves (see lastAssessedAt).
  */
 export function reassessRooms(
   tx: DbOrTx,
@@ -323,53 +321,58 @@ export function reassessRooms(
   const settingsNow = opts.settings ?? loadAssessmentSettings(tx);
   const library = opts.library ?? new SnapshotLibrary(tx);
   const snapshots = buildSnapshots(tx, ids, nowMs, library);
-
-  const byRoom = new Map<number, LocationSnapshot[]>();
-  for (const snapshot of snapshots) {
-    const list = byRoom.get(snapshot.room.id) ?? [];
-    list.push(snapshot);
-    byRoom.set(snapshot.room.id, list);
-  }
   const settingsJson = JSON.stringify(settingsNow);
-  const keys = new Map([...byRoom].map(([roomId, list]) => [roomId, roomInputKey(settingsJson, list, library)]));
-  const unchanged = new Set<number>();
-  if (!opts.force && keys.size) {
-    const stored = preparedOn(tx, "select id, assessment_input_key as inputKey, assessed_at as assessedAt from rooms where id in (select value from json_each(?))").all(JSON.stringify([...keys.keys()])) as {
-      id: number;
-      inputKey: string | null;
-      assessedAt: number | null;
-    }[];
-    const candidatesToSkip = stored.filter((room) => room.inputKey != null && room.inputKey === keys.get(room.id) && room.assessedAt != null);
-    if (candidatesToSkip.length) {
-      const since = Math.min(...candidatesToSkip.map((room) => room.assessedAt!));
-      const touched = new Set(
-        (
-          preparedOn(
-            tx,
-            `select distinct room_id as roomId from findings where room_id in (select value from json_each(?))
-               and (updated_at > ? or (status = 'risk_accepted' and risk_accepted_until <= ?))`,
-          ).all(JSON.stringify(candidatesToSkip.map((room) => room.id)), since, nowMs) as { roomId: number }[]
-        ).map((row) => row.roomId),
-      );
-      for (const room of candidatesToSkip) if (!touched.has(room.id)) unchanged.add(room.id);
+  const keyed = snapshots.map((snapshot) => ({ snapshot, key: inputKey(settingsJson, snapshot, library) }));
+
+  // Locations whose digest is unchanged and whose findings nobody has touched since.
+  const unchangedRooms = new Set<number>();
+  const unchangedUnits = new Set<number>();
+  if (!opts.force && keyed.length) {
+    const json = (list: number[]) => JSON.stringify(list);
+    const roomKeys = new Map(keyed.flatMap(({ snapshot, key }) => (snapshot.kind === "room" ? [[snapshot.room.id, key] as const] : [])));
+    const unitKeys = new Map(keyed.flatMap(({ snapshot, key }) => (snapshot.kind === "unit" ? [[snapshot.unit.id, key] as const] : [])));
+    const same = (rows: StoredKey[], keys: Map<number, string>) => rows.filter((row) => row.inputKey != null && row.assessedAt != null && row.inputKey === keys.get(row.id));
+    const sameRooms = same(preparedOn(tx, "select id, assessment_input_key as inputKey, assessed_at as assessedAt from rooms where id in (select value from json_each(?))").all(json([...roomKeys.keys()])) as StoredKey[], roomKeys);
+    const sameUnits = same(preparedOn(tx, "select id, assessment_input_key as inputKey, assessed_at as assessedAt from storage_units where id in (select value from json_each(?))").all(json([...unitKeys.keys()])) as StoredKey[], unitKeys);
+    if (sameRooms.length || sameUnits.length) {
+      // Per location: the latest change to any of its findings, and the earliest review date of an accepted risk.
+      const activity = preparedOn(
+        tx,
+        `select room_id as roomId, storage_unit_id as unitId, max(updated_at) as lastChange,
+                min(case when status = 'risk_accepted' then risk_accepted_until end) as nextReview
+           from findings where room_id in (select value from json_each(?)) group by room_id, storage_unit_id`,
+      ).all(json(ids)) as { roomId: number; unitId: number | null; lastChange: number; nextReview: number | null }[];
+      const roomActivity = new Map(activity.filter((a) => a.unitId == null).map((a) => [a.roomId, a]));
+      const unitActivity = new Map(activity.filter((a) => a.unitId != null).map((a) => [a.unitId!, a]));
+      const quiet = (row: StoredKey, found: { lastChange: number; nextReview: number | null } | undefined) =>
+        !found || (found.lastChange <= row.assessedAt! && (found.nextReview == null || found.nextReview > nowMs));
+      for (const row of sameRooms) if (quiet(row, roomActivity.get(row.id))) unchangedRooms.add(row.id);
+      for (const row of sameUnits) if (quiet(row, unitActivity.get(row.id))) unchangedUnits.add(row.id);
     }
   }
+  const isUnchanged = (snapshot: LocationSnapshot) => (snapshot.kind === "room" ? unchangedRooms.has(snapshot.room.id) : unchangedUnits.has(snapshot.unit.id));
 
-  const assessIds = ids.filter((id) => !unchanged.has(id));
   const cache = createAssessmentCache();
-  const candidates = snapshots.filter((snapshot) => !unchanged.has(snapshot.room.id)).flatMap((snapshot) => assessLocation(snapshot, settingsNow, { cache }).map(toStoredCandidate));
-  const unitIds = assessIds.length ? tx.select({ id: storageUnits.id }).from(storageUnits).where(inArray(storageUnits.roomId, assessIds)).all().map((u) => u.id) : [];
-  const result = assessIds.length
-    ? reconcileFindings(tx, { roomIds: assessIds, storageUnitIds: unitIds }, candidates, { nowMs, reason: opts.reason })
-    : { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
-  const setKey = preparedOn(tx, "update rooms set assessment_input_key = ?, assessed_at = ? where id = ?");
-  for (const [roomId, key] of keys) setKey.run(key, nowMs, roomId);
+  const candidates = keyed.filter(({ snapshot }) => !isUnchanged(snapshot)).flatMap(({ snapshot }) => assessLocation(snapshot, settingsNow, { cache }).map(toStoredCandidate));
+  // Every unit of these rooms (retired ones too, whose findings resolve) except those left as they were.
+  const unitIds = tx.select({ id: storageUnits.id }).from(storageUnits).where(inArray(storageUnits.roomId, ids)).all().map((u) => u.id).filter((id) => !unchangedUnits.has(id));
+  const scopeRooms = ids.filter((id) => !unchangedRooms.has(id));
+  const result =
+    scopeRooms.length || unitIds.length
+      ? reconcileFindings(tx, { roomIds: scopeRooms, storageUnitIds: unitIds }, candidates, { nowMs, reason: opts.reason })
+      : { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
+  const setRoom = preparedOn(tx, "update rooms set assessment_input_key = ?, assessed_at = ? where id = ?");
+  const setUnit = preparedOn(tx, "update storage_units set assessment_input_key = ?, assessed_at = ? where id = ?");
+  for (const { snapshot, key } of keyed) {
+    if (snapshot.kind === "room") setRoom.run(key, nowMs, snapshot.room.id);
+    else if (!unchangedUnits.has(snapshot.unit.id)) setUnit.run(key, nowMs, snapshot.unit.id);
+  }
   const alertsQueued = opts.notify === false ? 0 : queueFindingAlerts(tx, result.changes);
   return {
     ...result,
     rooms: snapshots.filter((s) => s.kind === "room").length,
     units: snapshots.filter((s) => s.kind === "unit").length,
-    roomsUnchanged: unchanged.size,
+    roomsUnchanged: [...unchangedRooms].filter((roomId) => keyed.every(({ snapshot }) => snapshot.kind !== "unit" || snapshot.room.id !== roomId || unchangedUnits.has(snapshot.unit.id))).length,
     alertsQueued,
   };
 }

@@ -84,6 +84,11 @@ describe("re-assessing rooms whose inputs have not changed", () => {
     const bottle = getDb().select().from(containers).all().find((c) => unitIds.includes(c.storageUnitId) && c.state !== "disposed" && c.state !== "empty")!;
     getDb().update(containers).set({ amount: bottle.amount * 2 }).where(eq(containers.id, bottle.id)).run();
     expect(run({ nowMs: later + 2000 }).roomsUnchanged).toBe(0);
+    // Only the bottle's unit (and the room's own rules) were assessed again; the other units were left as they were.
+    const assessedAt = new Map(getDb().select({ id: storageUnits.id, at: storageUnits.assessedAt }).from(storageUnits).where(eq(storageUnits.roomId, room.id)).all().map((u) => [u.id, u.at?.getTime()]));
+    expect(assessedAt.get(bottle.storageUnitId)).toBe(later + 2000);
+    expect(unitIds.filter((id) => id !== bottle.storageUnitId).every((id) => (assessedAt.get(id) ?? 0) < later + 2000)).toBe(true);
+    expect(getDb().select({ at: rooms.assessedAt }).from(rooms).where(eq(rooms.id, room.id)).get()!.at?.getTime()).toBe(later + 2000);
     expect(run({ nowMs: later + 3000 }).roomsUnchanged).toBe(1);
     expect(run({ nowMs: later + 4000, force: true }).roomsUnchanged).toBe(0);
     getDb().update(containers).set({ amount: bottle.amount }).where(eq(containers.id, bottle.id)).run();
