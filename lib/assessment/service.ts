@@ -363,10 +363,22 @@ export function reassessRooms(
       : { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
   const setRoom = preparedOn(tx, "update rooms set assessment_input_key = ?, assessed_at = ? where id = ?");
   const setUnit = preparedOn(tx, "update storage_units set assessment_input_key = ?, assessed_at = ? where id = ?");
+  const keyedRooms = new Set<number>();
+  const keyedUnits = new Set<number>();
   for (const { snapshot, key } of keyed) {
-    if (snapshot.kind === "room") setRoom.run(key, nowMs, snapshot.room.id);
-    else if (!unchangedUnits.has(snapshot.unit.id)) setUnit.run(key, nowMs, snapshot.unit.id);
+    if (snapshot.kind === "room") {
+      keyedRooms.add(snapshot.room.id);
+      setRoom.run(key, nowMs, snapshot.room.id);
+    } else {
+      keyedUnits.add(snapshot.unit.id);
+      if (!unchangedUnits.has(snapshot.unit.id)) setUnit.run(key, nowMs, snapshot.unit.id);
+    }
   }
+  // A retired room or unit has no digest: if it comes back, it is assessed in full (its findings resolved meanwhile).
+  const clearRoom = preparedOn(tx, "update rooms set assessment_input_key = null where id = ?");
+  const clearUnit = preparedOn(tx, "update storage_units set assessment_input_key = null where id = ?");
+  for (const id of ids) if (!keyedRooms.has(id)) clearRoom.run(id);
+  for (const id of unitIds) if (!keyedUnits.has(id)) clearUnit.run(id);
   const alertsQueued = opts.notify === false ? 0 : queueFindingAlerts(tx, result.changes);
   return {
     ...result,

@@ -4,7 +4,7 @@
  * Runs on the demo organisation (its first assessment is part of the seed).
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { and, eq, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed/demo";
 import { containers, findingEvents, findings, rooms, sensors, storageUnits, substances, users, type User } from "@/db/schema";
@@ -93,6 +93,16 @@ describe("re-assessing rooms whose inputs have not changed", () => {
     expect(run({ nowMs: later + 4000, force: true }).roomsUnchanged).toBe(0);
     getDb().update(containers).set({ amount: bottle.amount }).where(eq(containers.id, bottle.id)).run();
     run({ nowMs: later + 5000 });
+    // Retired, its findings resolve; back in use with the same inputs, they re-open.
+    const roomFinding = getDb().select().from(findings).where(and(eq(findings.roomId, room.id), isNull(findings.storageUnitId), eq(findings.status, "open"))).get();
+    getDb().update(rooms).set({ retiredAt: new Date(later + 5500) }).where(eq(rooms.id, room.id)).run();
+    expect(run({ nowMs: later + 6000 }).resolved).toBeGreaterThan(0);
+    getDb().update(rooms).set({ retiredAt: null }).where(eq(rooms.id, room.id)).run();
+    const back = run({ nowMs: later + 7000 });
+    expect(back.roomsUnchanged).toBe(0);
+    expect(back.reopened).toBeGreaterThan(0);
+    expect(roomFinding).toBeDefined();
+    expect(getDb().select().from(findings).where(eq(findings.id, roomFinding!.id)).get()!.status).toBe("open");
   });
 });
 
