@@ -10,8 +10,9 @@
 // The script builds a register in a temporary database: the sourced substance library, 3 sites,
 // 100 rooms with 20 storage units each, 20,000 containers, 100 sensors with 2,000 readings each,
 // 1,000 excursions and 100,000 findings, each with a calculation trace from the hazard engine
-// (the closed-enclosure bound: inputs with sources, every step, result and warnings — about 20 trace
-// rows per finding). Then a fresh Node process (so its memory is the export's alone, on top of
+// (the closed-enclosure bound over six containers: inputs with sources, every step, result and
+// warnings), stored with its readable text as the register stores it (about 1.9 KB per finding, long
+// sources cited from trace_sources). Then a fresh Node process (so its memory is the export's alone, on top of
 // Node and the loaded modules) writes the workbook to a file through writeRegisterWorkbook,
 // sampling process.memoryUsage().rss every 50 ms. It reports; it does not fail: exit code 0 either way.
 import { spawnSync } from "node:child_process";
