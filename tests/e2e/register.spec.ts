@@ -22,6 +22,8 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   await page.getByRole("link", { name: "Register" }).first().click();
   await expect(page).toHaveURL(/\/register\?status=open/);
   await page.getByRole("searchbox").or(page.getByLabel("Search")).first().fill("Diethyl ether (GHS category 1");
+  // The search reaches the URL after a short pause; a click before it would be undone by it.
+  await expect(page).toHaveURL(/[?&]q=Diethyl/);
   const findingLink = page.getByRole("link", { name: /^Diethyl ether \(GHS category 1, NFPA class IA\) is stored in FR-1, whose interior has ignition sources$/ });
   await expect(findingLink).toBeVisible();
   await findingLink.click();
