@@ -95,60 +95,148 @@ export type ContainerExportRow = {
 };
 
 /**
- * The pages of the three long tables, as prepared statements run straight on better-sqlite3:
- * for 100,000 findings the query builder's row mapping costs as much again as SQLite itself.
+ * The pages of the three long tables, as prepared statements run straight on better-sqlite3 in
+ * raw mode (rows as arrays), each row turned into an object by a literal mapping: for 100,000
+ * findings the query builder's row mapping costs as much again as SQLite itself, and
+ * better-sqlite3's own row objects twice as much as arrays. Each mapping lists the fields in the
+ * statement's select order (tests/integration/register-export.test.ts checks the pairs).
  * Timestamps stay epoch ms (the workbook writes them as dates). `@site` null means every site.
  */
+const FINDING_SELECT = `f.id, f.severity, f.status, f.rule, f.scenario, f.title, s.name, r.code, u.code,
+            c.label, sub.name, sub.cas, m.name,
+            f.value, f.limit_value, f.ratio, f.unit, f.worst_case_temp_c,
+            f.worst_case_source, f.first_raised_at,
+            case when f.condition_holds and r.assessed_at > f.last_evaluated_at then r.assessed_at else f.last_evaluated_at end,
+            f.resolved_at, a.name, f.mitigation_plan,
+            f.risk_accepted_until, f.fingerprint`;
+
+/** A row of FINDING_SELECT. */
+export function findingExportRow(r: unknown[]): FindingExportRow {
+  return {
+    id: r[0],
+    severity: r[1],
+    status: r[2],
+    rule: r[3],
+    scenario: r[4],
+    title: r[5],
+    siteName: r[6],
+    roomCode: r[7],
+    unitCode: r[8],
+    containerLabel: r[9],
+    substanceName: r[10],
+    cas: r[11],
+    mixtureName: r[12],
+    value: r[13],
+    limitValue: r[14],
+    ratio: r[15],
+    unit: r[16],
+    worstCaseTempC: r[17],
+    worstCaseSource: r[18],
+    firstRaisedAt: r[19],
+    lastEvaluatedAt: r[20],
+    resolvedAt: r[21],
+    assigneeName: r[22],
+    mitigationPlan: r[23],
+    riskAcceptedUntil: r[24],
+    fingerprint: r[25],
+  } as FindingExportRow;
+}
+
+export type TraceExportRow = { id: number; title: string; text: string | null; sourceIds: string | null; traceJson: string | null };
+
+// The readable text when it was rendered with the trace; the JSON only for a trace stored before.
+const TRACE_SELECT = "f.id, f.title, t.text, t.source_ids, case when t.text is null then t.trace end";
+
+/** A row of TRACE_SELECT. */
+export function traceExportRow(r: unknown[]): TraceExportRow {
+  return { id: r[0], title: r[1], text: r[2], sourceIds: r[3], traceJson: r[4] } as TraceExportRow;
+}
+
+const CONTAINER_SELECT = `c.id, c.label, sub.name, sub.cas, m.name, c.amount, c.amount_unit,
+            c.capacity, c.capacity_unit, c.container_kind, c.state, s.name,
+            r.code, u.code, o.name, c.received_at, c.opened_at,
+            c.expires_at, c.notes`;
+
+/** A row of CONTAINER_SELECT. */
+export function containerExportRow(r: unknown[]): ContainerExportRow {
+  return {
+    id: r[0],
+    label: r[1],
+    substanceName: r[2],
+    cas: r[3],
+    mixtureName: r[4],
+    amount: r[5],
+    amountUnit: r[6],
+    capacity: r[7],
+    capacityUnit: r[8],
+    containerKind: r[9],
+    state: r[10],
+    siteName: r[11],
+    roomCode: r[12],
+    unitCode: r[13],
+    ownerName: r[14],
+    receivedAt: r[15],
+    openedAt: r[16],
+    expiresAt: r[17],
+    notes: r[18],
+  } as ContainerExportRow;
+}
+
+/** The select lists above with their row mappings, for the test that checks they line up. */
+export const EXPORT_SELECTS = [
+  { select: FINDING_SELECT, toRow: findingExportRow },
+  { select: TRACE_SELECT, toRow: traceExportRow },
+  { select: CONTAINER_SELECT, toRow: containerExportRow },
+] as const;
+
 export function exportPageQueries(db: Db) {
   const sqlite = db.$client;
-  const findingStatement = sqlite.prepare(
-    `select f.id, f.severity, f.status, f.rule, f.scenario, f.title, s.name as siteName, r.code as roomCode, u.code as unitCode,
-            c.label as containerLabel, sub.name as substanceName, sub.cas as cas, m.name as mixtureName,
-            f.value, f.limit_value as limitValue, f.ratio, f.unit, f.worst_case_temp_c as worstCaseTempC,
-            f.worst_case_source as worstCaseSource, f.first_raised_at as firstRaisedAt, case when f.condition_holds and r.assessed_at > f.last_evaluated_at then r.assessed_at else f.last_evaluated_at end as lastEvaluatedAt,
-            f.resolved_at as resolvedAt, a.name as assigneeName, f.mitigation_plan as mitigationPlan,
-            f.risk_accepted_until as riskAcceptedUntil, f.fingerprint
-       from findings f
-       left join rooms r on r.id = f.room_id
-       left join sites s on s.id = coalesce(f.site_id, r.site_id)
-       left join storage_units u on u.id = f.storage_unit_id
-       left join containers c on c.id = f.container_id
-       left join substances sub on sub.id = f.substance_id
-       left join mixtures m on m.id = f.mixture_id
-       left join users a on a.id = f.assignee_id
-      where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
-      order by f.id limit @limit`,
-  );
-  // The readable text when it was rendered with the trace; the JSON only for a trace stored before.
-  const traceStatement = sqlite.prepare(
-    `select f.id, f.title, t.text, t.source_ids as sourceIds, case when t.text is null then t.trace end as traceJson
-       from findings f
-       join finding_traces t on t.finding_id = f.id
-       left join rooms r on r.id = f.room_id
-      where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
-      order by f.id limit @limit`,
-  );
-  const containerStatement = sqlite.prepare(
-    `select c.id, c.label, sub.name as substanceName, sub.cas as cas, m.name as mixtureName, c.amount, c.amount_unit as amountUnit,
-            c.capacity, c.capacity_unit as capacityUnit, c.container_kind as containerKind, c.state, s.name as siteName,
-            r.code as roomCode, u.code as unitCode, o.name as ownerName, c.received_at as receivedAt, c.opened_at as openedAt,
-            c.expires_at as expiresAt, c.notes
-       from containers c
-       join storage_units u on u.id = c.storage_unit_id
-       join rooms r on r.id = u.room_id
-       join sites s on s.id = r.site_id
-       left join substances sub on sub.id = c.substance_id
-       left join mixtures m on m.id = c.mixture_id
-       left join users o on o.id = c.owner_id
-      where c.id > @after and c.state <> 'disposed' and (@site is null or r.site_id = @site)
-      order by c.id limit @limit`,
-  );
+  const findingStatement = sqlite
+    .prepare(
+      `select ${FINDING_SELECT}
+         from findings f
+         left join rooms r on r.id = f.room_id
+         left join sites s on s.id = coalesce(f.site_id, r.site_id)
+         left join storage_units u on u.id = f.storage_unit_id
+         left join containers c on c.id = f.container_id
+         left join substances sub on sub.id = f.substance_id
+         left join mixtures m on m.id = f.mixture_id
+         left join users a on a.id = f.assignee_id
+        where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
+        order by f.id limit @limit`,
+    )
+    .raw(true);
+  const traceStatement = sqlite
+    .prepare(
+      `select ${TRACE_SELECT}
+         from findings f
+         join finding_traces t on t.finding_id = f.id
+         left join rooms r on r.id = f.room_id
+        where f.id > @after and (@site is null or coalesce(f.site_id, r.site_id) = @site)
+        order by f.id limit @limit`,
+    )
+    .raw(true);
+  const containerStatement = sqlite
+    .prepare(
+      `select ${CONTAINER_SELECT}
+         from containers c
+         join storage_units u on u.id = c.storage_unit_id
+         join rooms r on r.id = u.room_id
+         join sites s on s.id = r.site_id
+         left join substances sub on sub.id = c.substance_id
+         left join mixtures m on m.id = c.mixture_id
+         left join users o on o.id = c.owner_id
+        where c.id > @after and c.state <> 'disposed' and (@site is null or r.site_id = @site)
+        order by c.id limit @limit`,
+    )
+    .raw(true);
+  const page = <T>(statement: typeof findingStatement, toRow: (r: unknown[]) => T, scope: ExportScope, after: number, limit: number): T[] =>
+    (statement.all({ after, limit, site: scope.siteId ?? null }) as unknown[][]).map(toRow);
   return {
-    findings: (scope: ExportScope, after: number, limit: number) => findingStatement.all({ after, limit, site: scope.siteId ?? null }) as FindingExportRow[],
+    findings: (scope: ExportScope, after: number, limit: number) => page(findingStatement, findingExportRow, scope, after, limit),
     /** Findings' traces as their stored readable text (or, for an older trace, its JSON), and the ids of the sources cited. */
-    traces: (scope: ExportScope, after: number, limit: number) =>
-      traceStatement.all({ after, limit, site: scope.siteId ?? null }) as { id: number; title: string; text: string | null; sourceIds: string | null; traceJson: string | null }[],
-    containers: (scope: ExportScope, after: number, limit: number) => containerStatement.all({ after, limit, site: scope.siteId ?? null }) as ContainerExportRow[],
+    traces: (scope: ExportScope, after: number, limit: number) => page(traceStatement, traceExportRow, scope, after, limit),
+    containers: (scope: ExportScope, after: number, limit: number) => page(containerStatement, containerExportRow, scope, after, limit),
   };
 }
 
@@ -259,23 +347,35 @@ export type ExcursionExportRow = ReturnType<typeof excursionPage>[number];
  */
 export function substancesInScope(db: DbOrTx, scope: ExportScope) {
   const site = scope.siteId ?? null;
+  // Unscoped, the room joins only cost time (every container has a unit and a room): the findings'
+  // substances come from the substance index alone.
   const ids = db
     .all<{ id: number }>(
-      sql`select c.substance_id as id from containers c
+      site === null
+        ? sql`select c.substance_id as id from containers c where c.state <> 'disposed' and c.substance_id is not null
+              union
+              select mc.substance_id from mixture_components mc join containers c on c.mixture_id = mc.mixture_id
+                where c.state <> 'disposed'
+              union
+              select f.substance_id from findings f where f.substance_id is not null
+              union
+              select mc.substance_id from mixture_components mc
+                where mc.mixture_id in (select f.mixture_id from findings f where f.mixture_id is not null)`
+        : sql`select c.substance_id as id from containers c
             join storage_units u on u.id = c.storage_unit_id join rooms r on r.id = u.room_id
-            where c.state <> 'disposed' and c.substance_id is not null and (${site} is null or r.site_id = ${site})
+            where c.state <> 'disposed' and c.substance_id is not null and r.site_id = ${site}
           union
           select mc.substance_id from mixture_components mc
             join containers c on c.mixture_id = mc.mixture_id
             join storage_units u on u.id = c.storage_unit_id join rooms r on r.id = u.room_id
-            where c.state <> 'disposed' and (${site} is null or r.site_id = ${site})
+            where c.state <> 'disposed' and r.site_id = ${site}
           union
           select f.substance_id from findings f left join rooms r on r.id = f.room_id
-            where f.substance_id is not null and (${site} is null or coalesce(f.site_id, r.site_id) = ${site})
+            where f.substance_id is not null and coalesce(f.site_id, r.site_id) = ${site}
           union
           select mc.substance_id from mixture_components mc
             join findings f on f.mixture_id = mc.mixture_id left join rooms r on r.id = f.room_id
-            where (${site} is null or coalesce(f.site_id, r.site_id) = ${site})`,
+            where coalesce(f.site_id, r.site_id) = ${site}`,
     )
     .map((r) => r.id);
   if (ids.length === 0) return [];
@@ -294,13 +394,11 @@ export type RegisterCounts = {
 };
 
 export function registerCounts(db: DbOrTx, scope: ExportScope): RegisterCounts {
-  const bySeverityStatus = db
-    .select({ severity: findings.severity, status: findings.status, n: count() })
-    .from(findings)
-    .leftJoin(rooms, eq(rooms.id, findings.roomId))
-    .where(findingInScope(scope))
-    .groupBy(findings.severity, findings.status)
-    .all();
+  const countsBy = { severity: findings.severity, status: findings.status, n: count() };
+  // Unscoped, the counts come from the (status, severity) index alone; the room join would read every finding.
+  const bySeverityStatus = scope.siteId
+    ? db.select(countsBy).from(findings).leftJoin(rooms, eq(rooms.id, findings.roomId)).where(findingInScope(scope)).groupBy(findings.severity, findings.status).all()
+    : db.select(countsBy).from(findings).groupBy(findings.severity, findings.status).all();
   const siteOfRoom = scope.siteId ? eq(rooms.siteId, scope.siteId) : undefined;
   const containersInStorage =
     db

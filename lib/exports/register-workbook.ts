@@ -403,7 +403,8 @@ async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteNam
 
 /**
  * Writes a table read page by page after the last id seen (keyset paging on the shared
- * connection; no statement stays open between pages), draining the sheet after each page.
+ * connection; no statement stays open between pages), draining the sheet whenever rows went to
+ * its stream and after each page.
  */
 async function writePaged<P extends { id: number }, R>(
   sheet: TableSheet<R>,
@@ -413,7 +414,10 @@ async function writePaged<P extends { id: number }, R>(
 ): Promise<number> {
   for (let after = 0; ; ) {
     const page = fetch(after);
-    for (const row of page) write(row);
+    for (const row of page) {
+      write(row);
+      if (sheet.wantsDrain) await sheet.drain();
+    }
     await sheet.drain();
     if (page.length < pageSize) break;
     after = page[page.length - 1].id;

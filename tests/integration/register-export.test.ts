@@ -8,6 +8,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import ExcelJS from "exceljs";
 import { getDb } from "@/db/client";
+import { FINDING_STATUSES } from "@/db/enums";
 import { auditEvents, containers, excursions, exposureLimits, findings, findingTraces, readings, rooms, sensors, sites, storageUnits, substances, type User } from "@/db/schema";
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
 import { PassThrough, Writable } from "node:stream";
@@ -182,6 +183,13 @@ function headers(sheet: ExcelJS.Worksheet): string[] {
   return (sheet.getRow(1).values as unknown[]).slice(1).map(String);
 }
 
+/** The Summary's "Findings by severity and status" table: each row's label and its Total column. */
+function severityTotals(summary: ExcelJS.Worksheet): Map<string, unknown> {
+  const totals = new Map<string, unknown>();
+  summary.eachRow((row) => totals.set(String(row.getCell(1).value), row.getCell(FINDING_STATUSES.length + 2).value));
+  return totals;
+}
+
 /** The data rows of a sheet as objects keyed by header, with the exceljs cells. */
 function rowsOf(sheet: ExcelJS.Worksheet): Record<string, ExcelJS.Cell>[] {
   const keys = headers(sheet);
@@ -337,6 +345,9 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     expect(labelled.get("Containers in storage")).toBe(2);
     expect(labelled.get("Open excursions")).toBe(0);
     expect(labelled.get("Site")).toBe("All sites");
+    // Findings by severity: the last column of each severity's row is its total over every status.
+    const totals = severityTotals(summary);
+    expect([totals.get("Critical"), totals.get("High"), totals.get("Low"), totals.get("Total")]).toEqual([1, 0, 1, 2]);
     const methods = rowsOf(workbook.getWorksheet("Methods and cautions")!);
     const items = methods.map((r) => `${r["Section"].value}: ${r["Item"].value}`);
     for (const expected of [
@@ -379,6 +390,10 @@ describe("the site filter and who may download", () => {
     const labelled = new Map<string, unknown>();
     workbook.getWorksheet("Summary")!.eachRow((row) => labelled.set(String(row.getCell(1).value), row.getCell(2).value));
     expect(labelled.get("Site")).toBe("Other campus");
+    const totals = severityTotals(workbook.getWorksheet("Summary")!);
+    expect([totals.get("Critical"), totals.get("Low"), totals.get("Total")]).toEqual([0, 1, 1]);
+    // The site's container is of the one substance, so it alone is listed (once per exposure limit).
+    expect(rowsOf(workbook.getWorksheet("Substances")!).map((r) => r["Substance"].value)).toEqual(["exportol (invented)"]);
   });
 
   it("answers 400 for a site id that is not a number or not a site, naming the field", async () => {
