@@ -160,7 +160,8 @@ async function build(): Promise<void> {
        @value, @limitValue, @ratio, @unit, @worstCaseTempC, @worstCaseSource, @assigneeId, @mitigationPlan, @riskAcceptedUntil,
        @firstRaisedAt, @lastEvaluatedAt, @resolvedAt)`,
   );
-  const insertTrace = sqlite.prepare("insert into finding_traces (finding_id, trace, text, source_ids) values (?, ?, ?, ?)");
+  // As TraceWriter stores them: traceText's text is XML-safe.
+  const insertTrace = sqlite.prepare("insert into finding_traces (finding_id, trace, text, text_xml_safe, source_ids) values (?, ?, ?, 1, ?)");
 
   const nowMs = Date.now();
   const units: { id: number; roomId: number; siteId: number; code: string }[] = [];

@@ -589,17 +589,25 @@ export const findingTraces = sqliteTable("finding_traces", {
   findingId: integer("finding_id")
     .primaryKey()
     .references(() => findings.id, { onDelete: "cascade" }),
-  /** The engine's full trace as JSON (see lib/assessment/rules/types.ts FindingTrace). */
-  trace: text("trace", { mode: "json" }).$type<unknown>().notNull(),
+  // The columns the workbook reads come before the JSON: a row's first bytes stay on its b-tree
+  // page, the rest of a long row goes to overflow pages that a read of the text then skips.
   /**
-   * The same trace as readable lines for the workbook, rendered when the trace is written
+   * The trace as readable lines for the workbook, rendered when the trace is written
    * (lib/register/trace-text.ts); long sources are cited as "[S12]", ids of trace_sources.
    * Null for a trace stored before the text was kept: the workbook renders it then.
    */
   text: text("text"),
+  /**
+   * True when the text was rendered holding only characters XML can hold, with no carriage
+   * return (traceText guarantees it), so the workbook copies its UTF-8 bytes into the sheet
+   * without decoding and checking them; false for a text stored before.
+   */
+  textXmlSafe: integer("text_xml_safe", { mode: "boolean" }).notNull().default(false),
   /** The trace_sources ids the text cites, ascending. */
   sourceIds: text("source_ids", { mode: "json" }).$type<number[]>(),
   writtenAt: integer("written_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+  /** The engine's full trace as JSON (see lib/assessment/rules/types.ts FindingTrace). */
+  trace: text("trace", { mode: "json" }).$type<unknown>().notNull(),
 });
 export type FindingTraceRow = typeof findingTraces.$inferSelect;
 

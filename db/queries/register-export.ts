@@ -142,10 +142,12 @@ export function findingExportRow(r: unknown[]): FindingExportRow {
   } as FindingExportRow;
 }
 
-export type TraceExportRow = { id: number; title: string; text: string | null; sourceIds: string | null; traceJson: string | null };
+/** `text` is a Buffer of its UTF-8 bytes when it is known to be XML-safe (the workbook copies those bytes). */
+export type TraceExportRow = { id: number; title: string; text: string | Buffer | null; sourceIds: string | null; traceJson: string | null };
 
-// The readable text when it was rendered with the trace; the JSON only for a trace stored before.
-const TRACE_SELECT = "f.id, f.title, t.text, t.source_ids, case when t.text is null then t.trace end";
+// The readable text when it was rendered with the trace (as a blob, its bytes, when it is XML-safe);
+// the JSON only for a trace stored before.
+const TRACE_SELECT = "f.id, f.title, case when t.text_xml_safe then cast(t.text as blob) else t.text end, t.source_ids, case when t.text is null then t.trace end";
 
 /** A row of TRACE_SELECT. */
 export function traceExportRow(r: unknown[]): TraceExportRow {

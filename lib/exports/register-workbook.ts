@@ -27,6 +27,7 @@ import { assumptions, CAUTIONS, METHODS, SUMMARY_CAUTION, type MethodStatement }
 import { safeText, TEXT_NUM_FMT } from "./safe-text";
 import { DATETIME_NUM_FMT, ExportCancelledError, HEADER_STYLE, Pace, sharedTextOf, TableSheet, TEXT_STYLE, type Column, type SharedText } from "./table-sheet";
 import { traceText } from "@/lib/register/trace-text";
+import { installNativeZipCrc } from "./zip-crc";
 
 /**
  * The register as an Excel workbook for auditors, streamed: Summary, Findings, Finding traces,
@@ -125,7 +126,7 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Fingerprint", width: 40, kind: "text", unique: true, value: (r) => r.fingerprint },
 ];
 
-type TraceSheetRow = { id: number; title: string; text: string; sourceIds: number[] };
+type TraceSheetRow = { id: number; title: string; text: string | Buffer; sourceIds: number[] };
 
 const TRACE_COLUMNS: Column<TraceSheetRow>[] = [
   { header: "Finding ID", width: 10, kind: "number", value: (r) => r.id },
@@ -592,6 +593,7 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
   const site = opts.siteId ? findSite(db, opts.siteId) : null;
   if (opts.siteId && !site) throw new NotFoundError("That site");
 
+  installNativeZipCrc();
   const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: false, zip: { zlib: { level: 1 } } });
   workbook.creator = "Headroom";
   workbook.lastModifiedBy = "Headroom";

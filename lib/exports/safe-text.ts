@@ -41,3 +41,15 @@ export function safeText(value: unknown): string | null {
   if (text.length <= MAX_CELL_CHARS) return text;
   return text.slice(0, MAX_CELL_CHARS - TRUNCATION_MARK.length) + TRUNCATION_MARK;
 }
+
+/** Characters XML 1.0 cannot hold (C0 controls other than tab, line feed and carriage return, U+FFFE, U+FFFF) and unpaired surrogates. */
+export const XML_INVALID = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g;
+
+/**
+ * Text that an XML document holds as it is: characters XML cannot hold dropped, and line ends as
+ * line feeds (an XML parser turns a carriage return into a line feed anyway). For text Headroom
+ * renders itself (calculation traces); a value as typed is kept as it is (see safeText).
+ */
+export function xmlSafeText(text: string): string {
+  return text.replace(XML_INVALID, "").replace(/\r\n?/g, "\n");
+}

@@ -17,16 +17,25 @@
  */
 import type { Writable } from "node:stream";
 import ExcelJS from "exceljs";
-import { safeText, TEXT_NUM_FMT } from "./safe-text";
+import { MAX_CELL_CHARS, safeText, TEXT_NUM_FMT, XML_INVALID } from "./safe-text";
 
 /**
- * - text: a string (anything else is written as its text);
+ * - text: a string, or XML-safe UTF-8 bytes (see XmlSafeBytes); anything else is written as its text;
  * - number: a finite number, otherwise left empty (never a string);
  * - date / datetime: a Date or epoch ms, shown as a date or date and time (UTC);
  * - value: a number, a boolean or a string, whichever it is (trace values);
  * - boolean: true/false.
  */
 export type ColumnKind = "text" | "number" | "date" | "datetime" | "value" | "boolean";
+
+/**
+ * UTF-8 text in a Buffer whose producer guarantees it holds only characters XML can hold and no
+ * carriage return (lib/exports/safe-text.ts xmlSafeText), such as a calculation trace's stored
+ * text read as a blob. In a `unique` text column such a cell is copied into the sheet as bytes —
+ * no decoding, checking and encoding again of hundreds of megabytes — unless it holds a markup
+ * character (&, <, >) or is longer than a cell may be; then it is written as its text.
+ */
+export type XmlSafeBytes = Buffer;
 
 export type Column<R> = {
   header: string;
@@ -62,7 +71,7 @@ const MAX_SHARED_CHARS = 4_000_000;
 const MAX_SHARED_LENGTH = 1000;
 
 /** Rows are collected into chunks of about this many characters before they go to the stream. */
-const CHUNK_CHARS = 64 * 1024;
+const CHUNK_CHARS = 16 * 1024;
 /** The deflate backlog (bytes) past which writing waits for the compressor. */
 const MAX_BACKLOG_BYTES = 4 * 2 ** 20;
 
@@ -81,7 +90,7 @@ type WorkbookInternals = {
  * normalizeInputSource) — without waiting, so that is where a backlog collects while the
  * compressor or the reader is behind, or while earlier entries are still being zipped.
  */
-type SheetStream = { write(chunk: string): void; pipes?: BufferedStream[] };
+type SheetStream = { write(chunk: string | Buffer): void; pipes?: BufferedStream[] };
 
 /** A readable-stream 2.x stream (archiver's): it has no writableLength, only the states. */
 type BufferedStream = Writable & { _writableState?: { length: number }; _readableState?: { length: number } };
@@ -164,15 +173,14 @@ function columnLetters(n: number): string {
   return letters;
 }
 
-// Characters XML 1.0 does not allow (exceljs drops them too) and unpaired surrogates.
-const INVALID_XML = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g;
 /** Anything that needs a second look: markup characters, CR, control characters, surrogates. */
 const SPECIAL = /[&<>\u0000-\u0008\u000B-\u001F\uD800-\uDFFF\uFFFE\uFFFF]/;
 
 /** Text as XML element content: markup characters escaped, characters XML cannot hold dropped. */
 export function xmlText(text: string): string {
   if (!SPECIAL.test(text)) return text;
-  const valid = text.replace(INVALID_XML, "");
+  // Characters XML 1.0 does not allow are dropped (exceljs drops them too).
+  const valid = text.replace(XML_INVALID, "");
   // A carriage return is kept as a character reference: XML parsers turn a raw one into a line feed.
   return valid.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/\r/g, "&#13;");
 }
@@ -316,24 +324,25 @@ export class TableSheet<R> {
     }
   }
 
-  private written = false;
+  /** Characters (or bytes) that went to the stream since the last drain(). */
+  private pending = 0;
 
   private flush(): void {
     if (this.chunk) {
       this.stream.write(this.chunk);
-      this.written = true;
+      this.pending += this.chunk.length;
     }
     this.chunk = "";
   }
 
   /**
-   * True once rows went to the stream since the last drain(): call drain() then. The compressor
-   * works on the thread pool, but this thread hands it each chunk; a turn of the event loop per
-   * chunk lets it compress one chunk while the next rows are built (draining once per page of
-   * rows instead made the two take turns, and the export a third slower).
+   * True once a chunk's worth of rows went to the stream since the last drain(): call drain()
+   * then. The compressor works on the thread pool, but this thread hands it each chunk; a turn of
+   * the event loop per chunk lets it compress one chunk while the next rows are built (draining
+   * once per page of rows instead made the two take turns, and the export a third slower).
    */
   get wantsDrain(): boolean {
-    return this.written;
+    return this.pending >= CHUNK_CHARS;
   }
 
   private commitPart(): void {
@@ -342,7 +351,15 @@ export class TableSheet<R> {
     this.sheet.commit();
   }
 
-  /** Writes one data row. Call `drain()` every few hundred rows (each page) to let the output catch up. */
+  /** Bytes to copy into the sheet as they are (see XmlSafeBytes), or null to write them as text. */
+  private copyable(bytes: Uint8Array, column: Prepared<R>): Buffer | null {
+    if (!column.unique || bytes.length > MAX_CELL_CHARS) return null;
+    // Buffer's indexOf is a native search: three of them cost far less than a pass in JavaScript.
+    const buffer = Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length);
+    return buffer.indexOf(0x26) < 0 && buffer.indexOf(0x3c) < 0 && buffer.indexOf(0x3e) < 0 ? buffer : null;
+  }
+
+  /** Writes one data row. Call `drain()` when wantsDrain says so, and after each page, to let the output catch up. */
   add(record: R): void {
     if (this.lastRow >= this.maxRows) {
       this.commitPart();
@@ -350,19 +367,35 @@ export class TableSheet<R> {
     }
     const rowNumber = ++this.lastRow;
     this.rowCount += 1;
-    let cells = "";
+    let xml = `<row r="${rowNumber}">`;
     for (const column of this.columns) {
-      const value = column.value(record);
-      if (value !== null && value !== undefined) cells += this.cell(column, rowNumber, value);
+      let value = column.value(record);
+      if (value === null || value === undefined) continue;
+      if (column.kind === "text" && value instanceof Uint8Array) {
+        if (value.length === 0) continue;
+        const bytes = this.copyable(value, column);
+        if (bytes === null) {
+          value = Buffer.from(value.buffer, value.byteOffset, value.length).toString("utf8");
+        } else {
+          const space = isSpace(bytes[0]) || isSpace(bytes[bytes.length - 1]) ? ' xml:space="preserve"' : "";
+          this.chunk += `${xml}<c r="${column.letters}${rowNumber}"${this.textStyleAttr} t="inlineStr"><is><t${space}>`;
+          this.flush();
+          this.stream.write(bytes);
+          this.pending += bytes.length;
+          xml = "</t></is></c>";
+          continue;
+        }
+      }
+      xml += this.cell(column, rowNumber, value);
     }
-    this.chunk += `<row r="${rowNumber}">${cells}</row>`;
+    this.chunk += `${xml}</row>`;
     if (this.chunk.length >= CHUNK_CHARS) this.flush();
   }
 
   /** Waits while the compressor or the reader is behind (see Pace). */
   async drain(): Promise<void> {
     this.flush();
-    this.written = false;
+    this.pending = 0;
     await this.pace.breathe(this.stream);
   }
 

@@ -104,8 +104,9 @@ export class TraceWriter {
     const sourceIds = citing.ids();
     preparedOn(
       this.tx,
-      `insert into finding_traces (finding_id, trace, text, source_ids, written_at) values (?, ?, ?, ?, ?)
-         on conflict (finding_id) do update set trace = excluded.trace, text = excluded.text, source_ids = excluded.source_ids, written_at = excluded.written_at`,
+      // traceText's text is XML-safe, hence text_xml_safe = 1.
+      `insert into finding_traces (finding_id, trace, text, text_xml_safe, source_ids, written_at) values (?, ?, ?, 1, ?, ?)
+         on conflict (finding_id) do update set trace = excluded.trace, text = excluded.text, text_xml_safe = 1, source_ids = excluded.source_ids, written_at = excluded.written_at`,
     ).run(findingId, JSON.stringify(stored), text, JSON.stringify(sourceIds), this.now.getTime());
   }
 }

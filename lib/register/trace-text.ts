@@ -12,6 +12,7 @@
  * "Trace sources" sheet resolves. Short notes stay inline. The lines come from traceRows, so a
  * trace of any shape keeps every value.
  */
+import { xmlSafeText } from "@/lib/exports/safe-text";
 import { traceRows, type TraceCellValue, type TraceRow } from "@/lib/exports/trace-rows";
 
 /** A note (a source, or a step's note with its source) this long or longer is cited rather than written out. */
@@ -75,7 +76,11 @@ function line(row: TraceRow, cite: (source: string) => string): string | null {
   return withNote(label && value ? `${label}: ${value}` : label || value);
 }
 
-/** The trace as lines joined by "\n"; parts of the calculation are indented by two spaces per level. */
+/**
+ * The trace as lines joined by "\n"; parts of the calculation are indented by two spaces per
+ * level. XML-safe (xmlSafeText): no character XML cannot hold, no carriage return, so the workbook
+ * can copy the stored text's bytes (db/schema.ts findingTraces.textXmlSafe).
+ */
 export function traceText(trace: unknown, cite: (source: string) => string = (source) => source): string {
   const lines: string[] = [];
   for (const row of traceRows(trace)) {
@@ -86,7 +91,7 @@ export function traceText(trace: unknown, cite: (source: string) => string = (so
     const indent = depth > 0 && !/parts\[\d+\]\.method$/.test(row.path) ? "  ".repeat(depth) : "  ".repeat(Math.max(0, depth - 1));
     lines.push(indent + text);
   }
-  return lines.join("\n");
+  return xmlSafeText(lines.join("\n"));
 }
 
 /**

@@ -489,3 +489,19 @@ describe("writeRegisterWorkbook", () => {
     await expect(writeRegisterWorkbook(output, { generatedBy: "test", nowMs: Date.now() })).rejects.toBeInstanceOf(ExportCancelledError);
   });
 });
+
+describe("a trace text stored before texts were known to be XML-safe", () => {
+  it("is checked and escaped as it is written, and what XML cannot hold is dropped", async () => {
+    const db = getDb();
+    const stored = db.select().from(findingTraces).where(eq(findingTraces.findingId, otherFindingId)).get()!;
+    expect(stored.textXmlSafe).toBe(true); // TraceWriter's text
+    db.update(findingTraces).set({ text: "Class IB volume: 12 L & <rising>\u0007", textXmlSafe: false }).where(eq(findingTraces.findingId, otherFindingId)).run();
+    try {
+      const workbook = await openWorkbook(await download(officer, `?siteId=${otherSiteId}`));
+      const [trace] = rowsOf(workbook.getWorksheet("Finding traces")!);
+      expect(trace["Calculation trace (one line per input, step, result and warning)"].value).toBe("Class IB volume: 12 L & <rising>");
+    } finally {
+      db.update(findingTraces).set({ text: stored.text, textXmlSafe: true }).where(eq(findingTraces.findingId, otherFindingId)).run();
+    }
+  });
+});

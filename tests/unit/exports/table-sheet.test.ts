@@ -1,6 +1,7 @@
 import { PassThrough } from "node:stream";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
+import { MAX_CELL_CHARS } from "@/lib/exports/safe-text";
 import { Pace, sharedTextOf, TableSheet, xmlText, type Column } from "@/lib/exports/table-sheet";
 
 type Row = { label: string | null; note: string | null; n: unknown; at: unknown; ok: unknown; v: unknown };
@@ -57,6 +58,31 @@ describe("TableSheet", () => {
     expect([a.getCell(6).value, b.getCell(6).value, c.getCell(6).value]).toEqual([22.7, "@SUM(A1)", false]);
     expect(sheet.views[0]).toMatchObject({ state: "frozen", ySplit: 1 });
     expect(sheet.autoFilter).toBe("A1:F4");
+  });
+});
+
+describe("TableSheet with text as XML-safe UTF-8 bytes", () => {
+  it("copies the bytes into a unique text column, and writes them as text where they hold markup or sit in a shared column", async () => {
+    const text = "Antoine: log10(P/kPa) = A − B/(T + C)\n  P = 30.76 kPa — [S3]";
+    const sheet = await roundTrip([
+      { label: null, note: Buffer.from(text), n: 1, at: null, ok: null, v: null } as unknown as Row,
+      { label: null, note: Buffer.from("  indented first and last line \n"), n: 2, at: null, ok: null, v: null } as unknown as Row,
+      { label: null, note: Buffer.from("C < LFL & T > flash point"), n: 3, at: null, ok: null, v: null } as unknown as Row,
+      { label: Buffer.from("shared label"), note: Buffer.alloc(0), n: 4, at: null, ok: null, v: null } as unknown as Row,
+      { label: Buffer.from("shared label"), note: Buffer.from("x".repeat(40_000)), n: 5, at: null, ok: null, v: null } as unknown as Row,
+    ]);
+    const [a, b, c, d, e] = [2, 3, 4, 5, 6].map((n) => sheet.getRow(n));
+    expect(a.getCell(2).value).toBe(text);
+    expect(a.getCell(2).numFmt).toBe("@");
+    expect(a.getCell(3).value).toBe(1); // the row goes on after the bytes
+    expect(b.getCell(2).value).toBe("  indented first and last line \n");
+    expect(c.getCell(2).value).toBe("C < LFL & T > flash point");
+    expect([d.getCell(1).value, e.getCell(1).value]).toEqual(["shared label", "shared label"]);
+    expect(d.getCell(2).value).toBeNull(); // no bytes, no cell
+    const cut = String(e.getCell(2).value);
+    expect(cut).toHaveLength(MAX_CELL_CHARS);
+    expect(cut.endsWith("[cut at the cell limit]")).toBe(true);
+    expect(e.getCell(3).value).toBe(5);
   });
 });
 

@@ -81,3 +81,12 @@ describe("traceNumber", () => {
     expect(traceNumber(-45.09)).toBe("-45.09");
   });
 });
+
+describe("traceText is XML-safe", () => {
+  it("drops control characters and carriage returns that came in with stored names", () => {
+    const text = traceText({ inputs: [{ name: "Container\u0007 label", symbol: "L", value: "BX-1\r\nopen", unit: "", source: "typed\u0000 in" }] });
+    expect(text).not.toMatch(/[\u0000-\u0008\u000B-\u001F]/);
+    expect(text).toContain("Container label");
+    expect(text).toContain("typed in");
+  });
+});
