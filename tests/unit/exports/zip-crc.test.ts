@@ -33,7 +33,7 @@ describe("native CRC-32 for the zip entries", () => {
 
   it("is the same checksum, chained the same way", () => {
     const whole = referenceCrc(data);
-        expect(referenceCrc(Buffer.from("123456789")) >>> 0).toBe(0xcbf43926);
+    expect(referenceCrc(Buffer.from("123456789")) >>> 0).toBe(0xcbf43926);
     expect(crc.buf(data)).toBe(whole); // the JavaScript one, or already the native one
     expect(installNativeZipCrc()).toBe(true);
     expect((crc as { nativeFromZlib?: boolean }).nativeFromZlib).toBe(true);
