@@ -3,7 +3,8 @@
 //
 // Run with `npx tsx --conditions=react-server bench/export.ts` (the condition makes
 // `import "server-only"` a no-op). Options: `--keep-files` keeps the database and the workbook
-// (their paths are printed); `--findings N` builds N findings instead of 100,000; `--short-traces`
+// (their paths are printed); `--findings N` builds N findings instead of 100,000; `--runs N` exports N
+// times (3 by default; the target is judged on the median, memory on the highest); `--short-traces`
 // stores a five-row trace per finding instead of the engine's full one, to show the cost of the
 // traces against the rest of the workbook.
 //
@@ -14,7 +15,7 @@
 // warnings), stored with its readable text as the register stores it (about 1.9 KB per finding, long
 // sources cited from trace_sources). Then a fresh Node process (so its memory is the export's alone, on top of
 // Node and the loaded modules) writes the workbook to a file through writeRegisterWorkbook,
-// sampling process.memoryUsage().rss every 50 ms. It reports; it does not fail: exit code 0 either way.
+// sampling process.memoryUsage().rss every 50 ms, three times by default. It reports; it does not fail: exit code 0 either way.
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
@@ -25,6 +26,9 @@ const findingsArg = process.argv.indexOf("--findings");
 /** `--findings N` builds a smaller (or larger) register, e.g. to profile quickly. */
 const FINDING_COUNT = findingsArg >= 0 ? Number(process.argv[findingsArg + 1]) : 100_000;
 const SHORT_TRACES = process.argv.includes("--short-traces");
+const runsArg = process.argv.indexOf("--runs");
+/** `--runs N` exports N times (3 by default) and judges the median. */
+const RUNS = runsArg >= 0 ? Math.max(1, Number(process.argv[runsArg + 1])) : 3;
 const SITE_COUNT = 3;
 const ROOM_COUNT = 100;
 const UNITS_PER_ROOM = 20;
@@ -257,29 +261,39 @@ async function main(): Promise<void> {
   const outFile = path.join(tempDir, "register.xlsx");
   try {
     await build();
-    const loadAtStart = os.loadavg()[0];
-    const child = spawnSync(process.execPath, [...process.execArgv, process.argv[1], "--export-only", outFile], {
-      env: { ...process.env },
-      encoding: "utf8",
-      maxBuffer: 16 * 2 ** 20,
-    });
-    if (child.status !== 0) throw new Error(`the export process failed:\n${child.stderr}`);
-    const figures = JSON.parse(child.stdout.trim().split("\n").at(-1)!) as ExportFigures;
+    // Several runs, each in a fresh process: on a shared machine one run can take half as long
+    // again as the next, so the target is judged on the median run.
+    const runs: (ExportFigures & { loadAtStart: number })[] = [];
+    for (let run = 0; run < RUNS; run++) {
+      const loadAtStart = os.loadavg()[0];
+      const child = spawnSync(process.execPath, [...process.execArgv, process.argv[1], "--export-only", outFile], {
+        env: { ...process.env },
+        encoding: "utf8",
+        maxBuffer: 16 * 2 ** 20,
+      });
+      if (child.status !== 0) throw new Error(`the export process failed:\n${child.stderr}`);
+      runs.push({ ...(JSON.parse(child.stdout.trim().split("\n").at(-1)!) as ExportFigures), loadAtStart });
+    }
+    const sorted = [...runs].sort((a, b) => a.seconds - b.seconds);
+    const figures = sorted[Math.floor((sorted.length - 1) / 2)];
+    const peakRssMb = Math.max(...runs.map((r) => r.peakRssMb));
     const c = figures.counts;
     console.log(
       `\nWorkbook written: ${fixed(figures.bytes / 2 ** 20)} MB; ${thousands(c.findings)} findings, ${thousands(c.traces)} traces citing ${thousands(c.traceSources)} sources, ` +
-        `${thousands(c.containers)} containers, ${thousands(c.locations)} location rows, ${thousands(c.excursions)} excursions, ${c.substances} substances.`,
+        `${thousands(c.containers)} containers, ${thousands(c.locations)} location rows, ${thousands(c.excursions)} excursions, ${c.substances} substances; ` +
+        `zip CRC-32 ${c.nativeZipCrc ? "from zlib" : "in JavaScript"}.`,
     );
-    console.log(`By sheet: ${Object.entries(c.timingsMs).map(([sheet, ms]) => `${sheet} ${fixed(ms / 1000, 2)} s`).join(", ")}.`);
+    console.log(`Runs: ${runs.map((r) => `${fixed(r.seconds, 2)} s (load ${fixed(r.loadAtStart, 2)})`).join(", ")}.`);
+    console.log(`By sheet, median run: ${Object.entries(c.timingsMs).map(([sheet, ms]) => `${sheet} ${fixed(ms / 1000, 2)} s`).join(", ")}.`);
     console.log(
-      `Time: ${fixed(figures.seconds, 2)} s (target < ${TARGET_S} s): ${figures.seconds < TARGET_S ? "target met" : "target NOT met"}; ` +
+      `Time, median of ${runs.length}: ${fixed(figures.seconds, 2)} s (target < ${TARGET_S} s): ${figures.seconds < TARGET_S ? "target met" : "target NOT met"}; ` +
         `CPU time of the export process ${fixed(figures.cpuSeconds, 2)} s (main thread and compression threads together).`,
     );
     console.log(
-      `Peak RSS: ${fixed(figures.peakRssMb, 0)} MB (target < ${TARGET_PEAK_MB} MB): ${figures.peakRssMb < TARGET_PEAK_MB ? "target met" : "target NOT met"}; ` +
+      `Peak RSS, highest of the runs: ${fixed(peakRssMb, 0)} MB (target < ${TARGET_PEAK_MB} MB): ${peakRssMb < TARGET_PEAK_MB ? "target met" : "target NOT met"}; ` +
         `${fixed(figures.startRssMb, 0)} MB before the export began (Node and the loaded modules).`,
     );
-    console.log(`Machine: ${os.cpus().length} cores, load average ${fixed(loadAtStart, 2)} at the start of the export; Node ${process.version}.`);
+    console.log(`Machine: ${os.cpus().length} cores; Node ${process.version}.`);
     if (keepFiles) console.log(`Kept: ${process.env.DATABASE_PATH} and ${outFile}`);
   } finally {
     if (!keepFiles) fs.rmSync(tempDir, { recursive: true, force: true });

@@ -73,6 +73,8 @@ export type RegisterWorkbookResult = {
   locations: number;
   excursions: number;
   substances: number;
+  /** Whether the zip entries' CRC-32 came from zlib (see zip-crc.ts), for logs and the benchmark. */
+  nativeZipCrc: boolean;
   /** Time spent on each sheet (and the final commit), for logs and the benchmark. */
   timingsMs: Record<string, number>;
 };
@@ -593,7 +595,7 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
   const site = opts.siteId ? findSite(db, opts.siteId) : null;
   if (opts.siteId && !site) throw new NotFoundError("That site");
 
-  installNativeZipCrc();
+  const nativeZipCrc = installNativeZipCrc();
   const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: false, zip: { zlib: { level: 1 } } });
   workbook.creator = "Headroom";
   workbook.lastModifiedBy = "Headroom";
@@ -630,7 +632,7 @@ export async function writeRegisterWorkbook(output: Writable, opts: RegisterWork
     const substances = await timed("Substances", () => writeSubstances(ctx));
     await timed("Methods and cautions", () => writeMethods(ctx));
     await timed("commit", () => Promise.race([workbook.commit(), closedEarly]));
-    return { findings, traces: traces.rows, traceSources, containers, locations, excursions, substances, timingsMs };
+    return { findings, traces: traces.rows, traceSources, containers, locations, excursions, substances, nativeZipCrc, timingsMs };
   } finally {
     output.off("close", onClose);
   }
