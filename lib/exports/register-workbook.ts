@@ -406,8 +406,8 @@ async function writeSummary(ctx: Context, opts: RegisterWorkbookOptions, siteNam
 
 /**
  * Writes a table read page by page after the last id seen (keyset paging on the shared
- * connection; no statement stays open between pages), draining the sheet whenever rows went to
- * its stream and after each page.
+ * connection; no statement stays open between pages), draining the sheet whenever it asks
+ * (a chunk went to its stream) and after each page.
  */
 async function writePaged<P extends { id: number }, R>(
   sheet: TableSheet<R>,

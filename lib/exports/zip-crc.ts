@@ -36,15 +36,21 @@ function crcModuleInUse(): Crc32Module | null {
   }
 }
 
+/** The outcome of the first call: the module chain is followed once per process. */
+let installed: boolean | null = null;
+
 /** Native CRC-32 for archiver's zip entries; true when in use. Idempotent. */
 export function installNativeZipCrc(): boolean {
+  if (installed !== null) return installed;
   const crc32 = (zlib as unknown as { crc32?: (data: Uint8Array, value?: number) => number }).crc32;
-  if (typeof crc32 !== "function") return false;
-  const crcModule = crcModuleInUse();
-  if (!crcModule || typeof crcModule.buf !== "function") return false;
-  if (!crcModule.nativeFromZlib) {
-    crcModule.buf = (data, seed) => crc32(data, typeof seed === "number" ? seed >>> 0 : 0) | 0;
-    crcModule.nativeFromZlib = true;
+  const crcModule = typeof crc32 === "function" ? crcModuleInUse() : null;
+  installed = false;
+  if (crc32 && crcModule && typeof crcModule.buf === "function") {
+    if (!crcModule.nativeFromZlib) {
+      crcModule.buf = (data, seed) => crc32(data, typeof seed === "number" ? seed >>> 0 : 0) | 0;
+      crcModule.nativeFromZlib = true;
+    }
+    installed = true;
   }
-  return true;
+  return installed;
 }
