@@ -38,8 +38,9 @@ export class ForbiddenError extends DomainError {
 }
 
 export class NotFoundError extends DomainError {
+  /** `what` names the thing ("That room" → "That room was not found."); a full sentence is kept as it is. */
   constructor(what = "That item") {
-    super("not_found", `${what} was not found.`, 404);
+    super("not_found", /[.!?]$/.test(what.trim()) ? what.trim() : `${what} was not found.`, 404);
   }
 }
 

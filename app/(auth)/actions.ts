@@ -1,20 +1,16 @@
 "use server";
 import { redirect } from "next/navigation";
 import { formAction } from "@/lib/auth/form-action";
+import { safeRedirectPath } from "@/lib/http/redirects";
 import { endSession, startSession } from "@/lib/auth/session";
 import { signInWithPassword } from "@/lib/auth/sign-in";
 import { requestPasswordReset, setPasswordWithToken } from "@/lib/users/service";
 import { requestResetSchema, setPasswordSchema, signInSchema } from "@/lib/users/schemas";
 
-/** Only same-site paths are followed after sign-in. */
-function safeNext(next: string | undefined): string {
-  return next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
-}
-
 export const signInAction = formAction({ action: "public", schema: signInSchema }, async ({ input }) => {
   const user = await signInWithPassword(input.email, input.password);
   await startSession(user);
-  redirect(safeNext(input.next));
+  redirect(safeRedirectPath(input.next));
 });
 
 export const requestResetAction = formAction({ action: "public", schema: requestResetSchema }, async ({ input }) => {

@@ -20,12 +20,12 @@ export function SetPasswordForm({
   defaultName?: string;
   submitLabel: string;
 }) {
-  const { form, fields, pending } = useServerForm(setPasswordSchema, action, {
+  const { form, fields, pending, dispatch } = useServerForm(setPasswordSchema, action, {
     id: "set-password",
     defaultValue: { name: defaultName },
   });
   return (
-    <form {...getFormProps(form)} action={action as never} className="space-y-5" noValidate>
+    <form {...getFormProps(form)} action={dispatch} className="space-y-5" noValidate>
       <FormMessage id={form.errorId} errors={form.errors} />
       <input type="hidden" name="token" value={token} />
       <div className="space-y-1.5">

@@ -79,7 +79,7 @@ export function ConfigForm<S extends z.ZodObject>({
   hidden?: Record<string, string | number>;
   submitLabel: string;
 }) {
-  const { form, fields, pending, lastResult } = useServerForm(schema, action, { id, defaultValue });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(schema, action, { id, defaultValue });
   const all = fields as unknown as Record<string, FieldMetadata<unknown>>;
   // "sources.flashPointC" → the flashPointC field of the sources fieldset.
   const fieldFor = (name: string): FieldMetadata<unknown> => {
@@ -90,7 +90,7 @@ export function ConfigForm<S extends z.ZodObject>({
   };
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
   return (
-    <form {...getFormProps(form)} action={action as never} noValidate className="space-y-6">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-6">
       <FormMessage id={form.errorId} errors={form.errors} success={success} />
       {Object.entries(hidden ?? {}).map(([name, value]) => (
         <input key={name} type="hidden" name={name} value={value} />

@@ -5,6 +5,7 @@ import { getDb } from "@/db/client";
 import { AMOUNT_UNITS, CONTAINER_STATES } from "@/db/enums";
 import { containers, mixtures, storageUnits, substances } from "@/db/schema";
 import { NotFoundError, ValidationError } from "@/lib/errors";
+import { containerAmountSchema } from "@/lib/inventory/schemas";
 import { optionalId, requiredId } from "@/lib/validation/fields";
 import { assessLocation, createAssessmentCache, severityRank } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
@@ -14,7 +15,7 @@ export const assessmentPreviewSchema = z
     storageUnitId: requiredId("storage unit"),
     substanceId: optionalId("substance"),
     mixtureId: optionalId("mixture"),
-    amount: z.coerce.number({ error: "amount must be a number." }).refine((v) => Number.isFinite(v) && v > 0, "amount must be more than 0."),
+    amount: containerAmountSchema,
     amountUnit: z.enum(AMOUNT_UNITS, { error: `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.` }),
     /** Optional: the stored container being edited, which the preview replaces by this one. */
     containerId: optionalId("container"),

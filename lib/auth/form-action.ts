@@ -21,7 +21,12 @@ export function formAction<S extends z.ZodType>(
   spec: { action: Action | "public"; schema: S },
   handler: (ctx: Ctx<z.output<S>>) => Promise<string | void>,
 ) {
-  return async (_previous: FormState | undefined, formData: FormData): Promise<FormState> => {
+  return async (previous: FormState | FormData | undefined, formData?: FormData): Promise<FormState> => {
+    // Bound straight to a form's action (no useActionState), the action gets the form data first.
+    if (formData === undefined && previous instanceof FormData) formData = previous;
+    if (!(formData instanceof FormData)) {
+      return { status: "error", error: { "": ["The form could not be read. Reload the page and try again."] } };
+    }
     const submission = parseWithZod(formData, { schema: spec.schema });
     try {
       let user: SessionUser | null = null;

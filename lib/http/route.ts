@@ -6,8 +6,10 @@ import type { Action, Scope } from "@/lib/auth/permissions";
 import { getRequestUser, type SessionUser } from "@/lib/auth/session";
 import type { ApiKey } from "@/db/schema";
 import { authenticateApiKey } from "@/lib/api-keys/service";
-import { DomainError, ForbiddenError, RateLimitedError, UnauthenticatedError, ValidationError } from "@/lib/errors";
+import { DomainError, ForbiddenError, RateLimitedError, UnauthenticatedError } from "@/lib/errors";
 import { log } from "@/lib/log";
+import { JSON_BODY_LIMITS } from "@/lib/limits";
+import { assertSameOrigin, readJsonBody } from "./request-guard";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
 
@@ -39,17 +41,15 @@ type HandlerArgs<T> = {
 
 type PublicHandlerArgs = { request: Request; params: Record<string, string> };
 
-async function readInput(request: Request): Promise<unknown> {
+/**
+ * The input of a request: the query string for GET, HEAD and DELETE, otherwise the JSON body
+ * (at most `maxBodyBytes`, declared as JSON, valid UTF-8; see `readJsonBody`).
+ */
+async function readInput(request: Request, maxBodyBytes: number = JSON_BODY_LIMITS.defaultBytes): Promise<unknown> {
   if (request.method === "GET" || request.method === "HEAD" || request.method === "DELETE") {
     return Object.fromEntries(new URL(request.url).searchParams);
   }
-  const text = await request.text();
-  if (!text.trim()) return {};
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw new ValidationError("The request body is not valid JSON.");
-  }
+  return readJsonBody(request, maxBodyBytes);
 }
 
 function flatParams(raw: Record<string, string | string[]>): Record<string, string> {
@@ -65,11 +65,13 @@ function logOutcome(request: Request, status: number, startedAt: number, userId?
 }
 
 /**
- * A route handler behind the session check, the permission matrix and a zod schema (query
- * string for GET and DELETE, JSON body otherwise). Errors become the one JSON error shape.
+ * A route handler behind the origin check for writes (a page of another origin may not write
+ * with a signed-in person's cookie), the session check, the permission matrix and a zod schema
+ * (query string for GET and DELETE, JSON body otherwise, at most `maxBodyBytes`). Errors become
+ * the one JSON error shape.
  */
 export function route<S extends z.ZodType | undefined = undefined>(
-  spec: { action: Action; schema?: S },
+  spec: { action: Action; schema?: S; maxBodyBytes?: number },
   handler: (args: HandlerArgs<S extends z.ZodType ? z.output<S> : undefined>) => Promise<Response> | Response,
 ) {
   return async (request: Request, context: RouteContext): Promise<Response> => {
@@ -77,9 +79,10 @@ export function route<S extends z.ZodType | undefined = undefined>(
     let userId: number | undefined;
     let response: Response;
     try {
+      assertSameOrigin(request);
       const { user, scope } = authorizeAction(await getRequestUser(request), spec.action);
       userId = user.id;
-      const raw = spec.schema ? await readInput(request) : undefined;
+      const raw = spec.schema ? await readInput(request, spec.maxBodyBytes) : undefined;
       const input = parseInput(spec.schema as z.ZodType | undefined, raw);
       const params = flatParams((await context?.params) ?? {});
       response = await handler({ request, params, user, scope, input: input as never });
@@ -93,10 +96,11 @@ export function route<S extends z.ZodType | undefined = undefined>(
 
 /**
  * A route handler for machines: an API key in `Authorization: Bearer …` (401 when missing, wrong
- * or revoked) → the key's scope (403) → the body parses (400).
+ * or revoked) → the key's scope (403) → the body parses (400). No cookie is involved, so there is
+ * no origin check.
  */
 export function keyRoute<S extends z.ZodType>(
-  spec: { scope: string; schema: S },
+  spec: { scope: string; schema: S; maxBodyBytes?: number },
   handler: (args: { request: Request; key: ApiKey; input: z.output<S> }) => Promise<Response> | Response,
 ) {
   return async (request: Request): Promise<Response> => {
@@ -106,7 +110,7 @@ export function keyRoute<S extends z.ZodType>(
       const key = authenticateApiKey(request.headers.get("authorization"));
       if (!key) throw new UnauthenticatedError("Send a valid API key as Authorization: Bearer <key>.");
       if (!key.scopes.includes(spec.scope)) throw new ForbiddenError(`This API key may not ${spec.scope.replace(":", " ")}.`);
-      const input = parseInput(spec.schema, await readInput(request));
+      const input = parseInput(spec.schema, await readInput(request, spec.maxBodyBytes));
       response = await handler({ request, key, input });
     } catch (error) {
       response = errorResponse(error);
@@ -116,12 +120,16 @@ export function keyRoute<S extends z.ZodType>(
   };
 }
 
-/** A route handler open to anonymous callers (sign-in, health). */
+/**
+ * A route handler open to anonymous callers (sign-in, health). Writes still pass the origin
+ * check: a foreign page may not sign a visitor in to an account of its choosing.
+ */
 export function publicRoute(handler: (args: PublicHandlerArgs) => Promise<Response> | Response) {
   return async (request: Request, context: RouteContext): Promise<Response> => {
     const startedAt = performance.now();
     let response: Response;
     try {
+      assertSameOrigin(request);
       response = await handler({ request, params: flatParams((await context?.params) ?? {}) });
     } catch (error) {
       response = errorResponse(error);

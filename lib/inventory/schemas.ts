@@ -23,11 +23,14 @@ const label = z
   .max(64, "A label is at most 64 characters.")
   .regex(/^[\x21-\x7E](?:[\x20-\x7E]*[\x21-\x7E])?$/, "A label may use printable ASCII characters only (as barcodes do).");
 
+/** A container's amount; the what-if takes the same limits. */
+export const containerAmountSchema = requiredNumber({ label: "Amount", min: 0, max: 1e6 });
+
 const containerFields = {
   label,
   substanceId: optionalId("substance"),
   mixtureId: optionalId("mixture"),
-  amount: requiredNumber({ label: "Amount", min: 0, max: 1e6 }),
+  amount: containerAmountSchema,
   amountUnit: z.enum(AMOUNT_UNITS, { error: "Choose mL, L, g or kg." }),
   capacity: optionalNumber({ label: "Capacity", exclusiveMin: 0, max: 1e6 }),
   capacityUnit: z.union([z.enum(AMOUNT_UNITS), z.literal(""), z.null()]).optional().transform((v) => (v === "" ? null : v)),

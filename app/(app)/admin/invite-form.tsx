@@ -12,10 +12,10 @@ import { inviteUserAction } from "./actions";
 const roleOptions = ROLES.map((role) => ({ value: role, label: ROLE_LABELS[role] }));
 
 export function InviteForm() {
-  const { form, fields, pending, lastResult } = useServerForm(inviteUserSchema, inviteUserAction, { id: "invite-user" });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(inviteUserSchema, inviteUserAction, { id: "invite-user" });
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
   return (
-    <form {...getFormProps(form)} action={inviteUserAction as never} className="space-y-4" noValidate>
+    <form {...getFormProps(form)} action={dispatch} className="space-y-4" noValidate>
       <FormMessage id={form.errorId} errors={form.errors} success={success} />
       <TextField field={fields.name} label="Name" autoComplete="off" />
       <TextField field={fields.email} label="E-mail address" type="email" autoComplete="off" />

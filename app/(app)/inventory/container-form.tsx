@@ -63,7 +63,7 @@ export function ContainerForm({
   canChooseOwner: boolean;
 }) {
   const schema = mode === "create" ? containerCreateSchema : containerEditFormSchema;
-  const { form, fields, pending, lastResult } = useServerForm(schema, action, {
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(schema, action, {
     id: mode === "create" ? "container-new" : `container-${values.id}`,
     defaultValue: {
       ...values,
@@ -96,7 +96,7 @@ export function ContainerForm({
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
 
   return (
-    <form {...getFormProps(form)} action={action as never} noValidate className="space-y-6">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-6">
       <FormMessage id={form.errorId} errors={form.errors} success={success} />
       {values.id ? <input type="hidden" name="id" value={values.id} /> : null}
 

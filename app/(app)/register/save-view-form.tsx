@@ -20,9 +20,9 @@ const ROLE_OPTIONS = [
 export function SaveViewForm() {
   const searchParams = useSearchParams();
   const query = new URLSearchParams([...searchParams.entries()].filter(([key]) => key !== "page")).toString();
-  const { form, fields, pending, lastResult } = useServerForm(registerViewSchema, saveRegisterViewAction, { id: "register-view", defaultValue: { role: "safety_officer" } });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(registerViewSchema, saveRegisterViewAction, { id: "register-view", defaultValue: { role: "safety_officer" } });
   return (
-    <form {...getFormProps(form)} action={saveRegisterViewAction as never} noValidate className="flex flex-wrap items-end gap-3">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="flex flex-wrap items-end gap-3">
       <input type="hidden" name="query" value={query} />
       <div className="w-56">
         <Field id={fields.role.id} label="Save this view as the default for" errors={fields.role.errors}>

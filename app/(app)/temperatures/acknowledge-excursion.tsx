@@ -13,7 +13,7 @@ const HINT = "What was found and what was done, e.g. “Door left ajar after del
 /** "Acknowledge" opens a comment box; the comment is required and kept with the excursion. */
 export function AcknowledgeExcursion({ excursionId, describedById }: { excursionId: number; describedById?: string }) {
   const [open, setOpen] = useState(false);
-  const { form, fields, pending, lastResult } = useServerForm(excursionAcknowledgeFormSchema, acknowledgeExcursionAction, { id: `acknowledge-${excursionId}` });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(excursionAcknowledgeFormSchema, acknowledgeExcursionAction, { id: `acknowledge-${excursionId}` });
   const panelId = `acknowledge-${excursionId}-panel`;
   if (lastResult?.status === "success") return <FormMessage success={lastResult.message} />;
   if (!open) {
@@ -25,7 +25,7 @@ export function AcknowledgeExcursion({ excursionId, describedById }: { excursion
   }
   const comment = getTextareaProps(fields.comment, { ariaAttributes: true });
   return (
-    <form {...getFormProps(form)} id={form.id} action={acknowledgeExcursionAction as never} noValidate className="min-w-64 space-y-2" aria-describedby={describedById}>
+    <form {...getFormProps(form)} id={form.id} action={dispatch} noValidate className="min-w-64 space-y-2" aria-describedby={describedById}>
       <div id={panelId} className="space-y-2">
         <FormMessage id={form.errorId} errors={form.errors} />
         <input type="hidden" name="excursionId" value={excursionId} />

@@ -8,9 +8,9 @@ import { requestResetSchema } from "@/lib/users/schemas";
 import { requestResetAction } from "../actions";
 
 export function RequestResetForm() {
-  const { form, fields, pending, lastResult } = useServerForm(requestResetSchema, requestResetAction, { id: "request-reset" });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(requestResetSchema, requestResetAction, { id: "request-reset" });
   return (
-    <form {...getFormProps(form)} action={requestResetAction as never} className="space-y-5" noValidate>
+    <form {...getFormProps(form)} action={dispatch} className="space-y-5" noValidate>
       <FormMessage id={form.errorId} errors={form.errors} success={lastResult?.message} />
       <TextField field={fields.email} label="E-mail address" type="email" autoComplete="username" autoFocus />
       <Button type="submit" className="w-full" disabled={pending}>

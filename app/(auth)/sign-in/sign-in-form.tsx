@@ -9,9 +9,9 @@ import { signInSchema } from "@/lib/users/schemas";
 import { signInAction } from "../actions";
 
 export function SignInForm({ next }: { next?: string }) {
-  const { form, fields, pending } = useServerForm(signInSchema, signInAction, { id: "sign-in" });
+  const { form, fields, pending, dispatch } = useServerForm(signInSchema, signInAction, { id: "sign-in" });
   return (
-    <form {...getFormProps(form)} action={signInAction as never} className="space-y-5" noValidate>
+    <form {...getFormProps(form)} action={dispatch} className="space-y-5" noValidate>
       <FormMessage id={form.errorId} errors={form.errors} />
       <input type="hidden" name="next" value={next ?? ""} />
       <TextField field={fields.email} label="E-mail address" type="email" autoComplete="username" autoFocus />

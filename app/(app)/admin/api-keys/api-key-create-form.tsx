@@ -57,14 +57,14 @@ function NewKey({ value, onDone }: { value: string; onDone: () => void }) {
 }
 
 export function ApiKeyCreateForm() {
-  const { form, fields, pending, lastResult } = useServerForm(apiKeyCreateFormSchema, createApiKeyAction, { id: "api-key-new", defaultValue: { scopes: ["readings:write"] } });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(apiKeyCreateFormSchema, createApiKeyAction, { id: "api-key-new", defaultValue: { scopes: ["readings:write"] } });
   const [dismissed, setDismissed] = useState<string | null>(null);
   const newKey = lastResult?.status === "success" ? lastResult.message : undefined;
   const scopeErrors = fields.scopes.errors;
   return (
     <div className="space-y-4">
       {newKey && newKey !== dismissed ? <NewKey value={newKey} onDone={() => setDismissed(newKey)} /> : null}
-      <form {...getFormProps(form)} action={createApiKeyAction as never} noValidate className="space-y-4">
+      <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-4">
         <FormMessage id={form.errorId} errors={form.errors} />
         <TextField field={fields.name} label="Name" hint="Where it is used, e.g. “Building B logger gateway”." autoComplete="off" />
         <fieldset className="space-y-2" aria-describedby={scopeErrors?.length ? `${fields.scopes.id}-error` : undefined}>

@@ -13,12 +13,12 @@ import { createMixtureAction } from "./actions";
 const ROWS = 6;
 
 export function MixtureForm() {
-  const { form, fields, pending, lastResult } = useServerForm(mixtureCreateSchema, createMixtureAction, { id: "mixture-new", defaultValue: { fractionBasis: "mass" } });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(mixtureCreateSchema, createMixtureAction, { id: "mixture-new", defaultValue: { fractionBasis: "mass" } });
   const componentsField = fields.components as unknown as FieldMetadata<unknown> & { errors?: string[] };
   const list = (componentsField as unknown as { getFieldList: () => FieldMetadata<{ substanceId: string; fraction: string }>[] }).getFieldList();
   const basis = getSelectProps(fields.fractionBasis as FieldMetadata<string>, { ariaAttributes: true });
   return (
-    <form {...getFormProps(form)} action={createMixtureAction as never} noValidate className="space-y-5">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-5">
       <FormMessage id={form.errorId} errors={form.errors} success={lastResult?.status === "success" ? lastResult.message : undefined} />
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField field={fields.name as FieldMetadata<string>} label="Name" hint="For example: Halogenated solvent waste, lab 2.115" />

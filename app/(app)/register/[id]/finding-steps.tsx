@@ -41,10 +41,10 @@ const FIELDS: Record<Step, { name: string; label: string; kind: "textarea" | "pe
 
 function StepForm({ step, findingId, people }: { step: Step; findingId: number; people: Person[] }) {
   const schema = FINDING_STEP_SCHEMAS[step].extend({ findingId: requiredId("finding") });
-  const { form, fields, pending, lastResult } = useServerForm(schema as unknown as z.ZodObject, findingStepAction, { id: `finding-step-${step}`, defaultValue: { kind: step, findingId } });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(schema as unknown as z.ZodObject, findingStepAction, { id: `finding-step-${step}`, defaultValue: { kind: step, findingId } });
   const all = fields as unknown as Record<string, FieldMetadata<string>>;
   return (
-    <form {...getFormProps(form)} action={findingStepAction as never} noValidate className="space-y-4">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-4">
       <FormMessage id={form.errorId} errors={form.errors} success={lastResult?.status === "success" ? lastResult.message : undefined} />
       <input type="hidden" name="kind" value={step} />
       <input type="hidden" name="findingId" value={findingId} />
