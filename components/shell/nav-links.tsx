@@ -5,12 +5,13 @@ import {
   FileSpreadsheet,
   FlaskConical,
   LayoutDashboard,
+  LoaderCircle,
   Settings,
   Thermometer,
   Warehouse,
   type LucideIcon,
 } from "lucide-react";
-import Link from "next/link";
+import Link, { useLinkStatus } from "next/link";
 import { usePathname } from "next/navigation";
 import type { NavItem } from "@/lib/auth/permissions";
 
@@ -24,6 +25,21 @@ const ICONS: Record<string, LucideIcon> = {
   "/exports": FileSpreadsheet,
   "/admin": Settings,
 };
+
+/**
+ * Pages render whole on the server before they are sent (so a page a role may not open answers
+ * 403, not a 200 with the refusal streamed into it); meanwhile the link that was followed spins.
+ */
+function PendingMark() {
+  const { pending } = useLinkStatus();
+  if (!pending) return null;
+  return (
+    <span role="status" className="ml-auto">
+      <LoaderCircle aria-hidden="true" className="size-4 animate-spin" />
+      <span className="sr-only">Loading…</span>
+    </span>
+  );
+}
 
 function isActive(pathname: string, href: string): boolean {
   return href === "/" ? pathname === "/" : pathname === href || pathname.startsWith(`${href}/`);
@@ -48,6 +64,7 @@ export function NavLinks({ items, onNavigate }: { items: NavItem[]; onNavigate?:
             >
               <Icon aria-hidden="true" className="size-4 shrink-0" strokeWidth={2} />
               {item.label}
+              <PendingMark />
             </Link>
           </li>
         );
