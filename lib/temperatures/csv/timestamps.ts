@@ -81,7 +81,7 @@ function timeFrom(m: RegExpMatchArray, at: number): TimeParts | string {
       const digits = offsetText.slice(1).replace(":", "");
       const oh = Number(digits.slice(0, 2));
       const om = digits.length > 2 ? Number(digits.slice(2, 4)) : 0;
-      if (oh > 14 || om > 59) return `the offset ${offsetText} is not a UTC offset`;
+      if (om > 59 || oh * 60 + om > 14 * 60) return `the offset ${offsetText} is not a UTC offset (they run from −14:00 to +14:00)`;
       offsetMs = sign * (oh * 60 + om) * 60_000;
     }
   }
