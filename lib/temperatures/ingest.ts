@@ -69,11 +69,14 @@ function contradictions(parsed: ParsedReading[]): RowError[] {
     for (const row of group) {
       const others = group.filter((o) => o.tempC !== row.tempC);
       if (others.length === 0) continue;
-      const named = others.map((o) => `${o.index} (${o.tempC} °C)`).join(", ");
+      const when = `at the same instant (${formatInstantUtc(row.atMs)}); this one says ${row.tempC} °C. Keep one of them.`;
       errors.push({
         index: row.index,
         field: "tempC",
-        message: `Row${others.length === 1 ? "" : "s"} ${named} give${others.length === 1 ? "s" : ""} sensor “${row.sensor}” a different temperature at the same instant (${formatInstantUtc(row.atMs)}); this row says ${row.tempC} °C. Keep one of them.`,
+        message:
+          others.length === 1
+            ? `The reading at index ${others[0].index} gives sensor “${row.sensor}” ${others[0].tempC} °C ${when}`
+            : `The readings at indexes ${others.map((o) => o.index).join(", ")} give sensor “${row.sensor}” ${others.map((o) => `${o.tempC} °C`).join(", ")} ${when}`,
       });
     }
   }

@@ -88,12 +88,21 @@ function timeFrom(m: RegExpMatchArray, at: number): TimeParts | string {
   return { hour, minute, second, ms, offsetMs };
 }
 
+/** Date.UTC, except that the years 0–99 stay as written (Date.UTC reads them as 1900–1999). */
+function utcMs(year: number, monthIndex: number, day: number, hour = 0, minute = 0, second = 0, ms = 0): number {
+  const t = Date.UTC(year, monthIndex, day, hour, minute, second, ms);
+  if (year >= 100) return t;
+  const d = new Date(t);
+  d.setUTCFullYear(year);
+  return d.getTime();
+}
+
 function yearFrom(text: string): number {
   return text.length === 2 ? 2000 + Number(text) : Number(text);
 }
 
 function combine(date: DateParts, time: TimeParts): ParsedTimestamp {
-  const wallMs = Date.UTC(date.year, date.month - 1, date.day, time.hour, time.minute, time.second, time.ms);
+  const wallMs = utcMs(date.year, date.month - 1, date.day, time.hour, time.minute, time.second, time.ms);
   return time.offsetMs === null ? { kind: "local", wallMs } : { kind: "instant", atMs: wallMs - time.offsetMs };
 }
 
@@ -213,7 +222,7 @@ function fastTimestamp(s: string, order: DateOrder): ParsedTimestamp | null {
   if (!date) return null;
   const timeMs = fastTimeMs(s, 11);
   if (timeMs < 0) return null;
-  return { kind: "local", wallMs: Date.UTC(date.year, date.month - 1, date.day) + timeMs };
+  return { kind: "local", wallMs: utcMs(date.year, date.month - 1, date.day) + timeMs };
 }
 
 /** A timestamp column: date and time in one value. */
@@ -231,7 +240,7 @@ export function parseDateAndTime(dateText: string, timeText: string, order: Date
   if (dateText.length === 10) {
     const date = fastDate(dateText, 0, order);
     const timeMs = date ? fastTimeMs(timeText, 0) : -1;
-    if (date && timeMs >= 0) return { kind: "local", wallMs: Date.UTC(date.year, date.month - 1, date.day) + timeMs };
+    if (date && timeMs >= 0) return { kind: "local", wallMs: utcMs(date.year, date.month - 1, date.day) + timeMs };
   }
   if (dateText.trim() === "") return { kind: "error", column: "date", message: "The date is empty." };
   const parts = parseDateTimeParts(dateText, order, false);
