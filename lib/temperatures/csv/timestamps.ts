@@ -9,6 +9,8 @@
  * A time may end with its own UTC offset (Z, UTC, GMT, ±hh:mm, ±hhmm, ±hh): it is used as written and
  * the chosen time zone is ignored for that value. Without one the time is local to the chosen zone.
  */
+import { utcMs } from "./zoned-time";
+
 export type DateOrder = "ymd" | "dmy" | "mdy";
 
 export type ParsedTimestamp =
@@ -86,15 +88,6 @@ function timeFrom(m: RegExpMatchArray, at: number): TimeParts | string {
     }
   }
   return { hour, minute, second, ms, offsetMs };
-}
-
-/** Date.UTC, except that the years 0–99 stay as written (Date.UTC reads them as 1900–1999). */
-function utcMs(year: number, monthIndex: number, day: number, hour = 0, minute = 0, second = 0, ms = 0): number {
-  const t = Date.UTC(year, monthIndex, day, hour, minute, second, ms);
-  if (year >= 100) return t;
-  const d = new Date(t);
-  d.setUTCFullYear(year);
-  return d.getTime();
 }
 
 function yearFrom(text: string): number {
