@@ -91,3 +91,22 @@ export function readingLimits(): { earliestMs: number; maxFutureMs: number; minT
   if (!(minTempC < maxTempC)) throw new Error("READINGS_MIN_TEMP_C must be below READINGS_MAX_TEMP_C.");
   return { earliestMs, maxFutureMs: maxFutureMinutes * 60_000, minTempC, maxTempC };
 }
+
+/** Where `npm run backup` and the nightly backup write their dated folders (BACKUP_DIR). */
+export function backupDir(): string {
+  return process.env.BACKUP_DIR || path.join(path.dirname(databasePath()), "backups");
+}
+
+/** How many backups are kept (BACKUP_KEEP, default 14); older ones are deleted after each backup. */
+export function backupKeep(): number {
+  const keep = envNumber("BACKUP_KEEP", 14);
+  if (!Number.isInteger(keep) || keep < 1) throw new Error("BACKUP_KEEP must be a whole number of at least 1.");
+  return keep;
+}
+
+/** The nightly backup: on unless BACKUP_NIGHTLY=false, at BACKUP_HOUR_UTC (0–23, default 2). */
+export function backupSchedule(): { nightly: boolean; hourUtc: number } {
+  const hourUtc = envNumber("BACKUP_HOUR_UTC", 2);
+  if (!Number.isInteger(hourUtc) || hourUtc < 0 || hourUtc > 23) throw new Error("BACKUP_HOUR_UTC must be a whole hour from 0 to 23.");
+  return { nightly: process.env.BACKUP_NIGHTLY !== "false", hourUtc };
+}
