@@ -12,8 +12,8 @@
 //
 // The file is one refrigerator logger's export: an information block, then
 // Date;Time;Temperature;Unit;Serial with dd.mm.yyyy dates, 24-hour local times in Europe/Berlin
-// (both daylight-saving changes of 2026 inside, the repeated hour included), decimal commas, every
-// 30 s from 1 January 2026. Invented data: 4–5 °C with noise, short door openings, and one warm
+// (both daylight-saving changes of 2025 inside, the repeated hour included), decimal commas, every
+// 30 s from 1 January 2025 (a year in the past: readings ahead of the server's clock are refused). Invented data: 4–5 °C with noise, short door openings, and one warm
 // spell above 8 °C for 40–100 min about every two weeks. The script reports; it does not fail.
 import fs from "node:fs";
 import os from "node:os";
@@ -100,7 +100,7 @@ async function main(): Promise<void> {
   // ---------------------------------------------------------------------------------------------
   const csvPath = path.join(tempDir, "logger-bench.csv");
   const random = seededRandom(20_260_101);
-  const startMs = Date.parse("2025-12-31T23:00:00Z"); // 1 January 2026 00:00 in Berlin
+  const startMs = Date.parse("2024-12-31T23:00:00Z"); // 1 January 2025 00:00 in Berlin
   const offsets = new Map<number, number>(); // per UTC hour; Berlin changes on whole UTC hours
   const offsetAt = (atMs: number) => {
     const hour = Math.floor(atMs / 3_600_000);
@@ -115,7 +115,7 @@ async function main(): Promise<void> {
   const generated = await measured(async () => {
     const out = fs.createWriteStream(csvPath, { highWaterMark: 1 * MB });
     const write = (text: string) => (out.write(text) ? Promise.resolve() : new Promise<void>((resolve) => out.once("drain", () => resolve())));
-    await write(`Device;Refrigerator logger\r\nSerial number;${DEVICE}\r\nCalibration date;05.01.2026\r\n\r\nDate;Time;Temperature;Unit;Serial\r\n`);
+    await write(`Device;Refrigerator logger\r\nSerial number;${DEVICE}\r\nCalibration date;05.01.2025\r\n\r\nDate;Time;Temperature;Unit;Serial\r\n`);
     let batch = "";
     for (let i = 0; i < ROW_COUNT; i++) {
       const atMs = startMs + i * STEP_MS;

@@ -66,3 +66,47 @@ export function bcryptCost(): number {
 export function uploadDir(): string {
   return process.env.UPLOAD_DIR || path.join(path.dirname(databasePath()), "uploads");
 }
+
+function envNumber(name: string, fallback: number): number {
+  const text = process.env[name];
+  if (text === undefined || text.trim() === "") return fallback;
+  const value = Number(text);
+  if (!Number.isFinite(value)) throw new Error(`${name} must be a number, not “${text}”.`);
+  return value;
+}
+
+/**
+ * What makes a temperature reading plausible (the logger API and logger-file uploads):
+ * `READINGS_EARLIEST` (an ISO date, default 2000-01-01), `READINGS_MAX_FUTURE_MINUTES` (default 5:
+ * loggers' clocks drift), `READINGS_MIN_TEMP_C` / `READINGS_MAX_TEMP_C` (default −200 / 200 °C).
+ */
+export function readingLimits(): { earliestMs: number; maxFutureMs: number; minTempC: number; maxTempC: number } {
+  const earliestText = process.env.READINGS_EARLIEST?.trim() || "2000-01-01";
+  const earliestMs = Date.parse(/^\d{4}-\d{2}-\d{2}$/.test(earliestText) ? `${earliestText}T00:00:00Z` : earliestText);
+  if (Number.isNaN(earliestMs)) throw new Error(`READINGS_EARLIEST must be a date such as 2000-01-01, not “${earliestText}”.`);
+  const maxFutureMinutes = envNumber("READINGS_MAX_FUTURE_MINUTES", 5);
+  if (maxFutureMinutes < 0) throw new Error("READINGS_MAX_FUTURE_MINUTES must be 0 or more.");
+  const minTempC = envNumber("READINGS_MIN_TEMP_C", -200);
+  const maxTempC = envNumber("READINGS_MAX_TEMP_C", 200);
+  if (!(minTempC < maxTempC)) throw new Error("READINGS_MIN_TEMP_C must be below READINGS_MAX_TEMP_C.");
+  return { earliestMs, maxFutureMs: maxFutureMinutes * 60_000, minTempC, maxTempC };
+}
+
+/** Where `npm run backup` and the nightly backup write their dated folders (BACKUP_DIR). */
+export function backupDir(): string {
+  return process.env.BACKUP_DIR || path.join(path.dirname(databasePath()), "backups");
+}
+
+/** How many backups are kept (BACKUP_KEEP, default 14); older ones are deleted after each backup. */
+export function backupKeep(): number {
+  const keep = envNumber("BACKUP_KEEP", 14);
+  if (!Number.isInteger(keep) || keep < 1) throw new Error("BACKUP_KEEP must be a whole number of at least 1.");
+  return keep;
+}
+
+/** The nightly backup: on unless BACKUP_NIGHTLY=false, at BACKUP_HOUR_UTC (0–23, default 2). */
+export function backupSchedule(): { nightly: boolean; hourUtc: number } {
+  const hourUtc = envNumber("BACKUP_HOUR_UTC", 2);
+  if (!Number.isInteger(hourUtc) || hourUtc < 0 || hourUtc > 23) throw new Error("BACKUP_HOUR_UTC must be a whole hour from 0 to 23.");
+  return { nightly: process.env.BACKUP_NIGHTLY !== "false", hourUtc };
+}

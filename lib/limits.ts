@@ -13,3 +13,17 @@ export const JSON_BODY_LIMITS = {
   /** `POST /api/v1/readings`: 10,000 readings of about 80 bytes each, with room for whitespace. */
   readingsBatchBytes: 4 * MiB,
 } as const;
+
+/**
+ * Logger CSV uploads (`/temperatures/upload`). The file is streamed to disk under `maxUploadBytes`
+ * (413 beyond); while it is read, a row longer than `maxRowChars` characters or with more than
+ * `maxColumns` cells is refused (400 naming the line), so that no single row — a 100 MB line without
+ * a line break, an unclosed quote — is ever held in memory. Logger rows are some tens of characters.
+ */
+export const LOGGER_CSV_LIMITS = {
+  maxUploadBytes: 100 * MiB,
+  /** Characters of one row (record), line breaks inside quoted values included. */
+  maxRowChars: 32 * 1024,
+  /** Cells of one row, and columns of the header. */
+  maxColumns: 1000,
+} as const;

@@ -3,6 +3,7 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { jobs } from "@/db/schema";
 import { startDigestJob } from "@/lib/alerts/digest";
+import { startBackupJob } from "@/lib/backup/job";
 import { kickReassessments } from "@/lib/assessment/jobs";
 import { startOutboxJob } from "@/lib/mail/deliver";
 import { log } from "@/lib/log";
@@ -17,5 +18,6 @@ export function startJobs(): void {
   const timer = setInterval(kickReassessments, 30_000);
   timer.unref?.();
   kickReassessments();
-  log.info({ jobs: ["outbox", "daily-digest", "re-assessment"] }, "background jobs started");
+  const backup = startBackupJob();
+  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
 }

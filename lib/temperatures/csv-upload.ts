@@ -24,13 +24,15 @@ import { getDb } from "@/db/client";
 import { sensors, type Sensor } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
 import type { SessionUser } from "@/lib/auth/session";
-import { uploadDir } from "@/lib/config";
+import { readingLimits, uploadDir } from "@/lib/config";
 import { ConflictError, DomainError, NotFoundError, ValidationError } from "@/lib/errors";
 import { streamMultipartFile } from "@/lib/files/multipart-stream";
 import { formatCount } from "@/lib/format/numbers";
+import { LOGGER_CSV_LIMITS } from "@/lib/limits";
 import { log } from "@/lib/log";
 import {
   createRowReader,
+  CsvLimitError,
   CsvMappingError,
   CsvRecordError,
   CsvRecordReader,
@@ -49,7 +51,7 @@ import {
 import { reassessRooms, roomsOfSensors } from "@/lib/assessment/service";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
 
-export const MAX_CSV_UPLOAD_BYTES = 100 * 1024 * 1024;
+export const MAX_CSV_UPLOAD_BYTES = LOGGER_CSV_LIMITS.maxUploadBytes;
 /** An upload waits this long for its import; then it is deleted. */
 export const CSV_UPLOAD_TTL_MS = 60 * 60 * 1000;
 /** The preview and a refused import list this many problems (in file order) and count the rest. */
@@ -94,18 +96,25 @@ export type CsvScanSummary = {
   issueLineCount: number;
 };
 
+/** A row whose instant already holds a different stored temperature: the stored one is kept. */
+export type CsvConflictRow = { line: number; atMs: number; tempC: number; storedTempC: number };
+
 export type CsvPreview = CsvScanSummary & {
   rows: CsvPreviewRow[];
   /** Readings whose instant is already stored for this sensor (not stored again). */
   alreadyStored: number;
-  /** …of which the stored temperature differs from the file's. */
-  alreadyStoredDiffering: number;
+  /** …of which the stored temperature differs from the file's (conflicts: the stored one is kept). */
+  conflicts: number;
+  /** The first conflicts in file order (at most MAX_LISTED_ISSUES). */
+  conflictRows: CsvConflictRow[];
 };
 
 export type CsvImportResult = {
   accepted: number;
   duplicates: number;
   alreadyStored: number;
+  /** Readings of the file that differ from the stored ones for their instants: not stored, the stored ones kept. */
+  conflicts: number;
   repeatedInFile: number;
   rowCount: number;
   firstAtMs: number | null;
@@ -248,6 +257,7 @@ async function register(sensor: Sensor, actor: SessionUser, token: string, fileN
   }
   const head = new TextDecoder(encoding.encoding).decode(firstBytes, { stream: true });
   const layout = detectLayout(head, sizeBytes <= firstBytes.length);
+  refuseOverLimits(() => new CsvRecordReader(layout.delimiter).push(head));
   const createdAtMs = Date.now();
   const meta: UploadMeta = { sensorId: sensor.id, userId: actor.id, fileName, sizeBytes, encoding: encoding.encoding, createdAtMs };
   fs.writeFileSync(paths.meta, JSON.stringify(meta), { mode: 0o600 });
@@ -263,6 +273,16 @@ async function register(sensor: Sensor, actor: SessionUser, token: string, fileN
     remembered,
     sensor: { id: sensor.id, externalId: sensor.externalId, name: sensor.name },
   };
+}
+
+/** A row over LOGGER_CSV_LIMITS is refused whole (400 naming its line): the file cannot be read. */
+function refuseOverLimits<T>(read: () => T): T {
+  try {
+    return read();
+  } catch (error) {
+    if (error instanceof CsvLimitError) throw new ValidationError(`The file cannot be read. ${error.message}`, { file: [error.message] });
+    throw error;
+  }
 }
 
 function newToken(): string {
@@ -295,7 +315,10 @@ export async function startCsvUpload(actor: SessionUser, sensorId: number, reque
 export async function startCsvUploadFromFile(actor: SessionUser, sensorId: number, sourcePath: string): Promise<CsvUploadInfo> {
   const sensor = loadSensor(sensorId);
   const sizeBytes = fs.statSync(sourcePath).size;
-  if (sizeBytes > MAX_CSV_UPLOAD_BYTES) throw new ValidationError("The file is larger than 100 MB.", { file: ["The file is larger than 100 MB."] });
+  if (sizeBytes > MAX_CSV_UPLOAD_BYTES) {
+    const message = `The file is larger than ${MAX_CSV_UPLOAD_BYTES / 1024 / 1024} MB.`;
+    throw new ValidationError(message, { file: [message] });
+  }
   const token = newToken();
   const { csv } = filePaths(token);
   await fs.promises.copyFile(sourcePath, csv, fs.constants.COPYFILE_EXCL);
@@ -303,7 +326,12 @@ export async function startCsvUploadFromFile(actor: SessionUser, sensorId: numbe
   const firstBytes = new Uint8Array(Math.min(HEAD_BYTES, sizeBytes));
   await handle.read(firstBytes, 0, firstBytes.length, 0);
   await handle.close();
-  return register(sensor, actor, token, cleanFileName(path.basename(sourcePath)), sizeBytes, firstBytes);
+  try {
+    return await register(sensor, actor, token, cleanFileName(path.basename(sourcePath)), sizeBytes, firstBytes);
+  } catch (error) {
+    removeUpload(token);
+    throw error;
+  }
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -393,7 +421,7 @@ async function scanUpload(meta: UploadMeta, csvPath: string, mapping: CsvMapping
 
   const startReading = (headers: string[]) => {
     try {
-      reader = createRowReader(headers, mapping, deviceId);
+      reader = createRowReader(headers, mapping, deviceId, { limits: readingLimits(), nowMs: Date.now() });
     } catch (error) {
       if (error instanceof CsvMappingError) throw new ValidationError(`The file does not have the chosen columns. ${error.message}`, error.fields);
       throw error;
@@ -460,11 +488,11 @@ async function scanUpload(meta: UploadMeta, csvPath: string, mapping: CsvMapping
     const stream = fs.createReadStream(csvPath, { highWaterMark: READ_CHUNK_BYTES });
     try {
       for await (const chunk of stream) {
-        takeRecords(records.push(decoder.decode(chunk as Buffer, { stream: true })));
+        takeRecords(refuseOverLimits(() => records.push(decoder.decode(chunk as Buffer, { stream: true }))));
       }
-      takeRecords([...records.push(decoder.decode()), ...records.end()]);
+      takeRecords(refuseOverLimits(() => [...records.push(decoder.decode()), ...records.end()]));
     } catch (error) {
-      if (!(error instanceof CsvRecordError)) throw error;
+      if (!(error instanceof CsvRecordError) || error instanceof CsvLimitError) throw error;
       addIssues([fileIssue(error.line, error.message)]);
     } finally {
       stream.destroy();
@@ -497,12 +525,19 @@ export async function previewCsvUpload(actor: SessionUser, sensorId: number, tok
   const scan = await scanUpload(meta, csvPath, mapping, sensor.externalId);
   try {
     refuseEmpty(scan);
-    const stored = getDb()
-      .$client.prepare(
-        `SELECT count(*) AS n, coalesce(sum(r.temp_c <> s.temp_c), 0) AS differing FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at`,
-      )
+    const sqlite = getDb().$client;
+    const stored = sqlite
+      .prepare(`SELECT count(*) AS n, coalesce(sum(r.temp_c <> s.temp_c), 0) AS differing FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at`)
       .get(sensorId) as { n: number; differing: number };
-    return { ...summaryOf(scan), rows: scan.rows, alreadyStored: stored.n, alreadyStoredDiffering: stored.differing };
+    const conflictRows = stored.differing
+      ? (sqlite
+          .prepare(
+            `SELECT s.line, s.at AS atMs, s.temp_c AS tempC, r.temp_c AS storedTempC FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at ` +
+              `WHERE r.temp_c <> s.temp_c ORDER BY s.line LIMIT ${MAX_LISTED_ISSUES}`,
+          )
+          .all(sensorId) as CsvConflictRow[])
+      : [];
+    return { ...summaryOf(scan), rows: scan.rows, alreadyStored: stored.n, conflicts: stored.differing, conflictRows };
   } finally {
     scan.stage.drop();
   }
@@ -529,6 +564,10 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
         if (!current) throw new NotFoundError("That sensor");
         if (!current.active) throw new ConflictError(`Sensor ${current.externalId} was switched off meanwhile; nothing was imported.`);
         // WHERE true: SQLite's grammar needs it between SELECT … and ON CONFLICT.
+        // Counted before the insert: afterwards every staged instant is stored.
+        const { conflicts } = db.$client
+          .prepare(`SELECT count(*) AS conflicts FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at WHERE r.temp_c <> s.temp_c`)
+          .get(sensorId) as { conflicts: number };
         const accepted = db.$client
           .prepare(`INSERT INTO readings (sensor_id, at, temp_c) SELECT ?, at, temp_c FROM temp.${scan.stage.name} WHERE true ORDER BY at ON CONFLICT (sensor_id, at) DO NOTHING`)
           .run(sensorId).changes;
@@ -545,7 +584,8 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
           entityId: sensorId,
           summary:
             `Uploaded ${formatCount(accepted)} reading${accepted === 1 ? "" : "s"} from ${meta.fileName} ` +
-            `(${duplicates === 0 ? "no duplicates" : `${formatCount(duplicates)} duplicate${duplicates === 1 ? "" : "s"} not stored again`})`,
+            `(${duplicates === 0 ? "no duplicates" : `${formatCount(duplicates)} duplicate${duplicates === 1 ? "" : "s"} not stored again`}` +
+            `${conflicts === 0 ? "" : `, of which ${formatCount(conflicts)} differing from the stored reading, which was kept`})`,
           before: { csvMapping: current.csvMapping, timeZone: current.timeZone },
           after: {
             fileName: meta.fileName,
@@ -553,6 +593,7 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
             rowCount: scan.rowCount,
             accepted,
             duplicates,
+            conflicts,
             firstAt: scan.firstAtMs === null ? null : new Date(scan.firstAtMs).toISOString(),
             lastAt: scan.lastAtMs === null ? null : new Date(scan.lastAtMs).toISOString(),
             csvMapping: remembered,
@@ -560,7 +601,7 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
             excursions,
           },
         });
-        return { accepted, duplicates, alreadyStored, repeatedInFile: scan.repeatedInFile, rowCount: scan.rowCount, firstAtMs: scan.firstAtMs, lastAtMs: scan.lastAtMs, excursions };
+        return { accepted, duplicates, alreadyStored, conflicts, repeatedInFile: scan.repeatedInFile, rowCount: scan.rowCount, firstAtMs: scan.firstAtMs, lastAtMs: scan.lastAtMs, excursions };
       },
       { behavior: "immediate" },
     );

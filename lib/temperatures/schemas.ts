@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { listQuerySchema } from "@/lib/http/list-query";
 import { optionalId, requiredText, yesNo } from "@/lib/validation/fields";
+import { parseOffsetInstant } from "./plausible";
 
 const deviceId = () => requiredText("Device id", 100).regex(/^[\x21-\x7E]+$/, "A device id uses printable characters without spaces.");
 
@@ -87,12 +88,13 @@ const isoInstant = (name: string) =>
     .trim()
     .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:\d{2})$/, `${name} must be an ISO-8601 time with an offset, e.g. 2026-07-14T00:00:00Z.`)
     .transform((v, ctx) => {
-      const ms = Date.parse(v);
-      if (Number.isNaN(ms)) {
-        ctx.addIssue({ code: "custom", message: `${name} is not a real date and time.` });
+      // Strict: Date.parse would roll 2026-02-30 over into March.
+      const instant = parseOffsetInstant(v);
+      if (!instant.ok) {
+        ctx.addIssue({ code: "custom", message: `${name} ${instant.message}` });
         return z.NEVER;
       }
-      return ms;
+      return instant.atMs;
     })
     .optional();
 

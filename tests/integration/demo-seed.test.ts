@@ -126,19 +126,30 @@ describe("the demo ingest key and the README example", () => {
   });
 
   it("accepts the README's batch with the demo key (202), then counts it as duplicates, exactly as the README shows", async () => {
-    expect(bodies).toHaveLength(2);
-    expect(answers).toHaveLength(3);
-    expect(keys).toEqual([DEMO_INGEST_KEY, DEMO_INGEST_KEY]);
+    expect(bodies).toHaveLength(3);
+    expect(answers).toHaveLength(4);
+    expect(keys).toEqual([DEMO_INGEST_KEY, DEMO_INGEST_KEY, DEMO_INGEST_KEY]);
     const before = await getDb().$count(readings, inArray(readings.sensorId, [sensorId("S-201"), sensorId("S-205")]));
     expect(await post(bodies[0], keys[0])).toEqual({ status: 202, body: answers[0] });
-    expect(answers[0]).toEqual({ accepted: 2, duplicates: 0 });
+    expect(answers[0]).toEqual({ accepted: 2, duplicates: 0, conflicts: 0, conflictRows: [] });
     expect(await post(bodies[0], keys[0])).toEqual({ status: 202, body: answers[1] });
+    expect(answers[1]).toEqual({ accepted: 0, duplicates: 2, conflicts: 0, conflictRows: [] });
     expect(await getDb().$count(readings, inArray(readings.sensorId, [sensorId("S-201"), sensorId("S-205")]))).toBe(before + 2);
+  });
+
+  it("reports the README's conflicting reading with the stored value, keeps the stored one and stores the rest", async () => {
+    const before = await getDb().$count(readings);
+    expect(await post(bodies[1], keys[1])).toEqual({ status: 202, body: answers[2] });
+    expect(answers[2].conflictRows).toEqual([{ index: 0, sensor: "S-201", at: "2026-12-02T10:05:00+01:00", tempC: 19.9, storedTempC: 19.4 }]);
+    const stored = getDb().select().from(readings).where(and(eq(readings.sensorId, sensorId("S-201")), eq(readings.at, new Date("2026-12-02T09:05:00Z")))).get()!;
+    expect(stored.tempC).toBe(19.4);
+    expect(await getDb().$count(readings)).toBe(before + 1);
   });
 
   it("rejects the README's bad batch whole (400) with the error body the README shows", async () => {
     const before = await getDb().$count(readings);
-    expect(await post(bodies[1], keys[1])).toEqual({ status: 400, body: answers[2] });
+    expect(await post(bodies[2], keys[2])).toEqual({ status: 400, body: answers[3] });
+    expect(answers[3].error.rows.map((r: { index: number; field: string }) => `${r.index}:${r.field}`)).toEqual(["0:sensor", "1:at", "2:at", "3:tempC", "4:tempC"]);
     expect(await getDb().$count(readings)).toBe(before);
   });
 });

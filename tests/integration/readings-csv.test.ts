@@ -148,7 +148,7 @@ describe("a good logger file", () => {
   it("uploaded again stores nothing new and counts every row as a duplicate", async () => {
     const { token } = (await upload(sensorIds.fridge, berlinFile(12_345), { name: "fridge-july.csv" })).body.data;
     const preview = await step(previewRoute.POST, sensorIds.fridge, token, berlinMapping);
-    expect(preview.body.data).toMatchObject({ readingCount: 12_345, alreadyStored: 12_345, alreadyStoredDiffering: 0 });
+    expect(preview.body.data).toMatchObject({ readingCount: 12_345, alreadyStored: 12_345, conflicts: 0, conflictRows: [] });
     const imported = await step(importRoute.POST, sensorIds.fridge, token, berlinMapping);
     expect(imported.body.data).toMatchObject({ accepted: 0, duplicates: 12_345, alreadyStored: 12_345 });
     expect(await storedFor(sensorIds.fridge)).toBe(12_345);

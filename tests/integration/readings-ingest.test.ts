@@ -74,8 +74,8 @@ describe("POST /api/v1/readings", () => {
         { sensor: "LOG-FR1", at: "2026-07-14T13:45:00.000Z", tempC: 5.3 },
       ],
     };
-    expect(await ingest(batch)).toEqual({ status: 202, body: { accepted: 2, duplicates: 1 } });
-    expect(await ingest(batch)).toEqual({ status: 202, body: { accepted: 0, duplicates: 3 } });
+    expect(await ingest(batch)).toEqual({ status: 202, body: { accepted: 2, duplicates: 1, conflicts: 0, conflictRows: [] } });
+    expect(await ingest(batch)).toEqual({ status: 202, body: { accepted: 0, duplicates: 3, conflicts: 0, conflictRows: [] } });
     expect(await storedCount()).toBe(2);
     const stored = getDb().select().from(readings).where(inArray(readings.sensorId, testSensorIds)).all().map((r) => r.at.toISOString()).sort();
     expect(stored).toEqual(["2026-07-14T13:40:00.000Z", "2026-07-14T13:45:00.000Z"]); // +02:00 converted to UTC

@@ -165,6 +165,9 @@ describe("GET /api/v1/sensors/{id}/readings", () => {
     expect(backwards.body.error.fields.to[0]).toMatch(/at least a minute after/);
     const tooLong = await series(ids.dense, `?from=${iso(T0 - 6 * 366 * DAY)}&to=${iso(T0)}`);
     expect(tooLong.status).toBe(400);
+    const noSuchDay = await series(ids.dense, "?from=2026-02-30T00:00:00Z&to=2026-03-05T00:00:00Z");
+    expect(noSuchDay.status).toBe(400);
+    expect(noSuchDay.body.error.fields.from).toEqual(["from is not a real date: 2026-02 has no day 30."]);
     expect((await series(99999)).status).toBe(404);
   });
 });

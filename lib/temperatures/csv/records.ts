@@ -8,6 +8,8 @@
  * never hold the file in memory; papaparse's streaming step reports character offsets, not lines.
  * The reader keeps only the unfinished record between chunks.
  */
+import { LOGGER_CSV_LIMITS } from "@/lib/limits";
+
 export type CsvRecord = { line: number; cells: string[] };
 
 export class CsvRecordError extends Error {
@@ -19,8 +21,13 @@ export class CsvRecordError extends Error {
   }
 }
 
-/** A record longer than this is almost always a quote that is never closed. */
-export const MAX_RECORD_CHARS = 1024 * 1024;
+/**
+ * A row over one of the limits (lib/limits.ts LOGGER_CSV_LIMITS): the reader stops there, so that
+ * it never holds more than one row's worth of text.
+ */
+export class CsvLimitError extends CsvRecordError {}
+
+export type CsvRecordLimits = { maxRowChars: number; maxColumns: number };
 
 const QUOTE = 34;
 const LF = 10;
@@ -32,7 +39,10 @@ export class CsvRecordReader {
   private line = 1;
   private readonly delimiter: number;
 
-  constructor(delimiter: string) {
+  constructor(
+    delimiter: string,
+    private readonly limits: CsvRecordLimits = LOGGER_CSV_LIMITS,
+  ) {
     if (delimiter.length !== 1) throw new RangeError("The delimiter is one character.");
     this.delimiter = delimiter.charCodeAt(0);
   }
@@ -118,6 +128,7 @@ export class CsvRecordReader {
           break;
         }
         cells.push(value);
+        if (cells.length > this.limits.maxColumns) throw this.tooManyColumns(recordLine);
         const c = s.charCodeAt(i);
         if (c === delimiter) {
           i++;
@@ -137,6 +148,8 @@ export class CsvRecordReader {
         complete = true;
         break;
       }
+      if (i - recordStart > this.limits.maxRowChars) throw this.tooLong(recordLine);
+      if (cells.length > this.limits.maxColumns) throw this.tooManyColumns(recordLine);
       if (complete) records.push({ line: recordLine, cells });
     }
     this.leftover = "";
@@ -147,13 +160,23 @@ export class CsvRecordReader {
   private keep(s: string, from: number, line: number, records: CsvRecord[]): CsvRecord[] {
     this.leftover = s.slice(from);
     this.line = line;
-    if (this.leftover.length > MAX_RECORD_CHARS) {
-      throw new CsvRecordError(
-        line,
-        `Line ${line}: one row runs on for more than a million characters. A double quote that is never closed is the usual cause; close it or remove it.`,
-      );
-    }
+    if (this.leftover.length > this.limits.maxRowChars) throw this.tooLong(line);
     return records;
+  }
+
+  private tooLong(line: number): CsvLimitError {
+    return new CsvLimitError(
+      line,
+      `Line ${line}: the row runs on for more than ${this.limits.maxRowChars.toLocaleString("en-US")} characters, the most one row of a logger file may have. ` +
+        "A double quote that is never closed, or a file without line breaks, is the usual cause.",
+    );
+  }
+
+  private tooManyColumns(line: number): CsvLimitError {
+    return new CsvLimitError(
+      line,
+      `Line ${line}: the row has more than ${this.limits.maxColumns.toLocaleString("en-US")} columns, the most a logger file may have. Is the delimiter the right one?`,
+    );
   }
 }
 

@@ -12,7 +12,8 @@
 import type { TemperatureUnit } from "../units";
 import type { CsvMapping } from "./mapping";
 import { parseDateAndTime, parseTimestamp, type TimestampResult } from "./timestamps";
-import { MAX_TEMP_C, MIN_TEMP_C, readTemperature, readUnit, storedTempC, UNIT_LABELS } from "./values";
+import { DEFAULT_READING_LIMITS, formatTempLimitC, instantProblem, type ReadingLimits } from "../plausible";
+import { readTemperature, readUnit, storedTempC, UNIT_LABELS } from "./values";
 import { fixedOffsetZoneFor, formatOffset, ZonedClock } from "./zoned-time";
 
 export type CsvRowError = { line: number; column: string; value: string; message: string };
@@ -54,7 +55,18 @@ export type RowReader = {
   readonly timeColumn: string;
 };
 
-export function createRowReader(headers: readonly string[], mapping: CsvMapping, expectedDeviceId: string | null): RowReader {
+/**
+ * `plausible`: the window of instants and the range of temperatures a reading must be in (the
+ * same as the logger API's; see lib/temperatures/plausible.ts), and the server's time the window
+ * ends from.
+ */
+export function createRowReader(
+  headers: readonly string[],
+  mapping: CsvMapping,
+  expectedDeviceId: string | null,
+  plausible: { limits: ReadingLimits; nowMs: number } = { limits: DEFAULT_READING_LIMITS, nowMs: Date.now() },
+): RowReader {
+  const { limits, nowMs } = plausible;
   const fields: Record<string, string[]> = {};
   const indexOf = (field: string, name: string | undefined): number => {
     if (!name) return -1;
@@ -98,6 +110,12 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
     };
   }
 
+  function inWindow(outcome: { atMs: number } | { message: string }, text: string): { atMs: number } | { message: string } {
+    if (!("atMs" in outcome)) return outcome;
+    const problem = instantProblem(outcome.atMs, limits, nowMs);
+    return problem ? { message: `“${clip(text)}” ${problem}` } : outcome;
+  }
+
   const cellOf = (cells: readonly string[], at: number) => (at >= 0 && at < cells.length ? cells[at].trim() : "");
 
   return {
@@ -110,7 +128,7 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
       let atMs: number | null = null;
       if (timestampAt >= 0) {
         const text = cellOf(cells, timestampAt);
-        const outcome = instantOf(parseTimestamp(text, mapping.dateOrder), text);
+        const outcome = inWindow(instantOf(parseTimestamp(text, mapping.dateOrder), text), text);
         if ("atMs" in outcome) atMs = outcome.atMs;
         else errors.push({ line, column: timeColumnName, value: clip(text), message: outcome.message });
       } else {
@@ -121,7 +139,7 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
           const isTime = "column" in result && result.column === "time";
           errors.push({ line, column: isTime ? mapping.timeColumn! : mapping.dateColumn!, value: clip(isTime ? timeText : dateText), message: result.message });
         } else {
-          const outcome = instantOf(result, `${dateText} ${timeText}`);
+          const outcome = inWindow(instantOf(result, `${dateText} ${timeText}`), `${dateText} ${timeText}`);
           if ("atMs" in outcome) atMs = outcome.atMs;
           else errors.push({ line, column: mapping.dateColumn!, value: clip(`${dateText} ${timeText}`), message: outcome.message });
         }
@@ -160,13 +178,13 @@ export function createRowReader(headers: readonly string[], mapping: CsvMapping,
         });
       } else if (unit) {
         tempC = storedTempC(temperature.value, unit);
-        if (!(tempC >= MIN_TEMP_C && tempC <= MAX_TEMP_C)) {
+        if (!(tempC >= limits.minTempC && tempC <= limits.maxTempC)) {
           const asC = unit === "C" ? "" : ` (${tempC.toFixed(1)} °C)`;
           errors.push({
             line,
             column: mapping.temperatureColumn,
             value: clip(temperatureText),
-            message: `${temperatureText} ${UNIT_LABELS[unit]}${asC} is outside −200 to 200 °C: an error value of the logger, or the wrong unit?`,
+            message: `${temperatureText} ${UNIT_LABELS[unit]}${asC} is outside ${formatTempLimitC(limits.minTempC)} to ${formatTempLimitC(limits.maxTempC)} °C: an error value of the logger, or the wrong unit?`,
           });
           tempC = null;
         }

@@ -9,6 +9,8 @@
  * A time may end with its own UTC offset (Z, UTC, GMT, ±hh:mm, ±hhmm, ±hh): it is used as written and
  * the chosen time zone is ignored for that value. Without one the time is local to the chosen zone.
  */
+import { utcMs } from "./zoned-time";
+
 export type DateOrder = "ymd" | "dmy" | "mdy";
 
 export type ParsedTimestamp =
@@ -81,7 +83,7 @@ function timeFrom(m: RegExpMatchArray, at: number): TimeParts | string {
       const digits = offsetText.slice(1).replace(":", "");
       const oh = Number(digits.slice(0, 2));
       const om = digits.length > 2 ? Number(digits.slice(2, 4)) : 0;
-      if (oh > 14 || om > 59) return `the offset ${offsetText} is not a UTC offset`;
+      if (om > 59 || oh * 60 + om > 14 * 60) return `the offset ${offsetText} is not a UTC offset (they run from −14:00 to +14:00)`;
       offsetMs = sign * (oh * 60 + om) * 60_000;
     }
   }
@@ -93,7 +95,7 @@ function yearFrom(text: string): number {
 }
 
 function combine(date: DateParts, time: TimeParts): ParsedTimestamp {
-  const wallMs = Date.UTC(date.year, date.month - 1, date.day, time.hour, time.minute, time.second, time.ms);
+  const wallMs = utcMs(date.year, date.month - 1, date.day, time.hour, time.minute, time.second, time.ms);
   return time.offsetMs === null ? { kind: "local", wallMs } : { kind: "instant", atMs: wallMs - time.offsetMs };
 }
 
@@ -213,7 +215,7 @@ function fastTimestamp(s: string, order: DateOrder): ParsedTimestamp | null {
   if (!date) return null;
   const timeMs = fastTimeMs(s, 11);
   if (timeMs < 0) return null;
-  return { kind: "local", wallMs: Date.UTC(date.year, date.month - 1, date.day) + timeMs };
+  return { kind: "local", wallMs: utcMs(date.year, date.month - 1, date.day) + timeMs };
 }
 
 /** A timestamp column: date and time in one value. */
@@ -231,7 +233,7 @@ export function parseDateAndTime(dateText: string, timeText: string, order: Date
   if (dateText.length === 10) {
     const date = fastDate(dateText, 0, order);
     const timeMs = date ? fastTimeMs(timeText, 0) : -1;
-    if (date && timeMs >= 0) return { kind: "local", wallMs: Date.UTC(date.year, date.month - 1, date.day) + timeMs };
+    if (date && timeMs >= 0) return { kind: "local", wallMs: utcMs(date.year, date.month - 1, date.day) + timeMs };
   }
   if (dateText.trim() === "") return { kind: "error", column: "date", message: "The date is empty." };
   const parts = parseDateTimeParts(dateText, order, false);

@@ -3,9 +3,6 @@ import { fahrenheitToCelsius, kelvinToCelsius, type TemperatureUnit } from "../u
 
 export type DecimalSeparator = "." | ",";
 
-/** Stored readings are kept within this range: anything outside is a logger's error value or a wrong unit. */
-export const MIN_TEMP_C = -200;
-export const MAX_TEMP_C = 200;
 
 export const UNIT_LABELS: Record<TemperatureUnit, string> = { C: "°C", F: "°F", K: "K" };
 

@@ -38,6 +38,7 @@ function formatterFor(zone: string): Intl.DateTimeFormat {
     formatter = new Intl.DateTimeFormat("en-US", {
       timeZone: zone,
       hourCycle: "h23",
+      era: "short",
       year: "numeric",
       month: "numeric",
       day: "numeric",
@@ -64,9 +65,10 @@ export function isValidTimeZone(zone: string): boolean {
 /** The zone's offset from UTC at an instant, in ms (Europe/Berlin in July: +7,200,000). */
 export function zoneOffsetMs(atMs: number, zone: string): number {
   const seconds = Math.floor(atMs / SECOND_MS) * SECOND_MS;
-  let y = 0, mo = 0, d = 0, h = 0, mi = 0, s = 0;
+  let y = 0, mo = 0, d = 0, h = 0, mi = 0, s = 0, bc = false;
   for (const part of formatterFor(zone).formatToParts(seconds)) {
     switch (part.type) {
+      case "era": bc = part.value === "BC"; break;
       case "year": y = Number(part.value); break;
       case "month": mo = Number(part.value); break;
       case "day": d = Number(part.value); break;
@@ -75,7 +77,17 @@ export function zoneOffsetMs(atMs: number, zone: string): number {
       case "second": s = Number(part.value); break;
     }
   }
-  return Date.UTC(y, mo - 1, d, h, mi, s) - seconds;
+  // Year 1 BC is year 0 of the proleptic Gregorian calendar that Date counts in.
+  return utcMs(bc ? 1 - y : y, mo - 1, d, h, mi, s) - seconds;
+}
+
+/** Date.UTC, except that the years 0–99 stay as written (Date.UTC reads them as 1900–1999). */
+export function utcMs(year: number, monthIndex: number, day: number, hour = 0, minute = 0, second = 0, ms = 0): number {
+  const t = Date.UTC(year, monthIndex, day, hour, minute, second, ms);
+  if (year >= 100 || year < 0) return t;
+  const d = new Date(t);
+  d.setUTCFullYear(year);
+  return d.getTime();
 }
 
 /** Resolves wall times of one zone; keeps what it learns per day. */

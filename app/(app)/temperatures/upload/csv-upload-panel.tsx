@@ -587,12 +587,40 @@ function PreviewFacts({ preview, timeZone }: { preview: CsvPreview; timeZone: st
           From {formatUtc(preview.firstAtMs)} ({formatInZone(preview.firstAtMs, timeZone)} in {timeZone}) to {formatUtc(preview.lastAtMs)} ({formatInZone(preview.lastAtMs, timeZone)}).
         </p>
       ) : null}
-      {preview.alreadyStoredDiffering > 0 ? (
-        <p className="text-sm text-ink-700">
+      {preview.conflicts > 0 ? <ConflictList preview={preview} /> : null}
+    </div>
+  );
+}
+
+/** Rows whose instant already holds a different stored temperature: listed, and the stored value kept. */
+function ConflictList({ preview }: { preview: CsvPreview }) {
+  const listed = preview.conflictRows.length < preview.conflicts ? ` The first ${formatCount(preview.conflictRows.length)} are listed.` : "";
+  return (
+    <div className="-mx-4 overflow-x-auto">
+      <table className="tabular w-full min-w-[640px] text-sm">
+        <caption className="px-4 pb-2 text-left text-sm text-ink-700">
           <span aria-hidden="true">⚠ </span>
-          {plural(preview.alreadyStoredDiffering, "reading")} already stored for the same instant differ from the file; the stored values are kept.
-        </p>
-      ) : null}
+          {plural(preview.conflicts, "conflict")}: a reading is already stored for the row&apos;s instant with another temperature. The stored values are kept; these rows are not imported.{listed}
+        </caption>
+        <thead>
+          <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
+            <th scope="col" className="px-4 py-2 font-medium">Line</th>
+            <th scope="col" className="px-4 py-2 font-medium">Instant (UTC)</th>
+            <th scope="col" className="px-4 py-2 text-right font-medium">In the file</th>
+            <th scope="col" className="px-4 py-2 text-right font-medium">Stored (kept)</th>
+          </tr>
+        </thead>
+        <tbody>
+          {preview.conflictRows.map((row) => (
+            <tr key={row.line} className="border-b border-ink-100 last:border-0">
+              <th scope="row" className="px-4 py-1.5 text-left font-mono font-normal">{row.line}</th>
+              <td className="px-4 py-1.5 font-mono text-xs">{formatUtc(row.atMs)}</td>
+              <td className="px-4 py-1.5 text-right">{formatQuantity(row.tempC, "°C", 4)}</td>
+              <td className="px-4 py-1.5 text-right">{formatQuantity(row.storedTempC, "°C", 4)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
     </div>
   );
 }
@@ -631,14 +659,14 @@ function PreviewTable({ preview, timeZone }: { preview: CsvPreview; timeZone: st
 }
 
 function ImportDone({ result }: { result: { data: CsvImportResult; sensorId: number; fileName: string } }) {
-  const { accepted, duplicates, excursions } = result.data;
+  const { accepted, duplicates, conflicts, excursions } = result.data;
   const found = excursions.opened;
   return (
     <div role="status" className="space-y-2 rounded-md border border-ok/30 bg-ok-bg px-4 py-3 text-sm text-ok">
       <p className="font-medium">
         <span aria-hidden="true">✓ </span>
         Imported {plural(accepted, "reading")} from {result.fileName}
-        {duplicates ? ` (${plural(duplicates, "duplicate")} not stored again)` : ""}.
+        {duplicates ? ` (${plural(duplicates, "duplicate")} not stored again${conflicts ? `, ${formatCount(conflicts)} of them differing from the stored reading, which was kept` : ""})` : ""}.
         {found ? ` ${plural(found, "new excursion")} found.` : " No new excursion."}
         {excursions.closed ? ` ${plural(excursions.closed, "open excursion")} ended.` : ""}
       </p>

@@ -5,12 +5,14 @@ import { JSON_BODY_LIMITS } from "@/lib/limits";
 
 /**
  * Logger ingest: `Authorization: Bearer <key>` and `{ "readings": [{ "sensor", "at", "tempC" }] }`.
- * 202 `{ accepted, duplicates }`; a batch with any bad row is rejected whole with every row's error.
+ * 202 `{ accepted, duplicates, conflicts, conflictRows }` (a conflict: a reading that differs from the
+ * one stored for its sensor and instant, which is kept); a batch with any bad row is rejected whole
+ * with every row's error.
  */
 export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema, maxBodyBytes: JSON_BODY_LIMITS.readingsBatchBytes }, ({ input }) => {
   try {
-    const { accepted, duplicates } = ingestReadings(input.readings);
-    return NextResponse.json({ accepted, duplicates }, { status: 202 });
+    const { accepted, duplicates, conflicts, conflictRows } = ingestReadings(input.readings);
+    return NextResponse.json({ accepted, duplicates, conflicts, conflictRows }, { status: 202 });
   } catch (error) {
     if (error instanceof BatchRejectedError) {
       return NextResponse.json({ error: { code: error.code, message: error.message, rows: error.rows } }, { status: 400 });

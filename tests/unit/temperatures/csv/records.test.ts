@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { CsvRecordError, CsvRecordReader, type CsvRecord } from "@/lib/temperatures/csv/records";
+import { CsvLimitError, CsvRecordError, CsvRecordReader, type CsvRecord } from "@/lib/temperatures/csv/records";
+import { LOGGER_CSV_LIMITS } from "@/lib/limits";
 
 function readAll(text: string, delimiter = ",", chunkSizes: number[] = [text.length || 1]): CsvRecord[] {
   const reader = new CsvRecordReader(delimiter);
@@ -57,5 +58,31 @@ describe("the streaming CSV record reader", () => {
       expect((error as CsvRecordError).line).toBe(3);
       expect((error as Error).message).toMatch(/^Line 3: a value starts with a double quote that is never closed/);
     }
+  });
+
+  it("stops at a row longer than the limit, naming its line, without waiting for the row to end", () => {
+    const reader = new CsvRecordReader(",", { maxRowChars: 100, maxColumns: 10 });
+    expect(reader.push("a,b\n1,2\n")).toHaveLength(2);
+    expect(() => reader.push("x".repeat(60))).not.toThrow();
+    const error = (() => {
+      try {
+        reader.push("x".repeat(60));
+      } catch (e) {
+        return e;
+      }
+    })();
+    expect(error).toBeInstanceOf(CsvLimitError);
+    expect((error as CsvLimitError).line).toBe(3);
+    expect((error as Error).message).toBe(
+      "Line 3: the row runs on for more than 100 characters, the most one row of a logger file may have. A double quote that is never closed, or a file without line breaks, is the usual cause.",
+    );
+  });
+
+  it("refuses a complete row over the length limit and a row with too many columns", () => {
+    expect(() => new CsvRecordReader(",", { maxRowChars: 10, maxColumns: 10 }).push("12345678901\n")).toThrow(/^Line 1: the row runs on for more than 10 characters/);
+    expect(() => new CsvRecordReader(",", { maxRowChars: 1000, maxColumns: 3 }).push("a,b,c\n1,2,3,4\n")).toThrow(
+      "Line 2: the row has more than 3 columns, the most a logger file may have. Is the delimiter the right one?",
+    );
+    expect(LOGGER_CSV_LIMITS).toEqual({ maxUploadBytes: 100 * 1024 * 1024, maxRowChars: 32 * 1024, maxColumns: 1000 });
   });
 });

@@ -1,17 +1,18 @@
 import { describe, expect, it } from "vitest";
 import { csvMappingSchema, type CsvMappingInput } from "@/lib/temperatures/csv/mapping";
 import { CsvRecordReader } from "@/lib/temperatures/csv/records";
+import { DEFAULT_READING_LIMITS } from "@/lib/temperatures/plausible";
 import { createMemoryInstantIndex, createRowReader, CsvMappingError, duplicateError, type CsvReading, type CsvRowError } from "@/lib/temperatures/csv/rows";
 
 const base: CsvMappingInput = { delimiter: ",", decimalSeparator: ".", headerLine: 1, timestampColumn: "Time", temperatureColumn: "Temp", unit: "C", dateOrder: "ymd", timeZone: "UTC" };
 
 /** Reads a whole text the way the upload does: header on mapping.headerLine, then every row. */
-function readText(text: string, input: Partial<CsvMappingInput> = {}, deviceId: string | null = "LOG-7") {
+function readText(text: string, input: Partial<CsvMappingInput> = {}, deviceId: string | null = "LOG-7", nowMs = Date.parse("2026-12-05T12:00:00Z")) {
   const mapping = csvMappingSchema.parse({ ...base, ...input });
   const reader = new CsvRecordReader(mapping.delimiter);
   const records = [...reader.push(text), ...reader.end()];
   const header = records.find((r) => r.line === mapping.headerLine)!;
-  const rows = createRowReader(header.cells, mapping, deviceId);
+  const rows = createRowReader(header.cells, mapping, deviceId, { limits: DEFAULT_READING_LIMITS, nowMs });
   const index = createMemoryInstantIndex();
   const readings: CsvReading[] = [];
   const errors: CsvRowError[] = [];
@@ -134,5 +135,30 @@ describe("the mapping schema", () => {
     expect(issues({ unit: "column" })).toEqual(["unitColumn: Choose the column that holds the unit."]);
     expect(issues({ timeZone: "Europe/Atlantis" })).toEqual(["timeZone: Choose a time zone from the list (an IANA name such as Europe/Berlin)."]);
     expect(issues({ temperatureColumn: "Time" })).toEqual(["temperatureColumn: Column “Time” is already chosen for another purpose."]);
+  });
+
+  it("refuses instants outside the plausible window and days that do not exist, by line and column, as the logger API does", () => {
+    const text = [
+      "Time,Temp",
+      "9999-12-31 23:00,4.5",
+      "1970-01-01 00:00,4.5",
+      "0001-01-01T00:00Z,4.5",
+      "2026-02-30 10:00,4.5",
+      "2026-12-05 12:06,4.5",
+      "2026-12-05T12:04:00Z,4.5",
+      "2026-12-05 10:00,-273",
+      "2026-07-14 10:00:00+14:30,4.5",
+    ].join("\n");
+    const { readings, errors } = readText(text);
+    expect(readings.map((r) => r.line)).toEqual([7]);
+    expect(errors).toEqual([
+      { line: 2, column: "Time", value: "9999-12-31 23:00", message: "“9999-12-31 23:00” is 9999-12-31T23:00:00Z, more than 5 minutes after the server's time (2026-12-05T12:00:00Z): is the logger's clock or its time zone wrong?" },
+      { line: 3, column: "Time", value: "1970-01-01 00:00", message: "“1970-01-01 00:00” is 1970-01-01T00:00:00Z, before 2000-01-01T00:00:00Z, the earliest reading Headroom stores: is the logger's clock set?" },
+      { line: 4, column: "Time", value: "0001-01-01T00:00Z", message: "“0001-01-01T00:00Z” is 0001-01-01T00:00:00Z, before 2000-01-01T00:00:00Z, the earliest reading Headroom stores: is the logger's clock set?" },
+      { line: 5, column: "Time", value: "2026-02-30 10:00", message: "“2026-02-30 10:00” is not a date: 2026-02 has no day 30." },
+      { line: 6, column: "Time", value: "2026-12-05 12:06", message: "“2026-12-05 12:06” is 2026-12-05T12:06:00Z, more than 5 minutes after the server's time (2026-12-05T12:00:00Z): is the logger's clock or its time zone wrong?" },
+      { line: 8, column: "Temp", value: "-273", message: "-273 °C is outside −200 to 200 °C: an error value of the logger, or the wrong unit?" },
+      { line: 9, column: "Time", value: "2026-07-14 10:00:00+14:30", message: "“2026-07-14 10:00:00+14:30” is not a time: the offset +14:30 is not a UTC offset (they run from −14:00 to +14:00)." },
+    ]);
   });
 });
