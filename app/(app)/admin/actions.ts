@@ -6,7 +6,7 @@ import { changeRoleSchema, inviteUserSchema, setActiveSchema } from "@/lib/users
 import { changeUserRole, inviteUser, setUserActive } from "@/lib/users/service";
 
 export const inviteUserAction = formAction({ action: "users.manage", schema: inviteUserSchema }, async ({ user, input }) => {
-  const invited = inviteUser(user, input);
+  const invited = await inviteUser(user, input);
   revalidatePath("/admin");
   return `Invitation sent to ${invited.email} (${ROLE_LABELS[invited.role]}).`;
 });

@@ -1,12 +1,14 @@
 import { NextResponse } from "next/server";
 import { BatchRejectedError, ingestBodySchema, ingestReadings } from "@/lib/temperatures/ingest";
 import { keyRoute } from "@/lib/http/route";
+import { limit } from "@/lib/rate-limit";
 
 /**
  * Logger ingest: `Authorization: Bearer <key>` and `{ "readings": [{ "sensor", "at", "tempC" }] }`.
  * 202 `{ accepted, duplicates }`; a batch with any bad row is rejected whole with every row's error.
  */
-export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema }, ({ input }) => {
+export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema }, async ({ key, input }) => {
+  await limit("readingsKey", key.id);
   try {
     const { accepted, duplicates } = ingestReadings(input.readings);
     return NextResponse.json({ accepted, duplicates }, { status: 202 });
