@@ -1,6 +1,6 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
-import { and, desc, eq, gt, lt, ne, or, sql } from "drizzle-orm";
+import { and, count, desc, eq, gt, lt, ne, or, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { sessions, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
@@ -108,6 +108,18 @@ export function listSessions(userId: number, currentSessionId: number | undefine
     .orderBy(desc(sessions.lastSeenAt), desc(sessions.id))
     .all()
     .map((row) => ({ ...row, current: row.id === currentSessionId }));
+}
+
+/** How many sessions that still work each user has (the administrators' list of people). */
+export function countLiveSessionsByUser(now = Date.now()): Map<number, number> {
+  const rows = getDb()
+    .select({ userId: sessions.userId, n: count() })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(live(now))
+    .groupBy(sessions.userId)
+    .all();
+  return new Map(rows.map((r) => [r.userId, r.n]));
 }
 
 type Actor = { id: number; email: string };
