@@ -49,7 +49,7 @@ export default async function ProfilePage() {
       <Card title={`Where you are signed in (${sessions.length})`}>
         <p className="mb-4 text-sm text-ink-600">
           A session ends when you sign out, after {idleHours % 1 === 0 ? idleHours : idleHours.toFixed(1)} hours without use, {maxDays % 1 === 0 ? maxDays : maxDays.toFixed(1)} days after
-          signing in, or when your password changes. Sign out any you do not recognise, then change your password.
+          signing in, or when your password changes. End any you do not recognise, then change your password.
         </p>
         <SessionList items={sessions} />
       </Card>

@@ -10,6 +10,7 @@ import * as containerPreviewRoute from "@/app/api/v1/imports/containers/preview/
 import * as usersRoute from "@/app/api/v1/users/route";
 import { requestResetAction } from "@/app/(auth)/actions";
 import { createApiKey } from "@/lib/api-keys/service";
+import { MAX_WAITING_HASHES, verifyPassword } from "@/lib/auth/passwords";
 import { clientIpFrom } from "@/lib/http/client-ip";
 import { installPeerAddressHeader, PEER_ADDRESS_HEADER } from "@/lib/http/peer-address";
 import { requestPasswordReset } from "@/lib/users/service";
@@ -113,6 +114,24 @@ describe("sign-in limits", () => {
     }
     // Behind the trusted proxy each client address counts apart.
     expect((await signIn(user.email, TEST_PASSWORD, "192.0.2.1", "198.51.100.200")).status).toBe(200);
+  });
+});
+
+describe("password hashing", () => {
+  it("runs one hash at a time and refuses more than 64 waiting with 429, rather than stall the server", async () => {
+    const hash = bcrypt.hashSync(TEST_PASSWORD, 4);
+    const outcomes = await Promise.all(
+      Array.from({ length: MAX_WAITING_HASHES + 6 }, (_, i) =>
+        verifyPassword(i === 0 ? TEST_PASSWORD : "wrong", hash).then(
+          (matches) => (matches ? "match" : "no match"),
+          (error: { status: number; retryAfterSeconds: number }) => `${error.status} after ${error.retryAfterSeconds} s`,
+        ),
+      ),
+    );
+    expect(outcomes.filter((o) => o === "match")).toHaveLength(1);
+    expect(outcomes.filter((o) => o === "no match")).toHaveLength(MAX_WAITING_HASHES);
+    expect(outcomes.filter((o) => o === "429 after 10 s")).toHaveLength(5);
+    expect(await verifyPassword(TEST_PASSWORD, hash)).toBe(true);
   });
 });
 
