@@ -103,13 +103,51 @@ export const userTokens = sqliteTable(
 );
 export type UserToken = typeof userTokens.$inferSelect;
 
-/** Failed sign-ins per normalised e-mail address (known or not), for the lock-out. */
-export const signInThrottles = sqliteTable("sign_in_throttles", {
-  key: text("key").primaryKey(),
-  failureCount: integer("failure_count").notNull().default(0),
-  firstFailureAt: integer("first_failure_at", { mode: "timestamp_ms" }).notNull(),
-  lockedUntil: integer("locked_until", { mode: "timestamp_ms" }),
-});
+/**
+ * Signed-in sessions, one per sign-in. The cookie carries a random token; only its SHA-256 is
+ * stored, so a copy of the database does not sign anyone in. A session ends when its row is
+ * deleted (sign-out, "sign out everywhere else", an administrator), when it has been idle or
+ * lived too long (SESSION_IDLE_MINUTES, SESSION_MAX_HOURS), or when the user's session_version
+ * moves on (password change, deactivation, role change).
+ */
+export const sessions = sqliteTable(
+  "sessions",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    tokenHash: text("token_hash").notNull(),
+    userId: integer("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    /** The user's session_version at sign-in. */
+    sessionVersion: integer("session_version").notNull(),
+    createdAt: createdAt(),
+    /** Written at most about once a minute per session. */
+    lastSeenAt: integer("last_seen_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    userAgent: text("user_agent"),
+    ip: text("ip"),
+  },
+  (t) => [
+    uniqueIndex("sessions_token_hash_unique").on(t.tokenHash),
+    index("sessions_user_idx").on(t.userId),
+    index("sessions_last_seen_idx").on(t.lastSeenAt),
+  ],
+);
+export type Session = typeof sessions.$inferSelect;
+
+/**
+ * Counters of the rate limits (rate-limiter-flexible's SQLite store, in its own layout: the key
+ * with the limit's prefix, points used, expiry in epoch ms). Created here so that the library
+ * never creates tables at run time.
+ */
+export const rateLimits = sqliteTable(
+  "rate_limits",
+  {
+    key: text("key").primaryKey(),
+    points: integer("points").notNull().default(0),
+    expire: integer("expire"),
+  },
+  (t) => [index("rate_limits_expire_idx").on(t.expire)],
+);
 
 export const apiKeys = sqliteTable(
   "api_keys",

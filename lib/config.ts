@@ -110,3 +110,61 @@ export function backupSchedule(): { nightly: boolean; hourUtc: number } {
   if (!Number.isInteger(hourUtc) || hourUtc < 0 || hourUtc > 23) throw new Error("BACKUP_HOUR_UTC must be a whole hour from 0 to 23.");
   return { nightly: process.env.BACKUP_NIGHTLY !== "false", hourUtc };
 }
+
+function positiveNumber(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw.trim() === "") return fallback;
+  const value = Number(raw);
+  if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a positive number (got "${raw}").`);
+  return value;
+}
+
+/** A session not used for this long ends (a working day plus a margin). */
+export function sessionIdleMs(): number {
+  return positiveNumber("SESSION_IDLE_MINUTES", 8 * 60) * 60_000;
+}
+
+/** A session ends this long after sign-in however much it is used (a working week). */
+export function sessionMaxMs(): number {
+  return positiveNumber("SESSION_MAX_HOURS", 7 * 24) * 3_600_000;
+}
+
+/**
+ * Which proxies in front of the app may say who the client is (X-Forwarded-For):
+ * "off" (none: the socket's address counts), a number of hops, or a comma-separated list of
+ * proxy addresses.
+ */
+export type TrustProxy = { kind: "off" } | { kind: "hops"; hops: number } | { kind: "addresses"; addresses: string[] };
+
+export function trustProxy(): TrustProxy {
+  const raw = (process.env.TRUST_PROXY ?? "").trim();
+  if (!raw || /^(off|false|no|0)$/i.test(raw)) return { kind: "off" };
+  if (/^\d+$/.test(raw)) return { kind: "hops", hops: Number(raw) };
+  const addresses = raw.split(",").map((a) => a.trim()).filter(Boolean);
+  return { kind: "addresses", addresses };
+}
+
+/** A rate limit: at most `points` within `durationSeconds`. */
+export type RateLimitSetting = { points: number; durationSeconds: number };
+
+function rateLimit(name: string, points: number, durationSeconds: number): RateLimitSetting {
+  return { points: Math.floor(positiveNumber(name, points)), durationSeconds };
+}
+
+/** The rate limits; each count is configurable, the windows are fixed. */
+export function rateLimitSettings() {
+  return {
+    signInAccountIp: rateLimit("RATE_LIMIT_SIGN_IN_ACCOUNT_IP", 10, 15 * 60),
+    signInIp: rateLimit("RATE_LIMIT_SIGN_IN_IP", 50, 15 * 60),
+    resetAddress: rateLimit("RATE_LIMIT_RESET_ADDRESS", 3, 60 * 60),
+    resetIp: rateLimit("RATE_LIMIT_RESET_IP", 20, 60 * 60),
+    invitationAddress: rateLimit("RATE_LIMIT_INVITATION_ADDRESS", 3, 60 * 60),
+    invitationIp: rateLimit("RATE_LIMIT_INVITATION_IP", 50, 60 * 60),
+    readingsKey: rateLimit("RATE_LIMIT_READINGS_KEY", 120, 60),
+    whatIfUser: rateLimit("RATE_LIMIT_WHAT_IF_USER", 30, 60),
+    exportUser: rateLimit("RATE_LIMIT_EXPORT_USER", 10, 60),
+    importUser: rateLimit("RATE_LIMIT_IMPORT_USER", 20, 60),
+  } satisfies Record<string, RateLimitSetting>;
+}
+
+export type RateLimitName = keyof ReturnType<typeof rateLimitSettings>;

@@ -51,12 +51,16 @@ export class ConflictError extends DomainError {
 }
 
 export class RateLimitedError extends DomainError {
-  constructor(readonly retryAfterSeconds: number) {
-    const minutes = Math.max(1, Math.ceil(retryAfterSeconds / 60));
-    super(
-      "rate_limited",
-      `Too many failed sign-in attempts. Try again in ${minutes} minute${minutes === 1 ? "" : "s"}.`,
-      429,
-    );
+  constructor(
+    readonly retryAfterSeconds: number,
+    message = `Too many requests. Try again in ${minutesText(retryAfterSeconds)}.`,
+  ) {
+    super("rate_limited", message, 429);
   }
+}
+
+/** "1 minute", "15 minutes": a wait, rounded up to whole minutes. */
+export function minutesText(seconds: number): string {
+  const minutes = Math.max(1, Math.ceil(seconds / 60));
+  return `${minutes} minute${minutes === 1 ? "" : "s"}`;
 }

@@ -7,15 +7,6 @@ export function normaliseEmail(email: string): string {
   return email.trim().toLowerCase();
 }
 
-export async function findActiveUserForSession(userId: number, version: number) {
-  const row = getDb()
-    .select({ id: users.id, email: users.email, name: users.name, role: users.role })
-    .from(users)
-    .where(and(eq(users.id, userId), eq(users.active, true), eq(users.sessionVersion, version)))
-    .get();
-  return row ?? null;
-}
-
 export function findUserByEmail(email: string, db: DbOrTx = getDb()): User | undefined {
   return db.select().from(users).where(eq(users.email, normaliseEmail(email))).get();
 }

@@ -22,8 +22,11 @@ const readers: Row = { admin: "all", safety_officer: "all", auditor: "all" };
 export const PERMISSIONS = {
   "overview.read": everyone,
   "profile.update": everyone,
+  // One's own sessions: list them, end one, sign out everywhere else.
+  "sessions.own": everyone,
 
   "users.manage": adminOnly,
+  "users.endSessions": adminOnly,
   "apiKeys.manage": adminOnly,
   "settings.manage": adminOnly,
   "mail.view": adminOnly,

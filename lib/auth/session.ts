@@ -1,30 +1,32 @@
 import "server-only";
 import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
-import { cookieSecure, sessionSecret } from "@/lib/config";
-import { findActiveUserForSession } from "@/db/queries/users";
-import type { Role } from "@/db/schema";
+import { cookieSecure, sessionMaxMs, sessionSecret } from "@/lib/config";
+import { clientIp, currentClientIp, currentUserAgent } from "@/lib/http/client-ip";
+import { createSession, deleteSessionByToken, resolveSession, type SessionMeta, type SessionUser } from "./session-store";
+
+export type { SessionUser };
 
 export const SESSION_COOKIE = "headroom_session";
-const SESSION_TTL_SECONDS = 60 * 60 * 12;
 
-export type SessionData = { userId?: number; version?: number };
+/** The cookie holds only the session's token; the row in `sessions` says whether it still works. */
+export type SessionData = { sid?: string };
 
-/** The signed-in person as every permission check sees them. */
-export type SessionUser = { id: number; email: string; name: string; role: Role };
+function cookieTtlSeconds(): number {
+  return Math.ceil(sessionMaxMs() / 1000);
+}
 
 export function sessionOptions(): SessionOptions {
   return {
     cookieName: SESSION_COOKIE,
     password: sessionSecret(),
-    ttl: SESSION_TTL_SECONDS,
+    ttl: cookieTtlSeconds(),
     cookieOptions: { httpOnly: true, sameSite: "lax", secure: cookieSecure(), path: "/" },
   };
 }
 
-async function userFromSessionData(data: SessionData): Promise<SessionUser | null> {
-  if (!data.userId || !data.version) return null;
-  return findActiveUserForSession(data.userId, data.version);
+function userFromSessionData(data: SessionData): SessionUser | null {
+  return data.sid ? resolveSession(data.sid) : null;
 }
 
 /** For server components and server actions (reads the request's cookies). */
@@ -33,20 +35,21 @@ export async function getSessionUser(): Promise<SessionUser | null> {
   return userFromSessionData(session);
 }
 
+/** Server actions: records a new session and sets its cookie. */
 export async function startSession(user: { id: number; sessionVersion: number }): Promise<void> {
   const session = await getIronSession<SessionData>(await cookies(), sessionOptions());
-  session.userId = user.id;
-  session.version = user.sessionVersion;
+  session.sid = createSession(user, { userAgent: await currentUserAgent(), ip: await currentClientIp() });
   await session.save();
 }
 
+/** Server actions: deletes the session's row, then clears the cookie. */
 export async function endSession(): Promise<void> {
   const session = await getIronSession<SessionData>(await cookies(), sessionOptions());
+  if (session.sid) deleteSessionByToken(session.sid);
   session.destroy();
 }
 
-/** For route handlers: reads the cookie from the request itself (no request-scoped APIs). */
-export async function getRequestUser(request: Request): Promise<SessionUser | null> {
+async function requestSessionData(request: Request): Promise<SessionData | null> {
   const header = request.headers.get("cookie");
   if (!header) return null;
   const sealed = header
@@ -56,17 +59,26 @@ export async function getRequestUser(request: Request): Promise<SessionUser | nu
     ?.slice(SESSION_COOKIE.length + 1);
   if (!sealed) return null;
   try {
-    const data = await unsealData<SessionData>(decodeURIComponent(sealed), {
-      password: sessionSecret(),
-      ttl: SESSION_TTL_SECONDS,
-    });
-    return userFromSessionData(data);
+    return await unsealData<SessionData>(decodeURIComponent(sealed), { password: sessionSecret(), ttl: cookieTtlSeconds() });
   } catch {
     return null;
   }
 }
 
-/** Writes (or clears) the session cookie on a route handler's response. */
+/** For route handlers: reads the cookie from the request itself (no request-scoped APIs). */
+export async function getRequestUser(request: Request): Promise<SessionUser | null> {
+  const data = await requestSessionData(request);
+  return data ? userFromSessionData(data) : null;
+}
+
+export function requestSessionMeta(request: Request): SessionMeta {
+  return { userAgent: request.headers.get("user-agent"), ip: clientIp(request) };
+}
+
+/**
+ * Route handlers: with a user, records a new session and sets its cookie on the response;
+ * with null, deletes the request's session row (if any) and clears the cookie.
+ */
 export async function writeSessionCookie(
   request: Request,
   response: Response,
@@ -74,10 +86,10 @@ export async function writeSessionCookie(
 ): Promise<void> {
   const session = await getIronSession<SessionData>(request, response, sessionOptions());
   if (user) {
-    session.userId = user.id;
-    session.version = user.sessionVersion;
+    session.sid = createSession(user, requestSessionMeta(request));
     await session.save();
   } else {
+    if (session.sid) deleteSessionByToken(session.sid);
     session.destroy();
   }
 }

@@ -6,12 +6,14 @@ import { startDigestJob } from "@/lib/alerts/digest";
 import { startBackupJob } from "@/lib/backup/job";
 import { kickReassessments } from "@/lib/assessment/jobs";
 import { startOutboxJob } from "@/lib/mail/deliver";
+import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
 
 /** Background work of the server process, started once from instrumentation.ts. */
 export function startJobs(): void {
   startOutboxJob();
   startDigestJob();
+  startSweepJob();
   // A re-assessment that was running when the process stopped starts again from the beginning
   // (each batch is a transaction of its own, so running it twice is harmless).
   getDb().update(jobs).set({ status: "queued", progress: 0 }).where(eq(jobs.status, "running")).run();

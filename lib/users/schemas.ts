@@ -63,3 +63,9 @@ export const alertPreferencesSchema = z.object({
     .transform((v) => v === true || v === "true"),
 });
 export type AlertPreferencesInput = z.output<typeof alertPreferencesSchema>;
+
+export const endSessionSchema = z.object({ sessionId: z.coerce.number().int().positive() });
+
+export const signOutElsewhereSchema = z.object({});
+
+export const endUserSessionsSchema = z.object({ userId: z.coerce.number().int().positive() });

@@ -2,7 +2,7 @@ import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { countActiveAdmins, findUserByEmail, findUserById, normaliseEmail } from "@/db/queries/users";
-import { signInThrottles, users, type Role, type User } from "@/db/schema";
+import { sessions, users, type Role, type User } from "@/db/schema";
 import { invitationEmail } from "@/emails/invitation";
 import { passwordResetEmail } from "@/emails/password-reset";
 import { recordAudit } from "@/lib/audit/record";
@@ -12,6 +12,9 @@ import type { SessionUser } from "@/lib/auth/session";
 import { findUsableToken, issueUserToken, markTokenUsed } from "@/lib/auth/tokens";
 import { appUrl } from "@/lib/config";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
+import { currentClientIp } from "@/lib/http/client-ip";
+import { consume, limit } from "@/lib/rate-limit";
+import { log } from "@/lib/log";
 import { enqueueEmail } from "@/lib/mail/outbox";
 import { kickOutbox } from "@/lib/mail/deliver";
 import type { AlertPreferencesInput } from "./schemas";
@@ -24,8 +27,14 @@ export const PASSWORD_RESET_TTL_MS = 60 * 60 * 1000;
  * is queued in the same transaction. Inviting an address that was invited but never activated
  * sends a fresh link (the old one stops working).
  */
-export function inviteUser(actor: SessionUser, input: { email: string; name: string; role: Role }): User {
+export async function inviteUser(
+  actor: SessionUser,
+  input: { email: string; name: string; role: Role },
+  context: { clientIp?: string } = {},
+): Promise<User> {
   const email = normaliseEmail(input.email);
+  await limit("invitationIp", context.clientIp ?? (await currentClientIp()));
+  await limit("invitationAddress", email);
   const db = getDb();
   const user = db.transaction((tx) => {
     let user = findUserByEmail(email, tx);
@@ -114,7 +123,8 @@ export async function setPasswordWithToken(
       .where(eq(users.id, user.id))
       .returning()
       .get();
-    tx.delete(signInThrottles).where(eq(signInThrottles.key, user.email)).run();
+    // The new password ends every session, including any an intruder holds.
+    tx.delete(sessions).where(eq(sessions.userId, user.id)).run();
     recordAudit(tx, user, {
       action: kind === "invitation" ? "accept_invitation" : "reset_password",
       entityType: "user",
@@ -126,11 +136,30 @@ export async function setPasswordWithToken(
 }
 
 /**
- * Queues a reset link when the address belongs to an active, activated account. The caller shows
- * the same answer either way, so the form does not reveal who has an account.
+ * Queues a reset link when the address belongs to an active, activated account and neither the
+ * address nor the asking client has used up its reset limit (RATE_LIMIT_RESET_ADDRESS,
+ * RATE_LIMIT_RESET_IP; counted whether or not the account exists). The caller shows the same
+ * answer either way, so the form reveals neither who has an account nor the limit. Resolves to
+ * whether a link was queued; never rejects, so the form's answer does not depend on it.
  */
-export function requestPasswordReset(emailInput: string): void {
-  const email = normaliseEmail(emailInput);
+export async function requestPasswordReset(emailInput: string, context: { clientIp?: string } = {}): Promise<boolean> {
+  try {
+    const email = normaliseEmail(emailInput);
+    const ip = context.clientIp ?? (await currentClientIp());
+    const byIp = await consume("resetIp", ip);
+    const byAddress = await consume("resetAddress", email);
+    if (!byIp.allowed || !byAddress.allowed) {
+      log.warn({ limit: byIp.allowed ? "resetAddress" : "resetIp" }, "password reset refused by rate limit");
+      return false;
+    }
+    return queuePasswordReset(email);
+  } catch (error) {
+    log.error({ err: error }, "password reset request failed");
+    return false;
+  }
+}
+
+function queuePasswordReset(email: string): boolean {
   const db = getDb();
   const queued = db.transaction((tx) => {
     const user = findUserByEmail(email, tx);
@@ -155,6 +184,7 @@ export function requestPasswordReset(emailInput: string): void {
     return true;
   });
   if (queued) kickOutbox();
+  return queued;
 }
 
 function requireOtherUser(actor: SessionUser, userId: number, tx: Parameters<typeof findUserById>[1]): User {

@@ -43,7 +43,7 @@ async function linkTokenSentTo(to: string, pathPrefix: string): Promise<string> 
 describe("invitations", () => {
   it("creates the account, e-mails a single-use link, and activates on a new password", async () => {
     const admin = makeUser("admin");
-    const invited = inviteUser(actorOf(admin), { email: "  New.Chemist@Example.test ", name: "New Chemist", role: "researcher" });
+    const invited = await inviteUser(actorOf(admin), { email: "  New.Chemist@Example.test ", name: "New Chemist", role: "researcher" });
     expect(invited.email).toBe("new.chemist@example.test");
     expect(invited.passwordHash).toBeNull();
     const token = await linkTokenSentTo("new.chemist@example.test", "/invitation");
@@ -59,7 +59,7 @@ describe("invitations", () => {
 
   it("only stores a hash of the token", async () => {
     const admin = makeUser("admin");
-    inviteUser(actorOf(admin), { email: "hashed@example.test", name: "Hashed", role: "auditor" });
+    await inviteUser(actorOf(admin), { email: "hashed@example.test", name: "Hashed", role: "auditor" });
     const token = await linkTokenSentTo("hashed@example.test", "/invitation");
     const rows = getDb().select().from(userTokens).all();
     expect(rows.some((row) => row.tokenHash === token)).toBe(false);
@@ -67,7 +67,7 @@ describe("invitations", () => {
 
   it("refuses an expired invitation", async () => {
     const admin = makeUser("admin");
-    const invited = inviteUser(actorOf(admin), { email: "late@example.test", name: "Late", role: "facilities" });
+    const invited = await inviteUser(actorOf(admin), { email: "late@example.test", name: "Late", role: "facilities" });
     const token = await linkTokenSentTo("late@example.test", "/invitation");
     getDb().update(userTokens).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(userTokens.userId, invited.id)).run();
     expect(findInvitation(token)).toBeNull();
@@ -77,7 +77,7 @@ describe("invitations", () => {
   it("refuses to invite someone who already has an account", async () => {
     const admin = makeUser("admin");
     const existing = makeUser("researcher");
-    expect(() => inviteUser(actorOf(admin), { email: existing.email, name: "x", role: "researcher" })).toThrow(/already has an account/);
+    await expect(inviteUser(actorOf(admin), { email: existing.email, name: "x", role: "researcher" })).rejects.toThrow(/already has an account/);
   });
 });
 
@@ -85,11 +85,11 @@ describe("password reset", () => {
   it("sends a link only for a real account, resets once, and voids older sessions", async () => {
     const user = makeUser("facilities");
     const before = fake.messages.length;
-    requestPasswordReset("no-account@example.test");
+    await requestPasswordReset("no-account@example.test");
     await deliverDueMessages();
     expect(fake.messages.length).toBe(before);
 
-    requestPasswordReset(user.email);
+    await requestPasswordReset(user.email);
     const token = await linkTokenSentTo(user.email, "/reset-password");
     const updated = await setPasswordWithToken("password_reset", { token, password: "the brand new password" });
     expect(updated.sessionVersion).toBe(user.sessionVersion + 1);
@@ -100,9 +100,9 @@ describe("password reset", () => {
 
   it("a newer reset link replaces the older one", async () => {
     const user = makeUser("auditor");
-    requestPasswordReset(user.email);
+    await requestPasswordReset(user.email);
     const first = await linkTokenSentTo(user.email, "/reset-password");
-    requestPasswordReset(user.email);
+    await requestPasswordReset(user.email);
     const second = await linkTokenSentTo(user.email, "/reset-password");
     expect(second).not.toBe(first);
     await expect(setPasswordWithToken("password_reset", { token: first, password: "a long new password" })).rejects.toThrow();
@@ -136,7 +136,7 @@ describe("the outbox", () => {
   it("keeps a message queued with its error while the service is down, and delivers it on retry", async () => {
     const admin = makeUser("admin");
     await fetch(`${fake.url}/fake/outage`, { method: "POST", body: JSON.stringify({ down: true }) });
-    inviteUser(actorOf(admin), { email: "during.outage@example.test", name: "During Outage", role: "auditor" });
+    await inviteUser(actorOf(admin), { email: "during.outage@example.test", name: "During Outage", role: "auditor" });
     const failed = await deliverDueMessages();
     expect(failed).toEqual({ sent: 0, failed: 1 });
     const queued = getDb().select().from(emailMessages).all().find((m) => m.toAddresses.includes("during.outage@example.test"))!;
@@ -159,7 +159,7 @@ describe("the outbox", () => {
     const admin = makeUser("admin");
     const saved = process.env.RESEND_BASE_URL;
     process.env.RESEND_BASE_URL = "http://127.0.0.1:9";
-    inviteUser(actorOf(admin), { email: "unreachable@example.test", name: "Unreachable", role: "auditor" });
+    await inviteUser(actorOf(admin), { email: "unreachable@example.test", name: "Unreachable", role: "auditor" });
     const run = await deliverDueMessages();
     process.env.RESEND_BASE_URL = saved;
     expect(run.failed).toBeGreaterThanOrEqual(1);

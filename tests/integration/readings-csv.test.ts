@@ -19,6 +19,9 @@ import { call, makeUser, sessionCookieFor } from "./helpers/world";
 const uploadDir = fs.mkdtempSync(path.join(os.tmpdir(), "headroom-csv-uploads-"));
 process.env.UPLOAD_DIR = uploadDir;
 const csvDir = path.join(uploadDir, "csv-uploads");
+// One person uploads, previews and imports dozens of files here within a minute; the per-person
+// limit on imports is tested in security/rate-limits.test.ts.
+process.env.RATE_LIMIT_IMPORT_USER = "10000";
 
 const MIN = 60_000;
 const cookies = {} as Record<Role, string>;

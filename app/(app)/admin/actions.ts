@@ -2,11 +2,12 @@
 import { revalidatePath } from "next/cache";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { formAction } from "@/lib/auth/form-action";
-import { changeRoleSchema, inviteUserSchema, setActiveSchema } from "@/lib/users/schemas";
+import { endAllSessionsOf } from "@/lib/auth/session-store";
+import { changeRoleSchema, endUserSessionsSchema, inviteUserSchema, setActiveSchema } from "@/lib/users/schemas";
 import { changeUserRole, inviteUser, setUserActive } from "@/lib/users/service";
 
 export const inviteUserAction = formAction({ action: "users.manage", schema: inviteUserSchema }, async ({ user, input }) => {
-  const invited = inviteUser(user, input);
+  const invited = await inviteUser(user, input);
   revalidatePath("/admin");
   return `Invitation sent to ${invited.email} (${ROLE_LABELS[invited.role]}).`;
 });
@@ -21,4 +22,10 @@ export const setActiveAction = formAction({ action: "users.manage", schema: setA
   const changed = setUserActive(user, input.userId, input.active);
   revalidatePath("/admin");
   return `${changed.name} is ${changed.active ? "active again" : "deactivated"}.`;
+});
+
+export const endUserSessionsAction = formAction({ action: "users.endSessions", schema: endUserSessionsSchema }, async ({ user, input }) => {
+  const ended = endAllSessionsOf(user, input.userId);
+  revalidatePath("/admin");
+  return ended === 0 ? "No session to end." : `Ended ${ended} session${ended === 1 ? "" : "s"}; a new sign-in is needed.`;
 });

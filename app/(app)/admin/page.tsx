@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { Card, PageHeader } from "@/components/ui/card";
 import { listUsers } from "@/db/queries/users";
 import { requirePagePermission } from "@/lib/auth/page";
+import { countLiveSessionsByUser } from "@/lib/auth/session-store";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format/numbers";
 import { AdminTabs } from "./admin-tabs";
@@ -16,9 +17,14 @@ function StatusText({ active, activated }: { active: boolean; activated: boolean
   return <span className="text-ok">● Active</span>;
 }
 
+function sessionText(count: number): string {
+  return count === 0 ? "not signed in" : `signed in: ${count} session${count === 1 ? "" : "s"}`;
+}
+
 export default async function AdminPage() {
   const { user } = await requirePagePermission("users.manage");
   const people = listUsers();
+  const sessionCounts = countLiveSessionsByUser();
   const pending = people.filter((p) => p.active && !p.hasPassword).length;
   return (
     <div>
@@ -51,9 +57,12 @@ export default async function AdminPage() {
                     <td className="whitespace-nowrap px-4 py-3 text-xs font-medium">
                       <StatusText active={person.active} activated={person.hasPassword} />
                     </td>
-                    <td className="tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600">{person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}</td>
+                    <td className="tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600">
+                      {person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}
+                      <span className="block">{sessionText(sessionCounts.get(person.id) ?? 0)}</span>
+                    </td>
                     <td className="px-4 py-3">
-                      <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} />
+                      <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} sessionCount={sessionCounts.get(person.id) ?? 0} />
                     </td>
                   </tr>
                 ))}

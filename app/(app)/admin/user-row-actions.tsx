@@ -4,14 +4,29 @@ import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import type { Role } from "@/lib/auth/roles";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
-import { changeRoleAction, setActiveAction } from "./actions";
+import { changeRoleAction, endUserSessionsAction, setActiveAction } from "./actions";
 
 /** Role change and (de)activation for one user row; each answers under the row. */
-export function UserRowActions({ userId, name, role, active, isSelf }: { userId: number; name: string; role: Role; active: boolean; isSelf: boolean }) {
+export function UserRowActions({
+  userId,
+  name,
+  role,
+  active,
+  isSelf,
+  sessionCount,
+}: {
+  userId: number;
+  name: string;
+  role: Role;
+  active: boolean;
+  isSelf: boolean;
+  sessionCount: number;
+}) {
   const [roleState, changeRole, rolePending] = useActionState(changeRoleAction, undefined);
   const [activeState, toggleActive, activePending] = useActionState(setActiveAction, undefined);
+  const [sessionsState, endSessions, sessionsPending] = useActionState(endUserSessionsAction, undefined);
   if (isSelf) return <span className="text-xs text-ink-500">This is you</span>;
-  const message = [roleState, activeState].find((s) => s?.error || s?.message);
+  const message = [sessionsState, roleState, activeState].find((s) => s?.error || s?.message);
   const errorText = message?.error ? Object.values(message.error).flat().join(" ") : undefined;
   return (
     <div className="space-y-1.5">
@@ -39,6 +54,14 @@ export function UserRowActions({ userId, name, role, active, isSelf }: { userId:
             {active ? "Deactivate" : "Reactivate"}
           </Button>
         </form>
+        {sessionCount > 0 ? (
+          <form action={endSessions}>
+            <input type="hidden" name="userId" value={userId} />
+            <Button type="submit" size="sm" variant="secondary" disabled={sessionsPending} aria-label={`Sign ${name} out everywhere (${sessionCount} session${sessionCount === 1 ? "" : "s"})`}>
+              Sign out everywhere
+            </Button>
+          </form>
+        ) : null}
       </div>
       {errorText ? (
         <p role="alert" className="text-xs text-sev-critical">

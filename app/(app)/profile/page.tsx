@@ -4,13 +4,28 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can, NAV_ITEMS, ROLE_LABELS } from "@/lib/auth/permissions";
 import { findUserById } from "@/db/queries/users";
+import { listSessions } from "@/lib/auth/session-store";
+import { sessionIdleMs, sessionMaxMs } from "@/lib/config";
+import { formatDateTime } from "@/lib/format/numbers";
+import { describeUserAgent } from "@/lib/format/user-agent";
 import { AlertPreferencesForm } from "./alert-preferences-form";
+import { SessionList } from "./session-list";
 
 export const metadata: Metadata = { title: "Profile" };
 
 export default async function ProfilePage() {
   const { user } = await requirePagePermission("profile.update");
   const account = findUserById(user.id)!;
+  const sessions = listSessions(user.id, user.sessionId).map((s) => ({
+    id: s.id,
+    device: describeUserAgent(s.userAgent),
+    ip: s.ip,
+    createdAt: formatDateTime(s.createdAt),
+    lastSeenAt: formatDateTime(s.lastSeenAt),
+    current: s.current,
+  }));
+  const idleHours = sessionIdleMs() / 3_600_000;
+  const maxDays = sessionMaxMs() / 86_400_000;
   return (
     <div className="space-y-5">
       <PageHeader title="Your profile" />
@@ -30,6 +45,13 @@ export default async function ProfilePage() {
             Change your password by e-mail link
           </Link>
         </p>
+      </Card>
+      <Card title={`Where you are signed in (${sessions.length})`}>
+        <p className="mb-4 text-sm text-ink-600">
+          A session ends when you sign out, after {idleHours % 1 === 0 ? idleHours : idleHours.toFixed(1)} hours without use, {maxDays % 1 === 0 ? maxDays : maxDays.toFixed(1)} days after
+          signing in, or when your password changes. End any you do not recognise, then change your password.
+        </p>
+        <SessionList items={sessions} />
       </Card>
       <Card title="Alerts by e-mail">
         <p className="mb-4 text-sm text-ink-600">

@@ -4,6 +4,7 @@ import { sealData } from "iron-session";
 import { getDb } from "@/db/client";
 import { users, type Role, type User } from "@/db/schema";
 import { SESSION_COOKIE } from "@/lib/auth/session";
+import { createSession, type SessionMeta } from "@/lib/auth/session-store";
 
 export const TEST_PASSWORD = "correct horse battery staple";
 
@@ -24,8 +25,13 @@ export function makeUser(role: Role, overrides: Partial<typeof users.$inferInser
     .get();
 }
 
-export async function sessionCookieFor(user: Pick<User, "id" | "sessionVersion">): Promise<string> {
-  const sealed = await sealData({ userId: user.id, version: user.sessionVersion }, { password: process.env.SESSION_SECRET! });
+/** Records a session for the user, as signing in does, and returns its cookie. */
+export async function sessionCookieFor(
+  user: Pick<User, "id" | "sessionVersion">,
+  meta: SessionMeta = { userAgent: "integration-test", ip: "127.0.0.1" },
+  now = Date.now(),
+): Promise<string> {
+  const sealed = await sealData({ sid: createSession(user, meta, now) }, { password: process.env.SESSION_SECRET! });
   return `${SESSION_COOKIE}=${sealed}`;
 }
 
@@ -33,10 +39,10 @@ type Handler = (request: Request, context: { params: Promise<Record<string, stri
 
 export async function call(
   handler: Handler,
-  options: { method?: string; path?: string; body?: unknown; cookie?: string; params?: Record<string, string> } = {},
+  options: { method?: string; path?: string; body?: unknown; cookie?: string; params?: Record<string, string>; headers?: Record<string, string> } = {},
   // eslint-disable-next-line @typescript-eslint/no-explicit-any -- tests read arbitrary JSON bodies
 ): Promise<{ status: number; body: any; headers: Headers }> {
-  const headers: Record<string, string> = {};
+  const headers: Record<string, string> = { ...options.headers };
   if (options.cookie) headers.cookie = options.cookie;
   if (options.body !== undefined) headers["content-type"] = "application/json";
   const request = new Request(`http://localhost:3999${options.path ?? "/api/v1/test"}`, {

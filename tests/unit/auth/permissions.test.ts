@@ -9,7 +9,9 @@ import { ACTIONS, can, navigationFor, ROLES, scopeFor, type Action, type Role, t
 const EXPECTED: Record<Action, [string, string, string, string, string]> = {
   "overview.read": ["all", "all", "all", "all", "all"],
   "profile.update": ["all", "all", "all", "all", "all"],
+  "sessions.own": ["all", "all", "all", "all", "all"],
   "users.manage": ["all", "-", "-", "-", "-"],
+  "users.endSessions": ["all", "-", "-", "-", "-"],
   "apiKeys.manage": ["all", "-", "-", "-", "-"],
   "settings.manage": ["all", "-", "-", "-", "-"],
   "mail.view": ["all", "-", "-", "-", "-"],
@@ -59,7 +61,7 @@ describe("permission matrix", () => {
   it("the auditor can change nothing: every allowed auditor action is a read or a download", () => {
     const allowed = ACTIONS.filter((action) => can("auditor", action));
     expect(allowed.sort()).toEqual(
-      ["audit.read", "exports.download", "findings.read", "inventory.read", "locations.read", "overview.read", "profile.update", "substances.read", "temperatures.read"].sort(),
+      ["audit.read", "exports.download", "findings.read", "inventory.read", "locations.read", "overview.read", "profile.update", "sessions.own", "substances.read", "temperatures.read"].sort(),
     );
   });
 });

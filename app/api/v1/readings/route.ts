@@ -2,6 +2,7 @@ import { NextResponse } from "next/server";
 import { BatchRejectedError, ingestBodySchema, ingestReadings } from "@/lib/temperatures/ingest";
 import { keyRoute } from "@/lib/http/route";
 import { JSON_BODY_LIMITS } from "@/lib/limits";
+import { limit } from "@/lib/rate-limit";
 
 /**
  * Logger ingest: `Authorization: Bearer <key>` and `{ "readings": [{ "sensor", "at", "tempC" }] }`.
@@ -9,7 +10,8 @@ import { JSON_BODY_LIMITS } from "@/lib/limits";
  * one stored for its sensor and instant, which is kept); a batch with any bad row is rejected whole
  * with every row's error.
  */
-export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema, maxBodyBytes: JSON_BODY_LIMITS.readingsBatchBytes }, ({ input }) => {
+export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema, maxBodyBytes: JSON_BODY_LIMITS.readingsBatchBytes }, async ({ key, input }) => {
+  await limit("readingsKey", key.id);
   try {
     const { accepted, duplicates, conflicts, conflictRows } = ingestReadings(input.readings);
     return NextResponse.json({ accepted, duplicates, conflicts, conflictRows }, { status: 202 });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { listUsers } from "@/db/queries/users";
+import { clientIp } from "@/lib/http/client-ip";
 import { route } from "@/lib/http/route";
 import { inviteUserSchema } from "@/lib/users/schemas";
 import { inviteUser } from "@/lib/users/service";
@@ -18,9 +19,9 @@ export const GET = route({ action: "users.manage" }, () => {
   return NextResponse.json({ data, page: 1, pageSize: data.length, total: data.length });
 });
 
-/** Invites a person by e-mail; the invitation goes out through the outbox. */
-export const POST = route({ action: "users.manage", schema: inviteUserSchema }, ({ user, input }) => {
-  const invited = inviteUser(user, input);
+/** Invites a person by e-mail; the invitation goes out through the outbox. 429 past the invitation limits. */
+export const POST = route({ action: "users.manage", schema: inviteUserSchema }, async ({ request, user, input }) => {
+  const invited = await inviteUser(user, input, { clientIp: clientIp(request) });
   return NextResponse.json(
     { user: { id: invited.id, email: invited.email, name: invited.name, role: invited.role, active: invited.active, activated: false } },
     { status: 201 },

@@ -1,9 +1,11 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
+import { limit } from "@/lib/rate-limit";
 import { commitContainerImport, ImportRejectedError, readImportUpload } from "@/lib/imports/service";
 
 /** Imports containers from the multipart field `file`: every row is written, or none. */
 export const POST = route({ action: "containers.import" }, async ({ request, user }) => {
+  await limit("importUser", user.id);
   const { bytes, fileName } = await readImportUpload(request);
   try {
     return NextResponse.json({ data: await commitContainerImport(user, bytes, fileName) }, { status: 201 });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireId } from "@/lib/http/params";
 import { route } from "@/lib/http/route";
+import { limit } from "@/lib/rate-limit";
 import { startCsvUpload } from "@/lib/temperatures/csv-upload";
 
 /**
@@ -9,6 +10,7 @@ import { startCsvUpload } from "@/lib/temperatures/csv-upload";
  * column names, first lines) and the mapping to start from (the sensor's remembered one where it fits).
  */
 export const POST = route({ action: "readings.upload" }, async ({ request, params, user }) => {
+  await limit("importUser", user.id);
   const sensorId = requireId(params, "That sensor");
   return NextResponse.json({ data: await startCsvUpload(user, sensorId, request) }, { status: 201 });
 });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireId } from "@/lib/http/params";
 import { route } from "@/lib/http/route";
+import { limit } from "@/lib/rate-limit";
 import { csvMappingSchema } from "@/lib/temperatures/csv";
 import { CsvImportRejectedError, importCsvUpload } from "@/lib/temperatures/csv-upload";
 
@@ -10,6 +11,7 @@ import { CsvImportRejectedError, importCsvUpload } from "@/lib/temperatures/csv-
  * (nothing written). The mapping and time zone are remembered on the sensor.
  */
 export const POST = route({ action: "readings.upload", schema: csvMappingSchema }, async ({ params, user, input }) => {
+  await limit("importUser", user.id);
   const sensorId = requireId(params, "That sensor");
   try {
     return NextResponse.json({ data: await importCsvUpload(user, sensorId, params.token ?? "", input) });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireId } from "@/lib/http/params";
 import { route } from "@/lib/http/route";
+import { limit } from "@/lib/rate-limit";
 import { csvMappingSchema } from "@/lib/temperatures/csv";
 import { previewCsvUpload } from "@/lib/temperatures/csv-upload";
 
@@ -10,6 +11,7 @@ import { previewCsvUpload } from "@/lib/temperatures/csv-upload";
  * and column (the first 500 listed, all counted).
  */
 export const POST = route({ action: "readings.upload", schema: csvMappingSchema }, async ({ params, user, input }) => {
+  await limit("importUser", user.id);
   const sensorId = requireId(params, "That sensor");
   return NextResponse.json({ data: await previewCsvUpload(user, sensorId, params.token ?? "", input) });
 });
