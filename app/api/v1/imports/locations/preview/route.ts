@@ -1,9 +1,8 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
-import { previewLocationImport, readImportUpload } from "@/lib/imports/service";
+import { previewLocationImport, withImportUpload } from "@/lib/imports/service";
 
 /** Checks a location file without writing anything: every problem by line and column, and what an import would do. */
-export const POST = route({ action: "locations.import" }, async ({ request }) => {
-  const { bytes, fileName } = await readImportUpload(request);
-  return NextResponse.json({ data: await previewLocationImport(bytes, fileName) });
-});
+export const POST = route({ action: "locations.import" }, async ({ request }) =>
+  withImportUpload(request, async (file) => NextResponse.json({ data: await previewLocationImport(file) })),
+);
