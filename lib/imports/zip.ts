@@ -38,19 +38,25 @@ export function unreadableWorkbook(): ImportFileError {
   );
 }
 
-function entryTooLarge(name: string, bytes: number, limitBytes: number, atLeast: boolean): ImportFileError {
+/** A limit as people read it: "100 MB", not "100.0 MB". */
+function limitText(bytes: number): string {
+  return megabytes(bytes).replace(".0 ", " ");
+}
+
+/** `bytes` null: the part was stopped while inflating, at the limit. */
+function entryTooLarge(name: string, bytes: number | null, limitBytes: number): ImportFileError {
   return new ImportFileError(
     "entry_too_large",
-    `The workbook's part ${name} unpacks to ${atLeast ? "more than " : ""}${megabytes(bytes)}; an import workbook may hold ` +
-      `at most ${megabytes(limitBytes).replace(".0 ", " ")} in one part. Split the data into smaller files.`,
+    `The workbook's part ${name} unpacks to ${bytes === null ? `more than ${limitText(limitBytes)}` : megabytes(bytes)}; ` +
+      `an import workbook may hold at most ${limitText(limitBytes)} in one part. Split the data into smaller files.`,
   );
 }
 
 function totalTooLarge(limitBytes: number): ImportFileError {
   return new ImportFileError(
     "entry_too_large",
-    `The workbook unpacks to more than ${megabytes(limitBytes).replace(".0 ", " ")} in all; ` +
-      "split the data into smaller files.",
+    `The workbook unpacks to more than ${limitText(limitBytes)} in all; an import workbook may hold at most ` +
+      `${limitText(limitBytes)}. Split the data into smaller files.`,
   );
 }
 
@@ -104,7 +110,7 @@ export class BoundedZip {
       try {
         for await (const entry of zip.eachEntry()) {
           const name = entry.fileName;
-          if (entry.uncompressedSize > limits.entryBytes) throw entryTooLarge(name, entry.uncompressedSize, limits.entryBytes, false);
+          if (entry.uncompressedSize > limits.entryBytes) throw entryTooLarge(name, entry.uncompressedSize, limits.entryBytes);
           if (entry.uncompressedSize > limits.ratioFromBytes && entry.uncompressedSize > limits.compressionRatio * entry.compressedSize) {
             throw tooTightlyPacked(name, entry.uncompressedSize, entry.compressedSize, limits);
           }
@@ -134,7 +140,7 @@ export class BoundedZip {
    */
   async *read(entry: yauzl.Entry, maxBytes: number = this.limits.entryBytes): AsyncGenerator<Buffer> {
     const limit = Math.min(maxBytes, this.limits.entryBytes);
-    if (entry.uncompressedSize > limit) throw entryTooLarge(entry.fileName, entry.uncompressedSize, limit, false);
+    if (entry.uncompressedSize > limit) throw entryTooLarge(entry.fileName, entry.uncompressedSize, limit);
     if (entry.isEncrypted()) {
       throw new ImportFileError("unreadable_file", "The workbook is protected with a password. Save it again without one, or as CSV.");
     }
@@ -163,7 +169,7 @@ export class BoundedZip {
         unpacked += chunk.length;
         if (!inflate) packed = unpacked;
         this.inflatedTotal += chunk.length;
-        if (unpacked > limit) throw entryTooLarge(entry.fileName, limit, limit, true);
+        if (unpacked > limit) throw entryTooLarge(entry.fileName, null, limit);
         if (this.inflatedTotal > this.limits.totalBytes) throw totalTooLarge(this.limits.totalBytes);
         if (unpacked > this.limits.ratioFromBytes && unpacked > this.limits.compressionRatio * packed) {
           throw tooTightlyPacked(entry.fileName, unpacked, packed, this.limits);
