@@ -44,12 +44,23 @@ export function columnLetter(index: number): string {
   return letters;
 }
 
-/** "BC12" → 55; NaN for a reference that is not one. */
+/** "BC12" → 55; NaN for a reference that is not one. (A loop: a regex per cell showed in profiles.) */
 function columnOfRef(ref: string): number {
-  const letters = /^\$?([A-Za-z]{1,3})\$?\d*$/.exec(ref)?.[1];
-  if (!letters) return NaN;
   let n = 0;
-  for (const ch of letters.toUpperCase()) n = n * 26 + (ch.charCodeAt(0) - 64);
+  let letters = 0;
+  let i = ref.charCodeAt(0) === 36 ? 1 : 0; // "$"
+  for (; i < ref.length; i++) {
+    const code = ref.charCodeAt(i) & ~32; // upper case
+    if (code < 65 || code > 90) break;
+    n = n * 26 + (code - 64);
+    letters++;
+  }
+  if (letters === 0 || letters > 3) return NaN;
+  if (ref.charCodeAt(i) === 36) i++;
+  for (; i < ref.length; i++) {
+    const code = ref.charCodeAt(i);
+    if (code < 48 || code > 57) return NaN;
+  }
   return n;
 }
 
@@ -283,13 +294,20 @@ export async function readXlsxRows(source: ZipSource, onRow: RowSink, limits: Xl
 type SheetContext = { styles: StylesXform | null; sharedStrings: SharedString[]; date1904: boolean };
 
 async function readSheet(zip: BoundedZip, entry: yauzl.Entry, context: SheetContext, onRow: RowSink, limits: XlsxLimits): Promise<void> {
+  const dateStyles = new Map<number, boolean>();
   const isDate = (styleId: number) => {
     if (!styleId || !context.styles) return false;
-    return exceljsUtils.isDateFmt(context.styles.getStyleModel(styleId)?.numFmt);
+    let date = dateStyles.get(styleId);
+    if (date === undefined) {
+      date = exceljsUtils.isDateFmt(context.styles.getStyleModel(styleId)?.numFmt);
+      dateStyles.set(styleId, date);
+    }
+    return date;
   };
   const number = (text: string, styleId: number) => {
     const value = parseFloat(text);
-    return isDate(styleId) ? isoDate(exceljsUtils.excelToDate(value, context.date1904)) : plainDecimal(value);
+    if (isDate(styleId)) return isoDate(exceljsUtils.excelToDate(value, context.date1904));
+    return Number.isInteger(value) && Math.abs(value) < 1e15 ? String(value) : plainDecimal(value);
   };
 
   let inSheetData = false;
@@ -302,7 +320,6 @@ async function readSheet(zip: BoundedZip, entry: yauzl.Entry, context: SheetCont
   let inPhonetic = false;
 
   const valueOf = (c: CellState): string => {
-    const where = () => cellWhere(line, c.column);
     if (c.formula) {
       if (c.text === null || c.text === "") {
         throw new ImportFileError(
@@ -321,7 +338,7 @@ async function readSheet(zip: BoundedZip, entry: yauzl.Entry, context: SheetCont
       case "s": {
         const shared = context.sharedStrings[parseInt(c.text, 10)];
         if (shared === undefined) throw unreadableWorkbook();
-        if (shared === TOO_LONG) throw cellTooLong(where(), null, limits.cellChars);
+        if (shared === TOO_LONG) throw cellTooLong(cellWhere(line, c.column), null, limits.cellChars);
         return shared;
       }
       case "str":
@@ -379,11 +396,13 @@ async function readSheet(zip: BoundedZip, entry: yauzl.Entry, context: SheetCont
             if (text !== "") {
               if (cell.column > limits.columns) throw tooManyColumns(cellWhere(line, cell.column), limits.columns);
               if (text.length > limits.cellChars) throw cellTooLong(cellWhere(line, cell.column), text.length, limits.cellChars);
+              // Kept dense: empty cells before this one become "".
+              while (row.length < cell.column - 1) row.push("");
               row[cell.column - 1] = text;
             }
             cell = null;
           } else if (name === "row" && row) {
-            if (row.length > 0) onRow(Array.from(row, (v) => v ?? ""), line);
+            if (row.length > 0) onRow(row, line);
             row = null;
           }
         }
