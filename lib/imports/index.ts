@@ -8,6 +8,7 @@ export { ImportFileError, IMPORT_FILE_ERROR_CODES, type ImportFileErrorCode } fr
 export {
   parseTabularFile,
   parseTabularPath,
+  parseTabularStream,
   parseTabular,
   normalizeHeader,
   MAX_FILE_BYTES,

@@ -1,11 +1,14 @@
 /**
- * Reads a CSV or XLSX file into header names and rows of text cells, from a file on disk or from
- * bytes in memory, with every limit of `IMPORT_LIMITS` / `XLSX_LIMITS` enforced while it reads:
+ * Reads a CSV or XLSX file into header names and rows of text cells, from a file on disk, a Node
+ * stream (written to a temporary file first) or bytes in memory, with every limit of `IMPORT_LIMITS` / `XLSX_LIMITS` enforced while it reads:
  * reading stops at the first row, column, cell or unpacked byte past a limit. Line numbers are the
  * row numbers a spreadsheet program shows (the header is line 1 when it is the first row; blank
  * rows count but are not returned).
  */
+import { randomBytes } from "node:crypto";
 import fs from "node:fs";
+import path from "node:path";
+import type { Readable } from "node:stream";
 import Papa from "papaparse";
 import { IMPORT_LIMITS } from "@/lib/limits";
 import { ImportFileError } from "./errors";
@@ -58,6 +61,39 @@ export async function parseTabularFile(bytes: Uint8Array, fileName: string): Pro
 /** Reads a file on disk, streaming: what a worker thread is handed. */
 export async function parseTabularPath(filePath: string, fileName: string): Promise<ParsedTable> {
   return parseTabular({ path: filePath }, fileName);
+}
+
+/**
+ * Reads a Node stream: it is written to a temporary file in `tempDir` (an XLSX workbook is read
+ * from its end, the zip's central directory), refused at the first byte past the upload limit,
+ * read from there, and the file is deleted whatever happens.
+ */
+export async function parseTabularStream(stream: Readable, fileName: string, tempDir: string): Promise<ParsedTable> {
+  const filePath = path.join(tempDir, `${randomBytes(16).toString("hex")}.upload`);
+  try {
+    const file = await fs.promises.open(filePath, "wx", 0o600);
+    try {
+      let written = 0;
+      for await (const chunk of stream as AsyncIterable<Buffer | string>) {
+        const bytes = typeof chunk === "string" ? Buffer.from(chunk) : chunk;
+        written += bytes.length;
+        if (written > MAX_FILE_BYTES) {
+          stream.destroy();
+          throw new ImportFileError(
+            "file_too_large",
+            `The file is larger than ${Math.round(MAX_FILE_BYTES / (1024 * 1024))} MB; imports take files up to ` +
+              `${Math.round(MAX_FILE_BYTES / (1024 * 1024))} MB. Split it into smaller files.`,
+          );
+        }
+        await file.write(bytes);
+      }
+    } finally {
+      await file.close();
+    }
+    return await parseTabularPath(filePath, fileName);
+  } finally {
+    await fs.promises.rm(filePath, { force: true });
+  }
 }
 
 export async function parseTabular(source: TabularSource, fileName: string): Promise<ParsedTable> {

@@ -8,9 +8,10 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { createRequire } from "node:module";
+import { Readable } from "node:stream";
 import ExcelJS from "exceljs";
 import { afterAll, describe, expect, it } from "vitest";
-import { ImportFileError, parseTabularFile, parseTabularPath } from "@/lib/imports";
+import { ImportFileError, parseTabularFile, parseTabularPath, parseTabularStream } from "@/lib/imports";
 import { BoundedZip } from "@/lib/imports/zip";
 import { writeXlsxZipBomb, writeZip } from "../../fixtures/hostile-files";
 
@@ -128,5 +129,35 @@ describe("the exceljs 4.4 internals the workbook reader uses", () => {
     expect(utils.isDateFmt("yyyy-mm-dd")).toBe(true);
     expect(utils.isDateFmt("0.00")).toBe(false);
     expect(utils.excelToDate(46034).toISOString()).toBe("2026-01-12T00:00:00.000Z");
+  });
+});
+
+describe("reading from a stream", () => {
+  it("reads a workbook handed over as a stream and leaves no temporary file", async () => {
+    const workbook = new ExcelJS.Workbook();
+    workbook.addWorksheet("Data").addRows([["label", "amount"], ["HR-1", 2.5]]);
+    const bytes = Buffer.from(await workbook.xlsx.writeBuffer());
+    const tempDir = fs.mkdtempSync(path.join(dir, "stream-"));
+    const table = await parseTabularStream(Readable.from([bytes.subarray(0, 100), bytes.subarray(100)]), "book.xlsx", tempDir);
+    expect(table.rows).toEqual([{ line: 2, cells: { label: "HR-1", amount: "2.5" } }]);
+    expect(fs.readdirSync(tempDir)).toEqual([]);
+  });
+
+  it("refuses a stream at the first bytes past 10 MB, without reading on", async () => {
+    const tempDir = fs.mkdtempSync(path.join(dir, "stream-"));
+    let produced = 0;
+    const endless = Readable.from(
+      (function* () {
+        for (;;) {
+          produced += 65_536;
+          yield Buffer.alloc(65_536, 0x61);
+        }
+      })(),
+    );
+    const error = await refusal(() => parseTabularStream(endless, "endless.csv", tempDir));
+    expect(error.code).toBe("file_too_large");
+    expect(error.message).toBe("The file is larger than 10 MB; imports take files up to 10 MB. Split it into smaller files.");
+    expect(produced).toBeLessThan(10 * 1024 * 1024 + 4 * 65_536);
+    expect(fs.readdirSync(tempDir)).toEqual([]);
   });
 });
