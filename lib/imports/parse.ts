@@ -1,9 +1,9 @@
 /**
  * Reads a CSV or XLSX file into header names and rows of text cells, from a file on disk, a Node
- * stream (written to a temporary file first) or bytes in memory, with every limit of `IMPORT_LIMITS` / `XLSX_LIMITS` enforced while it reads:
- * reading stops at the first row, column, cell or unpacked byte past a limit. Line numbers are the
- * row numbers a spreadsheet program shows (the header is line 1 when it is the first row; blank
- * rows count but are not returned).
+ * stream (written to a temporary file first) or bytes in memory, with every limit of
+ * `IMPORT_LIMITS` / `XLSX_LIMITS` enforced while it reads: reading stops at the first row, column,
+ * cell or unpacked byte past a limit. Line numbers are the row numbers a spreadsheet program shows
+ * (the header is line 1 when it is the first row; blank rows count but are not returned).
  */
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
