@@ -274,7 +274,7 @@ async function main(): Promise<void> {
   console.log(`\nImport of a ${thousands(IMPORT_ROW_COUNT)}-row container file (${fixed(csvBytes.length / 1024 / 1024, 2)} MB CSV):`);
   for (const run of ["first import (all new)", "re-import (all unchanged)"]) {
     startMs = performance.now();
-    const counts = await commitContainerImport(actor, csvBytes, "bench-containers.csv");
+    const counts = await commitContainerImport(actor, { bytes: csvBytes, fileName: "bench-containers.csv" });
     const durationS = secondsSince(startMs);
     console.log(
       `  ${run.padEnd(26)} ${fixed(durationS, 2)} s, ${thousands(Math.round(IMPORT_ROW_COUNT / durationS))} rows/s ` +

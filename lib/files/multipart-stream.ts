@@ -1,12 +1,15 @@
 import "server-only";
 import fs from "node:fs";
 import { DomainError, ValidationError } from "@/lib/errors";
+import { MULTIPART_OVERHEAD_BYTES } from "@/lib/limits";
 
 /**
  * Streams the file part of a multipart/form-data request (RFC 7578) to disk without holding the
  * body in memory: `request.formData()` would buffer the whole upload, which for a logger export of
  * up to 100 MB is too much. Only the first part named `field` with a filename is kept; other parts
- * are read past. The file is written with mode 0600 and removed again on any error.
+ * are read past. The file is written with mode 0600 and removed again on any error. The whole body
+ * is bounded too (the file's limit and MULTIPART_OVERHEAD_BYTES), so that other parts cannot make
+ * it read on without end.
  */
 export class UploadTooLargeError extends DomainError {
   constructor(maxBytes: number, what: string) {
@@ -15,8 +18,6 @@ export class UploadTooLargeError extends DomainError {
   }
 }
 
-/** Room for the boundaries and part headers around the file itself. */
-const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
 const MAX_PART_HEADER_BYTES = 16 * 1024;
 
 export type StreamedFile = { fileName: string; sizeBytes: number; firstBytes: Uint8Array };
@@ -45,7 +46,7 @@ function partHeaders(text: string): { name: string | null; fileName: string | nu
 /**
  * Writes the part to `destPath`. Throws ValidationError (400) for a body that is not multipart or
  * has no such file part, UploadTooLargeError (413) past `maxBytes` (checked against the declared
- * Content-Length first, then while reading).
+ * Content-Length first, then while reading: the file part, and the body as a whole).
  */
 export async function streamMultipartFile(
   request: Request,
@@ -68,6 +69,8 @@ export async function streamMultipartFile(
   let firstBytes = Buffer.alloc(0);
   let handle: fs.promises.FileHandle | null = null;
   const reader = request.body.getReader();
+  const maxBodyBytes = options.maxBytes + MULTIPART_OVERHEAD_BYTES;
+  let bodyBytes = 0;
 
   const write = async (bytes: Buffer) => {
     if (!keeping || bytes.length === 0) return;
@@ -135,6 +138,7 @@ export async function streamMultipartFile(
       if (ended) throw new ValidationError("The upload ended before the file was complete; send it again.", { [options.field]: ["The upload was cut off."] });
       const { done, value } = await reader.read();
       if (done) ended = true;
+      else if ((bodyBytes += value.byteLength) > maxBodyBytes) throw new UploadTooLargeError(options.maxBytes, options.tooLargeHint);
       else buffer = buffer.length ? Buffer.concat([buffer, Buffer.from(value.buffer, value.byteOffset, value.byteLength)]) : Buffer.from(value.buffer, value.byteOffset, value.byteLength);
     }
     await reader.cancel().catch(() => undefined);

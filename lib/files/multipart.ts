@@ -2,20 +2,21 @@ import "server-only";
 import { z } from "zod";
 import { fieldErrorsFrom } from "@/lib/auth/guard";
 import { ValidationError } from "@/lib/errors";
+import { MULTIPART_OVERHEAD_BYTES, SDS_LIMITS } from "@/lib/limits";
 import { FileTooLargeError } from "./errors";
 import type { Upload } from "./storage";
-import { MAX_SDS_BYTES } from "./validate";
 
-/** Room for the multipart boundaries and part headers around the file itself. */
-const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
+const MAX_SDS_BYTES = SDS_LIMITS.fileBytes;
 
 const sdsFormSchema = z.object({
   file: z.instanceof(File, { message: "Choose a PDF file to upload." }),
 });
 
 /**
- * Reads the body, refusing it (413) as soon as it is larger than the limit allows, so an
- * oversized upload is never held in memory whole; a missing Content-Length does not help.
+ * Reads the body, refusing it (413) at once when its Content-Length is over the limit, and
+ * otherwise as soon as the bytes read pass it, so an oversized upload is never held in memory
+ * whole; a missing Content-Length does not help. What is held stays within the limit: a sheet of
+ * at most 20 MB is kept in memory to be hashed and written in one go.
  */
 async function readBodyWithin(request: Request, maxBytes: number): Promise<Uint8Array> {
   const declared = Number(request.headers.get("content-length"));

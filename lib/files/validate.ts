@@ -3,10 +3,11 @@
  * content, and a display name that is safe to show and to send back in a header.
  */
 import { ValidationError } from "@/lib/errors";
+import { SDS_LIMITS } from "@/lib/limits";
 import { FileTooLargeError } from "./errors";
 
-/** 20 MB: a scanned safety data sheet of a dozen pages fits comfortably. */
-export const MAX_SDS_BYTES = 20 * 1024 * 1024;
+/** 20 MB (`SDS_LIMITS.fileBytes`): a scanned safety data sheet of a dozen pages fits comfortably. */
+export const MAX_SDS_BYTES = SDS_LIMITS.fileBytes;
 
 export const MAX_FILE_NAME_LENGTH = 200;
 

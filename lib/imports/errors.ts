@@ -2,7 +2,11 @@ import { DomainError } from "@/lib/errors";
 
 export const IMPORT_FILE_ERROR_CODES = [
   "file_too_large",
+  "entry_too_large",
+  "zip_bomb",
   "too_many_rows",
+  "too_many_columns",
+  "cell_too_long",
   "unsupported_format",
   "not_utf8",
   "unreadable_file",
@@ -14,6 +18,9 @@ export const IMPORT_FILE_ERROR_CODES = [
   "missing_columns",
 ] as const;
 export type ImportFileErrorCode = (typeof IMPORT_FILE_ERROR_CODES)[number];
+
+/** Over a size limit (the upload, or what a workbook unpacks to): 413. Every other file problem: 400. */
+const TOO_LARGE: readonly ImportFileErrorCode[] = ["file_too_large", "entry_too_large"];
 
 /**
  * A problem with the file as a whole, found before any row is read: the file cannot be imported at
@@ -28,6 +35,6 @@ export class ImportFileError extends DomainError {
     /** Column names the message is about (missing or duplicated), for the page to list. */
     readonly columns: readonly string[] = [],
   ) {
-    super(code, message, code === "file_too_large" ? 413 : 400);
+    super(code, message, TOO_LARGE.includes(code) ? 413 : 400);
   }
 }

@@ -1,16 +1,28 @@
 /**
- * Reads a CSV or XLSX file into header names and rows of text cells. No I/O: the caller hands over
- * the bytes. Line numbers are the row numbers a spreadsheet program shows (the header is line 1 when
- * it is the first row; blank rows count but are not returned).
+ * Reads a CSV or XLSX file into header names and rows of text cells, from a file on disk, a Node
+ * stream (written to a temporary file first) or bytes in memory, with every limit of
+ * `IMPORT_LIMITS` / `XLSX_LIMITS` enforced while it reads: reading stops at the first row, column,
+ * cell or unpacked byte past a limit. Line numbers are the row numbers a spreadsheet program shows
+ * (the header is line 1 when it is the first row; blank rows count but are not returned).
  */
-import ExcelJS from "exceljs";
+import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
+import type { Readable } from "node:stream";
 import Papa from "papaparse";
+import { IMPORT_LIMITS } from "@/lib/limits";
 import { ImportFileError } from "./errors";
+import { cellTooLong, columnLetter, readXlsxRows, tooManyColumns, type RowSink } from "./xlsx";
 
-export const MAX_FILE_BYTES = 10 * 1024 * 1024;
-export const MAX_DATA_ROWS = 100_000;
+export { columnLetter, plainDecimal } from "./xlsx";
+
+export const MAX_FILE_BYTES = IMPORT_LIMITS.fileBytes;
+export const MAX_DATA_ROWS = IMPORT_LIMITS.dataRows;
 
 export type TabularFormat = "csv" | "xlsx";
+
+/** Where a file to read is: on disk (an upload streamed to a temporary file), or in memory. */
+export type TabularSource = { path: string } | { bytes: Uint8Array };
 
 export type ParsedRow = {
   /** Row number as a spreadsheet program shows it. */
@@ -35,29 +47,75 @@ export function normalizeHeader(header: string): string {
     .replace(/[\s-]+/g, "_");
 }
 
-/** Spreadsheet column letters for a 0-based index: 0 → A, 26 → AA. */
-export function columnLetter(index: number): string {
-  let n = index + 1;
-  let letters = "";
-  while (n > 0) {
-    const rem = (n - 1) % 26;
-    letters = String.fromCharCode(65 + rem) + letters;
-    n = Math.floor((n - 1) / 26);
-  }
-  return letters;
+function fileTooLarge(sizeBytes: number): ImportFileError {
+  const mb = (sizeBytes / (1024 * 1024)).toFixed(1);
+  const limitMb = Math.round(MAX_FILE_BYTES / (1024 * 1024));
+  return new ImportFileError("file_too_large", `The file is ${mb} MB; imports take files up to ${limitMb} MB. Split it into smaller files.`);
 }
 
+/** Reads a file held in memory. */
 export async function parseTabularFile(bytes: Uint8Array, fileName: string): Promise<ParsedTable> {
-  if (bytes.byteLength > MAX_FILE_BYTES) {
-    const mb = (bytes.byteLength / (1024 * 1024)).toFixed(1);
-    throw new ImportFileError(
-      "file_too_large",
-      `The file is ${mb} MB; imports take files up to 10 MB. Split it into smaller files.`,
-    );
+  return parseTabular({ bytes }, fileName);
+}
+
+/** Reads a file on disk, streaming: what a worker thread is handed. */
+export async function parseTabularPath(filePath: string, fileName: string): Promise<ParsedTable> {
+  return parseTabular({ path: filePath }, fileName);
+}
+
+/**
+ * Reads a Node stream: it is written to a temporary file in `tempDir` (an XLSX workbook is read
+ * from its end, the zip's central directory), refused at the first byte past the upload limit,
+ * read from there, and the file is deleted whatever happens.
+ */
+export async function parseTabularStream(stream: Readable, fileName: string, tempDir: string): Promise<ParsedTable> {
+  const filePath = path.join(tempDir, `${randomBytes(16).toString("hex")}.upload`);
+  try {
+    const file = await fs.promises.open(filePath, "wx", 0o600);
+    try {
+      let written = 0;
+      for await (const chunk of stream as AsyncIterable<Buffer | string>) {
+        const bytes = typeof chunk === "string" ? Buffer.from(chunk) : chunk;
+        written += bytes.length;
+        if (written > MAX_FILE_BYTES) {
+          stream.destroy();
+          throw new ImportFileError(
+            "file_too_large",
+            `The file is larger than ${Math.round(MAX_FILE_BYTES / (1024 * 1024))} MB; imports take files up to ` +
+              `${Math.round(MAX_FILE_BYTES / (1024 * 1024))} MB. Split it into smaller files.`,
+          );
+        }
+        await file.write(bytes);
+      }
+    } finally {
+      await file.close();
+    }
+    return await parseTabularPath(filePath, fileName);
+  } finally {
+    await fs.promises.rm(filePath, { force: true });
   }
-  const format = detectFormat(bytes, fileName);
-  const grid = format === "xlsx" ? await readXlsxGrid(bytes) : readCsvGrid(bytes);
-  return buildTable(format, grid);
+}
+
+export async function parseTabular(source: TabularSource, fileName: string): Promise<ParsedTable> {
+  const sizeBytes = "path" in source ? (await fs.promises.stat(source.path)).size : source.bytes.byteLength;
+  if (sizeBytes > MAX_FILE_BYTES) throw fileTooLarge(sizeBytes);
+  const format = detectFormat(await headOf(source, 8192), fileName);
+  const table = new TableBuilder(format);
+  if (format === "xlsx") await readXlsxRows(source, table.add);
+  else await readCsvRows(source, table.add);
+  return table.finish();
+}
+
+async function headOf(source: TabularSource, length: number): Promise<Uint8Array> {
+  if ("bytes" in source) return source.bytes.subarray(0, length);
+  const handle = await fs.promises.open(source.path, "r");
+  try {
+    const buffer = new Uint8Array(length);
+    const { bytesRead } = await handle.read(buffer, 0, length, 0);
+    return buffer.subarray(0, bytesRead);
+  } finally {
+    await handle.close();
+  }
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -105,14 +163,28 @@ function detectFormat(bytes: Uint8Array, fileName: string): TabularFormat {
 // CSV
 // ---------------------------------------------------------------------------------------------
 
-/** Rows of raw cells, index 0 = line 1. */
-type Grid = { cells: string[]; line: number }[];
-
-function decodeUtf8(bytes: Uint8Array): string {
+/**
+ * The text of a CSV file, decoded as UTF-8 while it is read (a byte that is not UTF-8 refuses the
+ * file). The whole text is kept: it is bounded by the upload limit (10 MB), and papaparse reads a
+ * string in one pass. Fed a stream instead, papaparse re-reads the unfinished record with every
+ * chunk, which an unclosed quote turns into seconds of work (measured: 7 s for 10 MB), and it
+ * took 10 s for 3 million short lines where a string takes well under one.
+ */
+async function readUtf8(source: TabularSource): Promise<string> {
+  // The decoder drops a leading byte-order mark.
+  const decoder = new TextDecoder("utf-8", { fatal: true });
   try {
-    // The decoder drops a leading byte-order mark.
-    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
-  } catch {
+    if ("bytes" in source) return decoder.decode(source.bytes);
+    let text = "";
+    let read = 0;
+    for await (const chunk of fs.createReadStream(source.path, { highWaterMark: 1024 * 1024 }) as AsyncIterable<Buffer>) {
+      read += chunk.length;
+      if (read > MAX_FILE_BYTES) throw fileTooLarge(read);
+      text += decoder.decode(chunk, { stream: true });
+    }
+    return text + decoder.decode();
+  } catch (error) {
+    if (error instanceof ImportFileError) throw error;
     throw new ImportFileError(
       "not_utf8",
       "The file is not UTF-8 text, so accented letters and symbols would come out wrong. " +
@@ -123,136 +195,71 @@ function decodeUtf8(bytes: Uint8Array): string {
 
 /** The header names hold no delimiters, so the first non-blank line tells which one the file uses. */
 function detectDelimiter(text: string): string {
-  const firstLine = text.split(/\r\n|\n|\r/).find((l) => l.trim() !== "") ?? "";
+  const firstLine = firstNonBlankLine(text);
   const unquoted = firstLine.replace(/"[^"]*"/g, "");
   const counts = [",", ";", "\t"].map((d) => ({ d, n: unquoted.split(d).length - 1 }));
   counts.sort((a, b) => b.n - a.n);
   return counts[0].n > 0 ? counts[0].d : ",";
 }
 
+/** Walks the lines only as far as needed: the text may hold millions of them. */
+function firstNonBlankLine(text: string): string {
+  const lineBreak = /\r\n|\n|\r/g;
+  let from = 0;
+  while (from <= text.length) {
+    const match = lineBreak.exec(text);
+    const end = match ? match.index : text.length;
+    const line = text.slice(from, end);
+    if (line.trim() !== "") return line;
+    if (!match) break;
+    from = lineBreak.lastIndex;
+  }
+  return "";
+}
+
 /** A first line "sep=;" names the delimiter; spreadsheet programs hide it, so it takes no line number. */
 const SEPARATOR_LINE = /^sep=(.)\r?\n/i;
 
-function readCsvGrid(bytes: Uint8Array): Grid {
-  let text = decodeUtf8(bytes);
+async function readCsvRows(source: TabularSource, onRow: RowSink): Promise<void> {
+  let text = await readUtf8(source);
   let delimiter: string;
   const separatorLine = text.match(SEPARATOR_LINE);
   if (separatorLine) {
     delimiter = separatorLine[1];
     text = text.slice(separatorLine[0].length);
   } else delimiter = detectDelimiter(text);
-  const result = Papa.parse<string[]>(text, { delimiter, header: false, skipEmptyLines: false });
-  const quoteError = result.errors.find((e) => e.type === "Quotes");
-  if (quoteError) {
-    const line = (quoteError.row ?? 0) + 1;
-    throw new ImportFileError(
-      "malformed_csv",
-      `Line ${line}: a value starts with a double quote that is never closed, so the rest of the file ` +
-        `would be read as one value. Close the quote, or remove it.`,
-    );
-  }
+  let failure: unknown = null;
   // Each parsed record is one spreadsheet row, even when a quoted value spans several text lines.
-  return result.data.map((cells, i) => ({ cells, line: i + 1 }));
-}
-
-// ---------------------------------------------------------------------------------------------
-// XLSX
-// ---------------------------------------------------------------------------------------------
-
-async function readXlsxGrid(bytes: Uint8Array): Promise<Grid> {
-  const workbook = new ExcelJS.Workbook();
-  try {
-    // exceljs declares its own Buffer type; a Node Buffer is what it reads.
-    await workbook.xlsx.load(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as unknown as ExcelJS.Buffer);
-  } catch {
-    throw new ImportFileError(
-      "unreadable_file",
-      "The file looks like a ZIP archive but is not a readable Excel workbook. Save it again as .xlsx or as CSV.",
-    );
-  }
-  const sheet = workbook.worksheets[0];
-  if (!sheet) {
-    throw new ImportFileError("unreadable_file", "The workbook has no worksheets.");
-  }
-  const grid: Grid = [];
-  let dataRows = 0;
-  sheet.eachRow({ includeEmpty: false }, (row) => {
-    const cells: string[] = [];
-    const count = row.cellCount;
-    for (let c = 1; c <= count; c++) {
-      const cell = row.getCell(c);
-      if (isUncalculatedFormula(cell.value)) {
-        throw new ImportFileError(
-          "uncalculated_formulas",
-          `Cell ${cell.address} holds a formula whose result was never saved. Open the file in a spreadsheet ` +
-            "program, let it calculate, and save it again (or paste the values in place of the formulas).",
-        );
+  let line = 0;
+  Papa.parse<string[]>(text, {
+    delimiter,
+    header: false,
+    skipEmptyLines: false,
+    step: (result, parser) => {
+      if (failure) return;
+      line++;
+      try {
+        if (result.errors.some((e) => e.type === "Quotes")) {
+          throw new ImportFileError(
+            "malformed_csv",
+            `Line ${line}: a value starts with a double quote that is never closed, so the rest of the file ` +
+              `would be read as one value. Close the quote, or remove it.`,
+          );
+        }
+        const cells = result.data;
+        for (let i = 0; i < cells.length; i++) {
+          const value = cells[i];
+          if (value.length > IMPORT_LIMITS.cellChars) throw cellTooLong(`Line ${line}, column ${columnLetter(i)}`, value.length, IMPORT_LIMITS.cellChars);
+          if (i >= IMPORT_LIMITS.columns && value.trim() !== "") throw tooManyColumns(`Line ${line}, column ${columnLetter(i)}`, IMPORT_LIMITS.columns);
+        }
+        onRow(cells, line);
+      } catch (error) {
+        failure = error;
+        parser.abort();
       }
-      cells.push(cellText(cell.value));
-    }
-    if (grid.length > 0 && cells.some((v) => v.trim() !== "")) dataRows++;
-    if (dataRows > MAX_DATA_ROWS) throw tooManyRows();
-    grid.push({ cells, line: row.number });
+    },
   });
-  return grid;
-}
-
-function isUncalculatedFormula(value: ExcelJS.CellValue): boolean {
-  return (
-    typeof value === "object" &&
-    value !== null &&
-    ("formula" in value || "sharedFormula" in value) &&
-    (value as { result?: unknown }).result === undefined
-  );
-}
-
-function cellText(value: ExcelJS.CellValue): string {
-  if (value === null || value === undefined) return "";
-  if (typeof value === "number") return plainDecimal(value);
-  if (typeof value === "string") return value;
-  if (typeof value === "boolean") return value ? "true" : "false";
-  if (value instanceof Date) return isoDate(value);
-  if (typeof value === "object") {
-    if ("richText" in value) return value.richText.map((r) => r.text).join("");
-    if ("formula" in value || "sharedFormula" in value) {
-      return cellText((value as { result?: ExcelJS.CellValue }).result ?? null);
-    }
-    if ("hyperlink" in value) {
-      const text = (value as ExcelJS.CellHyperlinkValue).text as unknown;
-      return typeof text === "string" ? text : cellText(text as ExcelJS.CellValue);
-    }
-    if ("error" in value) return String(value.error);
-  }
-  return String(value);
-}
-
-/** Dates in a workbook are calendar values; exceljs hands them over as UTC instants. */
-function isoDate(date: Date): string {
-  if (Number.isNaN(date.getTime())) return "";
-  const iso = date.toISOString();
-  return iso.endsWith("T00:00:00.000Z") ? iso.slice(0, 10) : iso.slice(0, 19);
-}
-
-/**
- * A number as a person would type it: 15 significant digits at most (what a spreadsheet keeps, so
- * 0.1 + 0.2 reads 0.3) and never in exponent notation.
- */
-export function plainDecimal(value: number): string {
-  if (!Number.isFinite(value)) return String(value);
-  const rounded = Number(value.toPrecision(15));
-  const text = String(rounded);
-  if (!/e/i.test(text)) return text;
-  const [mantissa, exponentText] = text.toLowerCase().split("e");
-  const exponent = Number(exponentText);
-  const negative = mantissa.startsWith("-");
-  const digits = mantissa.replace(/^-/, "").replace(".", "");
-  const pointAt = mantissa.replace(/^-/, "").indexOf(".");
-  const intLength = (pointAt === -1 ? digits.length : pointAt) + exponent;
-  let out: string;
-  if (intLength <= 0) out = "0." + "0".repeat(-intLength) + digits;
-  else if (intLength >= digits.length) out = digits + "0".repeat(intLength - digits.length);
-  else out = digits.slice(0, intLength) + "." + digits.slice(intLength);
-  return (negative ? "-" : "") + out;
+  if (failure) throw failure;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -270,38 +277,52 @@ function isBlank(cells: string[]): boolean {
   return cells.every((c) => c.trim() === "");
 }
 
-function buildTable(format: TabularFormat, grid: Grid): ParsedTable {
-  const headerIndex = grid.findIndex((r) => !isBlank(r.cells));
-  if (headerIndex === -1) {
-    throw new ImportFileError("no_header_row", "The file is empty: the first row should hold the column names.");
-  }
-  const headerRow = grid[headerIndex];
-  const rawHeaders = headerRow.cells.map(normalizeHeader);
-  // Trailing blank header cells (formatting left over in a spreadsheet) are dropped.
-  let width = rawHeaders.length;
-  while (width > 0 && rawHeaders[width - 1] === "") width--;
-  const headers = rawHeaders.slice(0, width);
+/**
+ * Takes the rows as they are read: the first non-blank one is the header, checked at once; each
+ * later one becomes a data row, and the first data row past the limit stops the reading.
+ */
+class TableBuilder {
+  private headers: string[] | null = null;
+  private width = 0;
+  private readonly rows: ParsedRow[] = [];
 
-  const positions = new Map<string, number[]>();
-  headers.forEach((h, i) => {
-    if (h !== "") positions.set(h, [...(positions.get(h) ?? []), i]);
-  });
-  const duplicates = [...positions].filter(([, at]) => at.length > 1);
-  if (duplicates.length > 0) {
-    const list = duplicates
-      .map(([h, at]) => `${h} (columns ${at.map(columnLetter).join(" and ")})`)
-      .join(", ");
-    throw new ImportFileError(
-      "duplicate_headers",
-      `Each column name may appear once; these appear more than once: ${list}.`,
-      duplicates.map(([h]) => h),
-    );
+  constructor(private readonly format: TabularFormat) {}
+
+  readonly add = (raw: string[], line: number): void => {
+    if (isBlank(raw)) return;
+    if (this.headers === null) this.setHeader(raw);
+    else this.addRow(raw, line);
+  };
+
+  private setHeader(cells: string[]): void {
+    const rawHeaders = cells.map(normalizeHeader);
+    // Trailing blank header cells (formatting left over in a spreadsheet) are dropped.
+    let width = rawHeaders.length;
+    while (width > 0 && rawHeaders[width - 1] === "") width--;
+    const headers = rawHeaders.slice(0, width);
+
+    const positions = new Map<string, number[]>();
+    headers.forEach((h, i) => {
+      if (h !== "") positions.set(h, [...(positions.get(h) ?? []), i]);
+    });
+    const duplicates = [...positions].filter(([, at]) => at.length > 1);
+    if (duplicates.length > 0) {
+      const list = duplicates
+        .map(([h, at]) => `${h} (columns ${at.map(columnLetter).join(" and ")})`)
+        .join(", ");
+      throw new ImportFileError(
+        "duplicate_headers",
+        `Each column name may appear once; these appear more than once: ${list}.`,
+        duplicates.map(([h]) => h),
+      );
+    }
+    this.headers = headers;
+    this.width = width;
   }
 
-  const rows: ParsedRow[] = [];
-  for (const { cells: raw, line } of grid.slice(headerIndex + 1)) {
-    if (isBlank(raw)) continue;
-    if (rows.length >= MAX_DATA_ROWS) throw tooManyRows();
+  private addRow(raw: string[], line: number): void {
+    const headers = this.headers!;
+    if (this.rows.length >= MAX_DATA_ROWS) throw tooManyRows();
     const cells: Record<string, string> = {};
     headers.forEach((h, i) => {
       const value = (raw[i] ?? "").trim();
@@ -317,10 +338,16 @@ function buildTable(format: TabularFormat, grid: Grid): ParsedTable {
       }
       cells[h] = value;
     });
-    const extra = raw.slice(width).map((v) => v.trim());
+    const extra = raw.slice(this.width).map((v) => v.trim());
     const row: ParsedRow = { line, cells };
     if (extra.some((v) => v !== "")) row.extraCells = extra;
-    rows.push(row);
+    this.rows.push(row);
   }
-  return { format, headers: headers.filter((h) => h !== ""), rows };
+
+  finish(): ParsedTable {
+    if (this.headers === null) {
+      throw new ImportFileError("no_header_row", "The file is empty: the first row should hold the column names.");
+    }
+    return { format: this.format, headers: this.headers.filter((h) => h !== ""), rows: this.rows };
+  }
 }

@@ -6,6 +6,9 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { FormMessage } from "@/components/ui/form-message";
 import { formatCount } from "@/lib/format/numbers";
+import { IMPORT_LIMITS } from "@/lib/limits";
+
+const LIMIT_MB = Math.round(IMPORT_LIMITS.fileBytes / (1024 * 1024));
 
 type Issue = { line: number; column: string; value: string; message: string };
 type LocationCounts = { sites: number; rooms: number; units: number };
@@ -66,6 +69,11 @@ export function ImportPanel({
       setFileError("Choose a CSV or XLSX file first.");
       return;
     }
+    // The server refuses it too; checked here so that a large file is not sent for nothing.
+    if (file.size > IMPORT_LIMITS.fileBytes) {
+      setFileError(`The file is larger than ${LIMIT_MB} MB; imports take files up to ${LIMIT_MB} MB. Split it into smaller files.`);
+      return;
+    }
     setFileError(undefined);
     setStep({ kind: "checking" });
     try {
@@ -110,7 +118,7 @@ export function ImportPanel({
         <form onSubmit={check} className="space-y-3" noValidate>
           <div className="space-y-1.5">
             <label htmlFor={inputId} className="block text-sm font-medium text-ink-800">
-              Spreadsheet (CSV or XLSX, up to 10 MB)
+              Spreadsheet (CSV or XLSX, up to {LIMIT_MB} MB)
             </label>
             <input
               id={inputId}

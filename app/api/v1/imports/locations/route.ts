@@ -1,18 +1,19 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
 import { limit } from "@/lib/rate-limit";
-import { commitLocationImport, ImportRejectedError, readImportUpload } from "@/lib/imports/service";
+import { commitLocationImport, ImportRejectedError, withImportUpload } from "@/lib/imports/service";
 
 /** Imports sites, rooms and storage units from the multipart field `file`: every row is written, or none. */
 export const POST = route({ action: "locations.import" }, async ({ request, user }) => {
   await limit("importUser", user.id);
-  const { bytes, fileName } = await readImportUpload(request);
-  try {
-    return NextResponse.json({ data: await commitLocationImport(user, bytes, fileName) }, { status: 201 });
-  } catch (error) {
-    if (error instanceof ImportRejectedError) {
-      return NextResponse.json({ error: { code: error.code, message: error.message, issues: error.issues } }, { status: 400 });
+  return withImportUpload(request, async (file) => {
+    try {
+      return NextResponse.json({ data: await commitLocationImport(user, file) }, { status: 201 });
+    } catch (error) {
+      if (error instanceof ImportRejectedError) {
+        return NextResponse.json({ error: { code: error.code, message: error.message, issues: error.issues } }, { status: 400 });
+      }
+      throw error;
     }
-    throw error;
-  }
+  });
 });
