@@ -1,14 +1,19 @@
 import { NextResponse } from "next/server";
 import { BatchRejectedError, ingestBodySchema, ingestReadings } from "@/lib/temperatures/ingest";
 import { keyRoute } from "@/lib/http/route";
+import { runTask } from "@/lib/workers/pool";
+
+/** Batches above this size are checked and stored in a worker thread; smaller ones here, without the hand-over. */
+const WORKER_BATCH_THRESHOLD = 1_000;
 
 /**
  * Logger ingest: `Authorization: Bearer <key>` and `{ "readings": [{ "sensor", "at", "tempC" }] }`.
  * 202 `{ accepted, duplicates }`; a batch with any bad row is rejected whole with every row's error.
  */
-export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema }, ({ input }) => {
+export const POST = keyRoute({ scope: "readings:write", schema: ingestBodySchema }, async ({ input }) => {
   try {
-    const { accepted, duplicates } = ingestReadings(input.readings);
+    const { accepted, duplicates } =
+      input.readings.length > WORKER_BATCH_THRESHOLD ? await runTask("readings.ingest", { readings: input.readings }) : ingestReadings(input.readings);
     return NextResponse.json({ accepted, duplicates }, { status: 202 });
   } catch (error) {
     if (error instanceof BatchRejectedError) {

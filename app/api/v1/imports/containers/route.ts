@@ -1,12 +1,13 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
-import { commitContainerImport, ImportRejectedError, readImportUpload } from "@/lib/imports/service";
+import { ImportRejectedError, readImportUpload } from "@/lib/imports/service";
+import { runTask, transferable } from "@/lib/workers/pool";
 
-/** Imports containers from the multipart field `file`: every row is written, or none. */
+/** Imports containers from the multipart field `file`: every row is written, or none (in a worker thread). */
 export const POST = route({ action: "containers.import" }, async ({ request, user }) => {
   const { bytes, fileName } = await readImportUpload(request);
   try {
-    return NextResponse.json({ data: await commitContainerImport(user, bytes, fileName) }, { status: 201 });
+    return NextResponse.json({ data: await runTask("imports.commitContainers", { actor: user, bytes, fileName }, { transferList: transferable(bytes) }) }, { status: 201 });
   } catch (error) {
     if (error instanceof ImportRejectedError) {
       return NextResponse.json({ error: { code: error.code, message: error.message, issues: error.issues } }, { status: 400 });
