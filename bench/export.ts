@@ -56,7 +56,7 @@ const thousands = (n: number) => n.toLocaleString("en-GB");
 async function exportOnly(outFile: string): Promise<void> {
   const { writeRegisterWorkbook } = await import("@/lib/exports/register-workbook");
   const { closeDb, getDb } = await import("@/db/client");
-  const { closeWorkerPool, runTask } = await import("@/lib/workers/pool");
+  const { runTask } = await import("@/lib/workers/pool");
   const { readableFromPort } = await import("@/lib/workers/port-stream");
   getDb(); // open (and check migrations) before the clock starts, as a running server has
   // A worker thread with its modules loaded and its connection open, as a busy server has.
@@ -77,8 +77,9 @@ async function exportOnly(outFile: string): Promise<void> {
       // As the download route does: written in a worker, its bytes streamed to this thread.
       const { port1, port2 } = new MessageChannel();
       const task = runTask("exports.registerWorkbook", { port: port2, ...options }, { transferList: [port2] });
-      await pipeline(Readable.fromWeb(readableFromPort(port1) as import("node:stream/web").ReadableStream<Uint8Array>), output);
-      counts = await task;
+      const written = pipeline(Readable.fromWeb(readableFromPort(port1) as import("node:stream/web").ReadableStream<Uint8Array>), output);
+      // A task that fails ends the stream too (as the download route does).
+      [counts] = await Promise.all([task.catch((error: unknown) => (port1.close(), Promise.reject(error))), written]);
     }
   } finally {
     clearInterval(sampler);
@@ -87,7 +88,6 @@ async function exportOnly(outFile: string): Promise<void> {
   const cpu = process.cpuUsage(startCpu);
   peakRss = Math.max(peakRss, process.memoryUsage().rss);
   closeDb();
-  await closeWorkerPool();
   const figures: ExportFigures = { seconds, cpuSeconds: (cpu.user + cpu.system) / 1e6, peakRssMb: peakRss / 2 ** 20, startRssMb, bytes: fs.statSync(outFile).size, counts };
   console.log(JSON.stringify(figures));
 }
@@ -271,7 +271,8 @@ async function main(): Promise<void> {
   const exportIndex = process.argv.indexOf("--export-only");
   if (exportIndex >= 0) {
     await exportOnly(process.argv[exportIndex + 1]);
-    return;
+    // The worker pool's idle thread would keep this process a minute longer.
+    process.exit(0);
   }
   const keepFiles = process.argv.includes("--keep-files");
   const tempDir = fs.mkdtempSync(path.join(os.tmpdir(), "headroom-bench-export-"));

@@ -14,6 +14,7 @@ import { auditEvents, jobs, readings, rooms, sensors, settings, sites, storageUn
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
 import * as readingsRoute from "@/app/api/v1/readings/route";
 import { queueReassessment } from "@/lib/assessment/jobs";
+import { reassessRooms } from "@/lib/assessment/service";
 import { createApiKey } from "@/lib/api-keys/service";
 import { DomainError, ValidationError } from "@/lib/errors";
 import { ExportCancelledError } from "@/lib/exports/table-sheet";
@@ -186,6 +187,9 @@ describe("background re-assessment in a worker", () => {
     expect(stored).toMatchObject({ status: "done", progress: 3, total: 3, error: null });
     const assessed = getDb().select({ assessedAt: rooms.assessedAt }).from(rooms).all();
     expect(assessed.every((r) => r.assessedAt !== null)).toBe(true);
+    // The worker digested the rooms with this process's key: nothing changed, so nothing is assessed again here.
+    const again = getDb().transaction((tx) => reassessRooms(tx, roomIds, { reason: "worker test, again" }));
+    expect(again.roomsUnchanged).toBe(roomIds.length);
   });
 });
 
