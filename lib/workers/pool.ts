@@ -25,7 +25,13 @@ const DEFAULT_MAX_OLD_GENERATION_MB = 512;
 /** Tasks waiting for a thread beyond this are refused with 503. */
 const MAX_QUEUE = 64;
 
-export type WorkerPoolOptions = { maxThreads?: number; maxOldGenerationSizeMb?: number; idleTimeoutMs?: number };
+export type WorkerPoolOptions = {
+  maxThreads?: number;
+  maxOldGenerationSizeMb?: number;
+  idleTimeoutMs?: number;
+  /** A bundle to load instead of the usual entry (tests load a freshly built one). */
+  bundle?: string;
+};
 
 /** The bundled entry production loads (scripts/build-workers.ts writes it after `next build`). */
 export function workerBundlePath(): string {
@@ -45,7 +51,7 @@ function workerEntry(): { filename: string; execArgv: string[] } {
 }
 
 export function createWorkerPool(options: WorkerPoolOptions = {}): Piscina<TaskMessage, TaskOutcome> {
-  const entry = workerEntry();
+  const entry = options.bundle ? { filename: options.bundle, execArgv: [] } : workerEntry();
   const maxOldGenerationSizeMb = options.maxOldGenerationSizeMb ?? (Number(process.env.WORKER_MAX_OLD_GENERATION_MB) || DEFAULT_MAX_OLD_GENERATION_MB);
   const pool = new Piscina<TaskMessage, TaskOutcome>({
     filename: entry.filename,

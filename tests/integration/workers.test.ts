@@ -5,6 +5,8 @@
  * worker, and the request thread keeps ticking while a worker is busy. Every row below is invented.
  */
 import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
@@ -22,6 +24,7 @@ import { ImportFileError } from "@/lib/imports/errors";
 import { BatchRejectedError } from "@/lib/temperatures/ingest";
 import { closeWorkerPool, createWorkerPool, runNamedTask, runTask, WorkerStoppedError } from "@/lib/workers/pool";
 import { readableFromPort } from "@/lib/workers/port-stream";
+import { buildWorkerBundle } from "@/scripts/build-workers";
 import { makeUser, sessionCookieFor } from "./helpers/world";
 
 const FINDING_COUNT = 3_000;
@@ -141,6 +144,23 @@ describe("a task in a worker thread", () => {
     expect(ticks).toBeGreaterThan(50);
     expect(largestGapMs).toBeLessThan(200);
   });
+});
+
+describe("the production bundle", () => {
+  it("loads in a plain thread (no tsx, no react-server flag) and runs the services with their errors", async () => {
+    const bundle = await buildWorkerBundle(path.join(".next", "workers", `test-${process.pid}.mjs`));
+    const pool = createWorkerPool({ maxThreads: 1, bundle });
+    try {
+      await runNamedTask("diagnostics.write", { key: "worker.bundle", value: "bundled" }, { pool });
+      expect(getDb().select().from(settings).where(eq(settings.key, "worker.bundle")).get()?.value).toBe("bundled");
+      const batch = (await runNamedTask("readings.ingest", { readings: [{ sensor: "LOG-NONE", at: "2026-07-14T15:45:00+02:00", tempC: 5 }] }, { pool }).catch((error: unknown) => error)) as BatchRejectedError;
+      expect(batch).toBeInstanceOf(BatchRejectedError);
+      expect(batch.rows).toEqual([{ index: 0, field: "sensor", message: "No sensor has the device id “LOG-NONE”. Register it first." }]);
+    } finally {
+      await pool.destroy();
+      for (const file of [bundle, `${bundle}.map`]) fs.rmSync(file, { force: true });
+    }
+  }, 60_000);
 });
 
 describe("the register workbook from a worker", () => {
