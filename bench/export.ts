@@ -6,7 +6,8 @@
 // (their paths are printed); `--findings N` builds N findings instead of 100,000; `--runs N` exports N
 // times (3 by default; the target is judged on the median, memory on the highest); `--short-traces`
 // stores a five-row trace per finding instead of the engine's full one, to show the cost of the
-// traces against the rest of the workbook.
+// traces against the rest of the workbook; `--in-thread` writes the workbook in the export process's
+// own thread rather than in a worker thread streaming to it (as the download route does).
 //
 // The script builds a register in a temporary database: the sourced substance library, 3 sites,
 // 100 rooms with 20 storage units each, 20,000 containers, 100 sensors with 2,000 readings each,
@@ -14,9 +15,12 @@
 // (the closed-enclosure bound over six containers: inputs with sources, every step, result and
 // warnings), stored with its readable text as the register stores it (about 1.9 KB per finding, long
 // sources cited from trace_sources). Then a fresh Node process (so its memory is the export's alone, on top of
-// Node and the loaded modules) writes the workbook to a file through writeRegisterWorkbook,
+// Node and the loaded modules) writes the workbook to a file (in a worker thread, streamed back, unless --in-thread),
 // sampling process.memoryUsage().rss every 50 ms, three times by default. It reports; it does not fail: exit code 0 either way.
 import { spawnSync } from "node:child_process";
+import { Readable } from "node:stream";
+import { pipeline } from "node:stream/promises";
+import { MessageChannel } from "node:worker_threads";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -26,6 +30,8 @@ const findingsArg = process.argv.indexOf("--findings");
 /** `--findings N` builds a smaller (or larger) register, e.g. to profile quickly. */
 const FINDING_COUNT = findingsArg >= 0 ? Number(process.argv[findingsArg + 1]) : 100_000;
 const SHORT_TRACES = process.argv.includes("--short-traces");
+/** `--in-thread` writes the workbook in the exporting thread itself instead of in a worker thread (as the server does). */
+const IN_THREAD = process.argv.includes("--in-thread");
 const runsArg = process.argv.indexOf("--runs");
 /** `--runs N` exports N times (3 by default) and judges the median. */
 const RUNS = runsArg >= 0 ? Math.max(1, Number(process.argv[runsArg + 1])) : 3;
@@ -50,7 +56,11 @@ const thousands = (n: number) => n.toLocaleString("en-GB");
 async function exportOnly(outFile: string): Promise<void> {
   const { writeRegisterWorkbook } = await import("@/lib/exports/register-workbook");
   const { closeDb, getDb } = await import("@/db/client");
+  const { runTask } = await import("@/lib/workers/pool");
+  const { readableFromPort } = await import("@/lib/workers/port-stream");
   getDb(); // open (and check migrations) before the clock starts, as a running server has
+  // A worker thread with its modules loaded and its connection open, as a busy server has.
+  if (!IN_THREAD) await runTask("readings.ingest", { readings: [] });
   const startRssMb = process.memoryUsage().rss / 2 ** 20;
   let peakRss = process.memoryUsage().rss;
   const sampler = setInterval(() => {
@@ -61,7 +71,16 @@ async function exportOnly(outFile: string): Promise<void> {
   const output = fs.createWriteStream(outFile);
   let counts: RegisterWorkbookResult;
   try {
-    counts = await writeRegisterWorkbook(output, { generatedBy: "Bench <bench@example.test>", nowMs: Date.now() });
+    const options = { generatedBy: "Bench <bench@example.test>", nowMs: Date.now() };
+    if (IN_THREAD) counts = await writeRegisterWorkbook(output, options);
+    else {
+      // As the download route does: written in a worker, its bytes streamed to this thread.
+      const { port1, port2 } = new MessageChannel();
+      const task = runTask("exports.registerWorkbook", { port: port2, ...options }, { transferList: [port2] });
+      const written = pipeline(Readable.fromWeb(readableFromPort(port1) as import("node:stream/web").ReadableStream<Uint8Array>), output);
+      // A task that fails ends the stream too (as the download route does).
+      [counts] = await Promise.all([task.catch((error: unknown) => (port1.close(), Promise.reject(error))), written]);
+    }
   } finally {
     clearInterval(sampler);
   }
@@ -252,7 +271,8 @@ async function main(): Promise<void> {
   const exportIndex = process.argv.indexOf("--export-only");
   if (exportIndex >= 0) {
     await exportOnly(process.argv[exportIndex + 1]);
-    return;
+    // The worker pool's idle thread would keep this process a minute longer.
+    process.exit(0);
   }
   const keepFiles = process.argv.includes("--keep-files");
   const tempDir = fs.mkdtempSync(path.join(os.tmpdir(), "headroom-bench-export-"));
@@ -266,7 +286,7 @@ async function main(): Promise<void> {
     const runs: (ExportFigures & { loadAtStart: number })[] = [];
     for (let run = 0; run < RUNS; run++) {
       const loadAtStart = os.loadavg()[0];
-      const child = spawnSync(process.execPath, [...process.execArgv, process.argv[1], "--export-only", outFile], {
+      const child = spawnSync(process.execPath, [...process.execArgv, process.argv[1], "--export-only", outFile, ...(IN_THREAD ? ["--in-thread"] : [])], {
         env: { ...process.env },
         encoding: "utf8",
         maxBuffer: 16 * 2 ** 20,
@@ -293,6 +313,7 @@ async function main(): Promise<void> {
       `Peak RSS, highest of the runs: ${fixed(peakRssMb, 0)} MB (target < ${TARGET_PEAK_MB} MB): ${peakRssMb < TARGET_PEAK_MB ? "target met" : "target NOT met"}; ` +
         `${fixed(figures.startRssMb, 0)} MB before the export began (Node and the loaded modules).`,
     );
+    console.log(`Written ${IN_THREAD ? "in the exporting thread (--in-thread)" : "in a worker thread and streamed to the exporting thread, as the server does"}.`);
     console.log(`Machine: ${os.cpus().length} cores; Node ${process.version}.`);
     if (keepFiles) console.log(`Kept: ${process.env.DATABASE_PATH} and ${outFile}`);
   } finally {

@@ -2,6 +2,7 @@
  * `npm run demo`: migrates and (when empty) seeds the database, builds the app, and serves it on
  * PORT (default 3000) with the local e-mail fake on EMAIL_FAKE_PORT (default 3025).
  * Flags: --fresh deletes the database file first (tests); --no-build serves the existing build.
+ * The build is `next build` and then the worker threads' bundle (scripts/build-workers.ts).
  */
 import { spawn, spawnSync } from "node:child_process";
 import { randomBytes } from "node:crypto";
@@ -11,6 +12,7 @@ import { closeDb, databasePath, getDb } from "../db/client";
 import { seedDemo } from "../db/seed/demo";
 import { DEMO_INGEST_KEY } from "../db/seed/demo-readings";
 import { startEmailFake } from "../lib/mail/fake-server";
+import { buildWorkerBundle } from "./build-workers";
 
 const args = new Set(process.argv.slice(2));
 process.env.NEXT_TELEMETRY_DISABLED = "1";
@@ -49,6 +51,7 @@ async function main() {
     say("building the app");
     const build = spawnSync("npx", ["next", "build"], { stdio: "inherit", env: process.env });
     if (build.status !== 0) process.exit(build.status ?? 1);
+    say(`worker bundle written to ${path.relative(process.cwd(), await buildWorkerBundle())}`);
   }
 
   let fake: Awaited<ReturnType<typeof startEmailFake>> | undefined;

@@ -61,17 +61,33 @@ export async function runReassessmentJob(jobId: number, opts: { yieldBetweenBatc
   }
 }
 
-/** Starts queued re-assessments, one after another (called after a change and by the job timer). */
+/**
+ * Starts queued re-assessments, one after another, each in a worker thread (called after a change
+ * and by the job timer): this thread only picks the next job. The worker writes the progress and
+ * records a failure on the job; a worker that dies under a job leaves it to be marked here.
+ */
 export function kickReassessments(): void {
   const state = globalThis as unknown as { headroomReassessing?: boolean };
   if (state.headroomReassessing) return;
   state.headroomReassessing = true;
   void (async () => {
     try {
+      // Loaded when needed: the worker threads load this module too, and never start a pool.
+      const { runTask } = await import("@/lib/workers/pool");
       for (;;) {
         const next = getDb().select({ id: jobs.id }).from(jobs).where(and(eq(jobs.kind, REASSESS_JOB), eq(jobs.status, "queued"))).orderBy(jobs.id).limit(1).get();
         if (!next) break;
-        await runReassessmentJob(next.id);
+        try {
+          await runTask("assessment.runJob", { jobId: next.id });
+        } catch (error) {
+          log.error({ err: error, jobId: next.id }, "re-assessment job stopped in its worker");
+          const message = error instanceof Error ? error.message : String(error);
+          getDb()
+            .update(jobs)
+            .set({ status: "failed", error: message, finishedAt: new Date() })
+            .where(and(eq(jobs.id, next.id), inArray(jobs.status, ["queued", "running"])))
+            .run();
+        }
       }
     } catch (error) {
       log.error({ err: error }, "re-assessments stopped; the job timer starts them again");

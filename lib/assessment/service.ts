@@ -1,5 +1,5 @@
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
+import { createHash } from "node:crypto";
 import { and, eq, inArray, isNull } from "drizzle-orm";
 import { getDb, preparedOn, type DbOrTx } from "@/db/client";
 import {
@@ -19,6 +19,7 @@ import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
 import { worstCasesForRooms } from "@/lib/temperatures/queries";
 import { selectWorstCase } from "@/lib/temperatures/worst-case";
+import { PROCESS_KEY } from "./process-key";
 import {
   assessLocation,
   assessmentSettingsSchema,
@@ -274,11 +275,6 @@ export type ReassessResult = ReconcileResult & {
   alertsQueued: number;
 };
 
-/**
- * Changes with every start of the process, so an input key written by another process, or by an
- * earlier version of the rules, never matches: after a deploy every room is assessed afresh.
- */
-const PROCESS_KEY = randomUUID();
 
 /**
  * Everything the rules read for one location, as one digest: the settings, the room's facts with

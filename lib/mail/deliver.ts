@@ -38,10 +38,12 @@ export type DeliveryRun = { sent: number; failed: number };
 
 /** Sends every message that is due. Each message is claimed first, so two runs never send it twice. */
 export async function deliverDueMessages(db: Db = getDb(), now = Date.now()): Promise<DeliveryRun> {
-  db.update(emailMessages)
-    .set({ status: "queued" })
-    .where(and(eq(emailMessages.status, "sending"), lt(emailMessages.nextAttemptAt, new Date(now - STALE_SENDING_MS))))
-    .run();
+  const stale = and(eq(emailMessages.status, "sending"), lt(emailMessages.nextAttemptAt, new Date(now - STALE_SENDING_MS)));
+  // Read first: an UPDATE takes the write lock even when it changes nothing, and while a worker
+  // thread holds it (a long import) this thread would wait for it, every request with it.
+  if (db.select({ id: emailMessages.id }).from(emailMessages).where(stale).limit(1).get()) {
+    db.update(emailMessages).set({ status: "queued" }).where(stale).run();
+  }
   const due = db
     .select()
     .from(emailMessages)

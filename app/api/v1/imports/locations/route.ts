@@ -1,14 +1,15 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
+import { ImportRejectedError, withImportUpload } from "@/lib/imports/service";
 import { limit } from "@/lib/rate-limit";
-import { commitLocationImport, ImportRejectedError, withImportUpload } from "@/lib/imports/service";
+import { runTask } from "@/lib/workers/pool";
 
-/** Imports sites, rooms and storage units from the multipart field `file`: every row is written, or none. */
+/** Imports locations from the multipart field `file`: every row is written, or none (in a worker thread). */
 export const POST = route({ action: "locations.import" }, async ({ request, user }) => {
   await limit("importUser", user.id);
   return withImportUpload(request, async (file) => {
     try {
-      return NextResponse.json({ data: await commitLocationImport(user, file) }, { status: 201 });
+      return NextResponse.json({ data: await runTask("imports.commitLocations", { actor: user, file }) }, { status: 201 });
     } catch (error) {
       if (error instanceof ImportRejectedError) {
         return NextResponse.json({ error: { code: error.code, message: error.message, issues: error.issues } }, { status: 400 });

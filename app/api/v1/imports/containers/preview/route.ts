@@ -1,10 +1,11 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
+import { withImportUpload } from "@/lib/imports/service";
 import { limit } from "@/lib/rate-limit";
-import { previewContainerImport, withImportUpload } from "@/lib/imports/service";
+import { runTask } from "@/lib/workers/pool";
 
-/** Checks a container file without writing anything: every problem by line and column, and what an import would do. */
+/** Checks a container file without writing anything: every problem by line and column, and what an import would do (in a worker thread). */
 export const POST = route({ action: "containers.import" }, async ({ request, user }) => {
   await limit("importUser", user.id);
-  return withImportUpload(request, async (file) => NextResponse.json({ data: await previewContainerImport(file) }));
+  return withImportUpload(request, async (file) => NextResponse.json({ data: await runTask("imports.previewContainers", { file }) }));
 });
