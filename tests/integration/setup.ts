@@ -11,7 +11,7 @@ process.env.DATABASE_PATH = path.join(dir, "headroom.db");
 process.env.BCRYPT_COST = "4";
 process.env.SESSION_SECRET = "integration-tests-session-secret-0123456789";
 process.env.APP_URL = "http://localhost:3999";
-process.env.LOG_LEVEL = "silent";
+process.env.LOG_LEVEL = process.env.TEST_LOG_LEVEL || "silent";
 
 afterAll(async () => {
   const { closeDb } = await import("@/db/client");

@@ -9,7 +9,7 @@ export const POST = route({ action: "containers.import" }, async ({ request, use
   await limit("importUser", user.id);
   return withImportUpload(request, async (file) => {
     try {
-      return NextResponse.json({ data: await runTask("imports.commitContainers", { actor: user, file }) }, { status: 201 });
+      return NextResponse.json({ data: await runTask("imports.commitContainers", { actor: user, file: { path: file.path, fileName: file.fileName } }) }, { status: 201 });
     } catch (error) {
       if (error instanceof ImportRejectedError) {
         return NextResponse.json({ error: { code: error.code, message: error.message, issues: error.issues } }, { status: 400 });

@@ -7,5 +7,5 @@ import { runTask } from "@/lib/workers/pool";
 /** Checks a container file without writing anything: every problem by line and column, and what an import would do (in a worker thread). */
 export const POST = route({ action: "containers.import" }, async ({ request, user }) => {
   await limit("importUser", user.id);
-  return withImportUpload(request, async (file) => NextResponse.json({ data: await runTask("imports.previewContainers", { file }) }));
+  return withImportUpload(request, async (file) => NextResponse.json({ data: await runTask("imports.previewContainers", { file: { path: file.path, fileName: file.fileName } }) }));
 });

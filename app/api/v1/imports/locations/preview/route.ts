@@ -7,5 +7,5 @@ import { runTask } from "@/lib/workers/pool";
 /** Checks a location file without writing anything: every problem by line and column, and what an import would do (in a worker thread). */
 export const POST = route({ action: "locations.import" }, async ({ request, user }) => {
   await limit("importUser", user.id);
-  return withImportUpload(request, async (file) => NextResponse.json({ data: await runTask("imports.previewLocations", { file }) }));
+  return withImportUpload(request, async (file) => NextResponse.json({ data: await runTask("imports.previewLocations", { file: { path: file.path, fileName: file.fileName } }) }));
 });
