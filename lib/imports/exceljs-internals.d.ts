@@ -1,7 +1,7 @@
 // The exceljs 4.4 modules the workbook reader uses beside the public API (read from
 // node_modules/exceljs/lib). tests/unit/imports/xlsx-internals.test.ts pins their shapes.
 
-declare module "exceljs/lib/utils/parse-sax" {
+declare module "exceljs/lib/utils/parse-sax.js" {
   type SaxEvent =
     | { eventType: "opentag"; value: { name: string; attributes: Record<string, string> } }
     | { eventType: "text"; value: string }
@@ -10,7 +10,7 @@ declare module "exceljs/lib/utils/parse-sax" {
   export default function parseSax(chunks: AsyncIterable<string | Uint8Array>): AsyncGenerator<SaxEvent[]>;
 }
 
-declare module "exceljs/lib/xlsx/xform/style/styles-xform" {
+declare module "exceljs/lib/xlsx/xform/style/styles-xform.js" {
   /** The workbook's styles (xl/styles.xml) as the in-memory reader parses them. */
   export default class StylesXform {
     parseStream(chunks: AsyncIterable<string | Uint8Array>): Promise<unknown>;
@@ -18,7 +18,7 @@ declare module "exceljs/lib/xlsx/xform/style/styles-xform" {
   }
 }
 
-declare module "exceljs/lib/utils/utils" {
+declare module "exceljs/lib/utils/utils.js" {
   const utils: {
     isDateFmt(format: string | undefined): boolean;
     excelToDate(serial: number, date1904?: boolean): Date;

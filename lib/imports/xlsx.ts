@@ -14,9 +14,9 @@
  */
 import { StringDecoder } from "node:string_decoder";
 import path from "node:path";
-import parseSax from "exceljs/lib/utils/parse-sax";
-import StylesXform from "exceljs/lib/xlsx/xform/style/styles-xform";
-import exceljsUtils from "exceljs/lib/utils/utils";
+import parseSax from "exceljs/lib/utils/parse-sax.js";
+import StylesXform from "exceljs/lib/xlsx/xform/style/styles-xform.js";
+import exceljsUtils from "exceljs/lib/utils/utils.js";
 import type yauzl from "yauzl";
 import { IMPORT_LIMITS, XLSX_LIMITS } from "@/lib/limits";
 import { ImportFileError } from "./errors";

@@ -229,7 +229,6 @@ describe("a big batch from the logger API", () => {
     expect(refused.body.error.code).toBe("batch_rejected");
     expect(refused.body.error.rows).toEqual([
       { index: 1_100, field: "at", message: "at must be ISO-8601 with an offset (Z or ±hh:mm), e.g. 2026-07-14T15:40:00+02:00." },
-      { index: 1_100, field: "at", message: "at is not a real date and time." },
     ]);
     const sensorId = getDb().select().from(sensors).where(eq(sensors.externalId, "LOG-W1")).get()!.id;
     const stored = () => getDb().$count(readings, eq(readings.sensorId, sensorId));

@@ -121,11 +121,11 @@ describe("reading workbooks from disk", () => {
 describe("the exceljs 4.4 internals the workbook reader uses", () => {
   it("are there with the shapes lib/imports/exceljs-internals.d.ts declares", () => {
     expect(require("exceljs/package.json").version).toBe("4.4.0");
-    expect(typeof require("exceljs/lib/utils/parse-sax")).toBe("function");
-    const StylesXform = require("exceljs/lib/xlsx/xform/style/styles-xform");
+    expect(typeof require("exceljs/lib/utils/parse-sax.js")).toBe("function");
+    const StylesXform = require("exceljs/lib/xlsx/xform/style/styles-xform.js");
     expect(typeof StylesXform.prototype.parseStream).toBe("function");
     expect(typeof StylesXform.prototype.getStyleModel).toBe("function");
-    const utils = require("exceljs/lib/utils/utils");
+    const utils = require("exceljs/lib/utils/utils.js");
     expect(utils.isDateFmt("yyyy-mm-dd")).toBe(true);
     expect(utils.isDateFmt("0.00")).toBe(false);
     expect(utils.excelToDate(46034).toISOString()).toBe("2026-01-12T00:00:00.000Z");
