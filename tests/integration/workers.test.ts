@@ -234,7 +234,7 @@ describe("a big batch from the logger API", () => {
     const stored = () => getDb().$count(readings, eq(readings.sensorId, sensorId));
     expect(await stored()).toBe(0);
     const accepted = await send(batch);
-    expect(accepted).toEqual({ status: 202, body: { accepted: 1_200, duplicates: 0 } });
+    expect(accepted).toEqual({ status: 202, body: { accepted: 1_200, duplicates: 0, conflicts: 0, conflictRows: [] } });
     expect(await stored()).toBe(1_200);
   });
 });
