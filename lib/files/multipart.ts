@@ -2,6 +2,7 @@ import "server-only";
 import { z } from "zod";
 import { fieldErrorsFrom } from "@/lib/auth/guard";
 import { ValidationError } from "@/lib/errors";
+import { BodyTooLargeError, readBodyBytes } from "@/lib/http/request-guard";
 import { MULTIPART_OVERHEAD_BYTES, SDS_LIMITS } from "@/lib/limits";
 import { FileTooLargeError } from "./errors";
 import type { Upload } from "./storage";
@@ -13,35 +14,16 @@ const sdsFormSchema = z.object({
 });
 
 /**
- * Reads the body, refusing it (413) at once when its Content-Length is over the limit, and
- * otherwise as soon as the bytes read pass it, so an oversized upload is never held in memory
- * whole; a missing Content-Length does not help. What is held stays within the limit: a sheet of
- * at most 20 MB is kept in memory to be hashed and written in one go.
+ * The body within the limit (see `readBodyBytes`): an oversized upload is never held whole. What is
+ * held stays within it: a sheet of at most 20 MB is kept in memory to be hashed and written in one go.
  */
 async function readBodyWithin(request: Request, maxBytes: number): Promise<Uint8Array> {
-  const declared = Number(request.headers.get("content-length"));
-  if (Number.isFinite(declared) && declared > maxBytes) throw new FileTooLargeError(MAX_SDS_BYTES);
-  if (!request.body) return new Uint8Array();
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > maxBytes) {
-      await reader.cancel();
-      throw new FileTooLargeError(MAX_SDS_BYTES);
-    }
-    chunks.push(value);
+  try {
+    return await readBodyBytes(request, maxBytes);
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) throw new FileTooLargeError(MAX_SDS_BYTES);
+    throw error;
   }
-  const body = new Uint8Array(total);
-  let offset = 0;
-  for (const chunk of chunks) {
-    body.set(chunk, offset);
-    offset += chunk.byteLength;
-  }
-  return body;
 }
 
 /** The `file` field of a multipart/form-data request, as an upload for lib/files. */
