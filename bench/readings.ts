@@ -36,7 +36,6 @@ const IMPORT_TARGET_S = 15;
  * Try `--rows 2000000` to see the growth stay where it is.
  */
 const MEMORY_BUDGET_BYTES = 64 * 1024 * 1024;
-const STEP_MS = 30_000;
 const ZONE = "Europe/Berlin";
 const DEVICE = "LOG-BENCH";
 const THRESHOLD_C = 8;
@@ -46,9 +45,9 @@ async function main(): Promise<void> {
   const { closeDb, getDb } = await import("@/db/client");
   const { rooms, sites, storageUnits, sensors, users, excursions, readings } = await import("@/db/schema");
   const { startCsvUploadFromFile, previewCsvUpload, importCsvUpload } = await import("@/lib/temperatures/csv-upload");
-  const { csvMappingSchema, zoneOffsetMs } = await import("@/lib/temperatures/csv");
+  const { csvMappingSchema } = await import("@/lib/temperatures/csv");
   const { createExcursionDetector } = await import("@/lib/temperatures/excursions");
-  const { seededRandom } = await import("./lib/stats");
+  const { writeLoggerCsv } = await import("./lib/logger-csv");
   const { eq } = await import("drizzle-orm");
 
   const MB = 1024 * 1024;
@@ -99,45 +98,7 @@ async function main(): Promise<void> {
   // 2. The logger file, written as a stream
   // ---------------------------------------------------------------------------------------------
   const csvPath = path.join(tempDir, "logger-bench.csv");
-  const random = seededRandom(20_260_101);
-  const startMs = Date.parse("2024-12-31T23:00:00Z"); // 1 January 2025 00:00 in Berlin
-  const offsets = new Map<number, number>(); // per UTC hour; Berlin changes on whole UTC hours
-  const offsetAt = (atMs: number) => {
-    const hour = Math.floor(atMs / 3_600_000);
-    let offset = offsets.get(hour);
-    if (offset === undefined) offsets.set(hour, (offset = zoneOffsetMs(hour * 3_600_000, ZONE)));
-    return offset;
-  };
-  const two = (n: number) => (n < 10 ? `0${n}` : String(n));
-  let warmUntil = -1;
-  let warmPeakC = 0;
-  let doorUntil = -1;
-  const generated = await measured(async () => {
-    const out = fs.createWriteStream(csvPath, { highWaterMark: 1 * MB });
-    const write = (text: string) => (out.write(text) ? Promise.resolve() : new Promise<void>((resolve) => out.once("drain", () => resolve())));
-    await write(`Device;Refrigerator logger\r\nSerial number;${DEVICE}\r\nCalibration date;05.01.2025\r\n\r\nDate;Time;Temperature;Unit;Serial\r\n`);
-    let batch = "";
-    for (let i = 0; i < ROW_COUNT; i++) {
-      const atMs = startMs + i * STEP_MS;
-      if (i > warmUntil && random() < 1 / 40_000) {
-        warmUntil = i + 80 + Math.floor(random() * 120); // 40–100 min
-        warmPeakC = 9 + random() * 6;
-      }
-      if (i > doorUntil && random() < 1 / 3_000) doorUntil = i + 4 + Math.floor(random() * 12); // 2–8 min
-      let tempC = 4.5 + 0.3 * Math.sin((2 * Math.PI * i) / 2880) + (random() - 0.5) * 0.4;
-      if (i <= warmUntil) tempC = warmPeakC - (random() * 0.5);
-      else if (i <= doorUntil) tempC = 8.5 + random() * 2;
-      const wall = new Date(atMs + offsetAt(atMs));
-      const tempText = tempC.toFixed(2).replace(".", ",");
-      batch += `${two(wall.getUTCDate())}.${two(wall.getUTCMonth() + 1)}.${wall.getUTCFullYear()};${two(wall.getUTCHours())}:${two(wall.getUTCMinutes())}:${two(wall.getUTCSeconds())};${tempText};°C;${DEVICE}\r\n`;
-      if (batch.length > 256 * 1024) {
-        await write(batch);
-        batch = "";
-      }
-    }
-    await write(batch);
-    await new Promise<void>((resolve, reject) => out.end((error?: Error | null) => (error ? reject(error) : resolve())));
-  });
+  const generated = await measured(() => writeLoggerCsv(csvPath, { rows: ROW_COUNT, device: DEVICE, timeZone: ZONE }));
   const fileBytes = fs.statSync(csvPath).size;
   console.log(`\nGenerated ${thousands(ROW_COUNT)} readings (${mb(fileBytes)}) in ${seconds(generated.ms)}; peak RSS ${mb(generated.peakRss)}.`);
 

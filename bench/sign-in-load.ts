@@ -1,12 +1,13 @@
 // Benchmark: how long a health check waits while failed sign-ins hash passwords (bcryptjs, cost 12
-// unless BCRYPT_COST says otherwise) on the server's only thread.
+// unless BCRYPT_COST says otherwise).
 // Run with `npx tsx --conditions=react-server bench/sign-in-load.ts`.
 //
 // A server process answers GET /health at once and POST /sign-in… with a failed sign-in; this
 // process sends N sign-ins in parallel and, while they run, asks /health again and again, one
 // request at a time, and reports its latencies. Three cases:
-//   unbounded    every sign-in compares at once with bcrypt.compare (the old path);
-//   one-at-time  signInWithPassword from N different addresses (each compare waits its turn);
+//   unbounded    every sign-in compares at once with bcrypt.compare on the request thread (the old path);
+//   one-at-time  signInWithPassword from N different addresses (each compare waits its turn in the
+//                password thread, lib/workers/passwords.mjs);
 //   one-address  signInWithPassword, 4 × N attempts from one address at one account: the
 //                account-and-address limit lets 10 compare, the rest are refused before hashing.
 import { fork, type ChildProcess } from "node:child_process";
