@@ -7,8 +7,10 @@ import { getRequestUser, type SessionUser } from "@/lib/auth/session";
 import type { ApiKey } from "@/db/schema";
 import { authenticateApiKey } from "@/lib/api-keys/service";
 import { DomainError, ForbiddenError, RateLimitedError, UnauthenticatedError } from "@/lib/errors";
+import { isProduction } from "@/lib/config";
 import { log } from "@/lib/log";
 import { JSON_BODY_LIMITS } from "@/lib/limits";
+import { API_CONTENT_SECURITY_POLICY, commonSecurityHeaders } from "./security-headers";
 import { assertSameOrigin, readJsonBody } from "./request-guard";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -65,6 +67,25 @@ function logOutcome(request: Request, status: number, startedAt: number, userId?
 }
 
 /**
+ * The security headers of every API answer (the proxy in front of the pages does not run for
+ * /api/: see proxy.ts). A handler's own Content-Security-Policy (a file download's) is kept.
+ */
+export function withSecurityHeaders(response: Response): Response {
+  let secured = response;
+  try {
+    secured.headers.set("X-Content-Type-Options", "nosniff");
+  } catch {
+    // An immutable response (a redirect, a fetched one): copy it to set headers.
+    secured = new Response(response.body, response);
+  }
+  if (!secured.headers.has("Content-Security-Policy")) secured.headers.set("Content-Security-Policy", API_CONTENT_SECURITY_POLICY);
+  for (const { key, value } of commonSecurityHeaders({ production: isProduction() })) {
+    if (!secured.headers.has(key)) secured.headers.set(key, value);
+  }
+  return secured;
+}
+
+/**
  * A route handler behind the origin check for writes (a page of another origin may not write
  * with a signed-in person's cookie), the session check, the permission matrix and a zod schema
  * (query string for GET and DELETE, JSON body otherwise, at most `maxBodyBytes`). Errors become
@@ -90,7 +111,7 @@ export function route<S extends z.ZodType | undefined = undefined>(
       response = errorResponse(error);
     }
     logOutcome(request, response.status, startedAt, userId);
-    return response;
+    return withSecurityHeaders(response);
   };
 }
 
@@ -116,7 +137,7 @@ export function keyRoute<S extends z.ZodType>(
       response = errorResponse(error);
     }
     logOutcome(request, response.status, startedAt);
-    return response;
+    return withSecurityHeaders(response);
   };
 }
 
@@ -135,7 +156,7 @@ export function publicRoute(handler: (args: PublicHandlerArgs) => Promise<Respon
       response = errorResponse(error);
     }
     logOutcome(request, response.status, startedAt);
-    return response;
+    return withSecurityHeaders(response);
   };
 }
 

@@ -1,6 +1,6 @@
 /**
- * The security headers of every response. Pure, so that `next.config.mjs`'s header table, the
- * proxy in front of the pages and the tests read the same values.
+ * The security headers of every response. Pure, so that the proxy in front of the pages, the
+ * route handlers' wrapper (lib/http/route.ts) and the tests read the same values.
  */
 
 /** For pages: scripts only from the app itself and the inline scripts Next.js marks with this response's nonce. */

@@ -88,6 +88,18 @@ test("a foreign page cannot make a signed-in person write; pages work under the 
   expect(headers["referrer-policy"]).toBe("same-origin");
   expect(policyViolations).toEqual([]);
 
+  // An upload past 10 MB arrives whole (Next.js would cut a body its proxy sees at 10 MB; the API
+  // is outside the proxy), and API answers carry their own security headers.
+  const sensorId = ((await (await page.request.get("/api/v1/sensors")).json()).data as { id: number }[])[0].id;
+  const row = "2026-01-01T00:00:00Z,4.5\n";
+  const csv = Buffer.from(`time,temperature\n${row.repeat(Math.ceil((11 * 2 ** 20) / row.length))}`);
+  const uploaded = await page.request.post(`/api/v1/sensors/${sensorId}/csv-uploads`, { multipart: { file: { name: "big-logger.csv", mimeType: "text/csv", buffer: csv } } });
+  expect(uploaded.status()).toBe(201);
+  expect((await uploaded.json()).data.sizeBytes).toBe(csv.length);
+  expect(uploaded.headers()["content-security-policy"]).toBe("default-src 'none'; frame-ancestors 'none'; sandbox");
+  expect(uploaded.headers()["x-content-type-options"]).toBe("nosniff");
+  expect(uploaded.headers()["referrer-policy"]).toBe("same-origin");
+
   // A page a role may not open answers 403, a missing record 404 — as status codes.
   const researcher = await browser.newContext();
   const researcherPage = await researcher.newPage();

@@ -1,9 +1,9 @@
 import { NotFoundError } from "@/lib/errors";
-import { errorResponse } from "@/lib/http/route";
+import { errorResponse, withSecurityHeaders } from "@/lib/http/route";
 
 /** Any path under /api/v1 that no route serves answers in the one JSON error shape. */
 function notFound(): Response {
-  return errorResponse(new NotFoundError("That API route"));
+  return withSecurityHeaders(errorResponse(new NotFoundError("That API route")));
 }
 
 export const GET = notFound;
