@@ -33,7 +33,7 @@ describe("API answers carry the security headers", () => {
     expect(keyless.status).toBe(401);
     expectSecured(keyless.headers);
 
-    const unknown = await call(unknownRoute.GET, { path: "/api/v1/no-such-thing", params: { path: "no-such-thing" } });
+    const unknown = await call(async () => unknownRoute.GET(), { path: "/api/v1/no-such-thing", params: { path: "no-such-thing" } });
     expect(unknown.status).toBe(404);
     expectSecured(unknown.headers);
   });
