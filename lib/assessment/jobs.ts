@@ -4,6 +4,7 @@ import { getDb, type DbOrTx } from "@/db/client";
 import { containers, jobs, mixtureComponents, rooms, storageUnits, type Job } from "@/db/schema";
 import { log } from "@/lib/log";
 import { loadAssessmentSettings, reassessRooms, SnapshotLibrary } from "./service";
+import { holdingWriteGate } from "@/lib/workers/write-gate";
 
 export const REASSESS_JOB = "reassess";
 /** Rooms per transaction: each batch commits on its own, so requests keep being served between them. */
@@ -48,10 +49,12 @@ export async function runReassessmentJob(jobId: number, opts: { yieldBetweenBatc
     const library = new SnapshotLibrary(db);
     for (let i = 0; i < plan.roomIds.length; i += ROOMS_PER_BATCH) {
       const batch = plan.roomIds.slice(i, i + ROOMS_PER_BATCH);
-      db.transaction((tx) => {
-        reassessRooms(tx, batch, { reason: plan.reason, settings, library });
-        tx.update(jobs).set({ progress: Math.min(plan.roomIds.length, i + batch.length) }).where(eq(jobs.id, jobId)).run();
-      });
+      holdingWriteGate(() =>
+        db.transaction((tx) => {
+          reassessRooms(tx, batch, { reason: plan.reason, settings, library });
+          tx.update(jobs).set({ progress: Math.min(plan.roomIds.length, i + batch.length) }).where(eq(jobs.id, jobId)).run();
+        }),
+      );
       if (opts.yieldBetweenBatches !== false) await new Promise((resolve) => setImmediate(resolve));
     }
     return db.update(jobs).set({ status: "done", error: null, progress: plan.roomIds.length, finishedAt: new Date() }).where(eq(jobs.id, jobId)).returning().get();

@@ -4,6 +4,7 @@ import type { SubmissionResult } from "@conform-to/react";
 import type { z } from "zod";
 import { DomainError } from "@/lib/errors";
 import { log } from "@/lib/log";
+import { workerWritesDone } from "@/lib/workers/write-gate";
 import { authorizeAction } from "./guard";
 import type { Action, Scope } from "./permissions";
 import { getSessionUser, type SessionUser } from "./session";
@@ -35,6 +36,8 @@ export function formAction<S extends z.ZodType>(
         ({ user, scope } = authorizeAction(await getSessionUser(), spec.action));
       }
       if (submission.status !== "success") return submission.reply();
+      // Wait (without blocking other requests) while a worker is inside a long write.
+      await workerWritesDone();
       const message = await handler({ user: user!, scope, input: submission.value as z.output<S> });
       log.info({ action: spec.action, userId: user?.id, outcome: "ok" }, "server action");
       return { ...submission.reply({ resetForm: false }), message: message ?? undefined };

@@ -6,6 +6,7 @@ import { sessions, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
 import { sessionIdleMs, sessionMaxMs } from "@/lib/config";
 import { NotFoundError } from "@/lib/errors";
+import { writeGateRaised } from "@/lib/workers/write-gate";
 import type { Role } from "./roles";
 
 /**
@@ -71,7 +72,8 @@ export function resolveSession(token: string, now = Date.now()): SessionUser | n
     .where(and(eq(sessions.tokenHash, hashSessionToken(token)), live(now)))
     .get();
   if (!row) return null;
-  if (now - row.lastSeenAt.getTime() >= LAST_SEEN_RESOLUTION_MS) {
+  // A write that can wait: skipped while a worker is inside a long write (the next request makes it).
+  if (now - row.lastSeenAt.getTime() >= LAST_SEEN_RESOLUTION_MS && !writeGateRaised()) {
     db.update(sessions).set({ lastSeenAt: new Date(now) }).where(eq(sessions.id, row.sessionId)).run();
   }
   return { id: row.id, email: row.email, name: row.name, role: row.role, sessionId: row.sessionId };

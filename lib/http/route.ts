@@ -11,6 +11,7 @@ import { isProduction } from "@/lib/config";
 import { log } from "@/lib/log";
 import { JSON_BODY_LIMITS } from "@/lib/limits";
 import { API_CONTENT_SECURITY_POLICY, commonSecurityHeaders } from "./security-headers";
+import { workerWritesDone } from "@/lib/workers/write-gate";
 import { assertSameOrigin, readJsonBody } from "./request-guard";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -67,6 +68,13 @@ function logOutcome(request: Request, status: number, startedAt: number, userId?
 }
 
 /**
+ * A request that may write waits first, without blocking the thread, while a worker is inside a
+ * long write transaction (lib/workers/write-gate.ts): otherwise its write would wait in SQLite's
+ * busy handler and stop every other request with it.
+ */
+const writes = (request: Request) => request.method !== "GET" && request.method !== "HEAD";
+
+/**
  * The security headers of every API answer (the proxy in front of the pages does not run for
  * /api/: see proxy.ts). A handler's own Content-Security-Policy (a file download's) is kept.
  */
@@ -106,6 +114,7 @@ export function route<S extends z.ZodType | undefined = undefined>(
       const raw = spec.schema ? await readInput(request, spec.maxBodyBytes) : undefined;
       const input = parseInput(spec.schema as z.ZodType | undefined, raw);
       const params = flatParams((await context?.params) ?? {});
+      if (writes(request)) await workerWritesDone();
       response = await handler({ request, params, user, scope, input: input as never });
     } catch (error) {
       response = errorResponse(error);
@@ -132,6 +141,7 @@ export function keyRoute<S extends z.ZodType>(
       if (!key) throw new UnauthenticatedError("Send a valid API key as Authorization: Bearer <key>.");
       if (!key.scopes.includes(spec.scope)) throw new ForbiddenError(`This API key may not ${spec.scope.replace(":", " ")}.`);
       const input = parseInput(spec.schema, await readInput(request, spec.maxBodyBytes));
+      if (writes(request)) await workerWritesDone();
       response = await handler({ request, key, input });
     } catch (error) {
       response = errorResponse(error);
@@ -151,6 +161,7 @@ export function publicRoute(handler: (args: PublicHandlerArgs) => Promise<Respon
     let response: Response;
     try {
       assertSameOrigin(request);
+      if (writes(request)) await workerWritesDone();
       response = await handler({ request, params: flatParams((await context?.params) ?? {}) });
     } catch (error) {
       response = errorResponse(error);

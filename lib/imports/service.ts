@@ -31,6 +31,7 @@ import {
   type ContainerImportCounts,
   type LocationCounts,
 } from "./write";
+import { holdingWriteGate } from "@/lib/workers/write-gate";
 
 /** Refused because of problems in single cells; carries every one of them for the page to list. */
 export class ImportRejectedError extends DomainError {
@@ -110,18 +111,21 @@ export async function commitContainerImport(actor: SessionUser, file: ImportFile
   refuseEmpty(table.rows.length);
   // Immediate: the write lock is taken before the lookups are read, so nothing changes in between.
   const db = getDb();
-  return db.transaction(
-    (tx) => {
-      const validation = validateContainerRows(table, loadContainerLookups(tx));
-      const plan = planContainerImport(tx, validation.rows);
-      const issues = allIssues(validation.issues, plan.issues);
-      if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
-      const counts = writeContainerPlan(tx, db.$client, actor, plan, fileName);
-      const unitIds = [...plan.creates.map((row) => row.storageUnitId), ...plan.updates.flatMap((u) => [u.fromStorageUnitId, u.set.storageUnitId])];
-      reassessRooms(tx, roomsOfUnits(tx, unitIds), { reason: `import of ${fileName}` });
-      return counts;
-    },
-    { behavior: "immediate" },
+  // The write gate: the request thread waits for this without blocking (lib/workers/write-gate.ts).
+  return holdingWriteGate(() =>
+    db.transaction(
+      (tx) => {
+        const validation = validateContainerRows(table, loadContainerLookups(tx));
+        const plan = planContainerImport(tx, validation.rows);
+        const issues = allIssues(validation.issues, plan.issues);
+        if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
+        const counts = writeContainerPlan(tx, db.$client, actor, plan, fileName);
+        const unitIds = [...plan.creates.map((row) => row.storageUnitId), ...plan.updates.flatMap((u) => [u.fromStorageUnitId, u.set.storageUnitId])];
+        reassessRooms(tx, roomsOfUnits(tx, unitIds), { reason: `import of ${fileName}` });
+        return counts;
+      },
+      { behavior: "immediate" },
+    ),
   );
 }
 
@@ -148,15 +152,17 @@ export async function commitLocationImport(actor: SessionUser, file: ImportFile)
   const { fileName } = file;
   const table = await readImportFile(file);
   refuseEmpty(table.rows.length);
-  return getDb().transaction(
-    (tx) => {
-      const validation = validateLocationRows(table, loadLocationLookups(tx));
-      const plan = planLocationImport(tx, validation, table);
-      const issues = allIssues(validation.issues, plan.issues);
-      if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
-      return writeLocationPlan(tx, actor, plan, fileName);
-    },
-    { behavior: "immediate" },
+  return holdingWriteGate(() =>
+    getDb().transaction(
+      (tx) => {
+        const validation = validateLocationRows(table, loadLocationLookups(tx));
+        const plan = planLocationImport(tx, validation, table);
+        const issues = allIssues(validation.issues, plan.issues);
+        if (issues.length > 0) throw new ImportRejectedError(issues, validation.rowCount);
+        return writeLocationPlan(tx, actor, plan, fileName);
+      },
+      { behavior: "immediate" },
+    ),
   );
 }
 

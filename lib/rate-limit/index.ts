@@ -4,6 +4,7 @@ import { RateLimiterRes, RateLimiterSQLite } from "rate-limiter-flexible";
 import { getDb } from "@/db/client";
 import { rateLimitSettings, type RateLimitName } from "@/lib/config";
 import { minutesText, RateLimitedError } from "@/lib/errors";
+import { workerWritesDone } from "@/lib/workers/write-gate";
 
 /**
  * Limits on abuse, counted in the database (table `rate_limits`, created by a migration) so that
@@ -42,6 +43,8 @@ export type LimitOutcome = { allowed: true } | { allowed: false; retryAfterSecon
 
 /** Counts one use against a limit; over it, says how long until the window ends. */
 export async function consume(name: RateLimitName, key: string | number): Promise<LimitOutcome> {
+  // Counting is a write: wait (without blocking) while a worker is inside a long write.
+  await workerWritesDone();
   try {
     await limiter(name).consume(String(key));
     return { allowed: true };
@@ -85,11 +88,13 @@ export function refusal(retryAfterSeconds: number, what?: string): RateLimitedEr
 
 /** Forgets a key's count (a successful sign-in clears that account's failures from that address). */
 export async function resetLimit(name: RateLimitName, key: string | number): Promise<void> {
+  await workerWritesDone();
   await limiter(name).delete(String(key));
 }
 
 /** Gives back one counted use, never below zero (a successful sign-in does not count). */
 export async function refund(name: RateLimitName, key: string | number): Promise<void> {
+  await workerWritesDone();
   const current = await limiter(name).get(String(key));
   if (current && current.consumedPoints > 0) await limiter(name).reward(String(key), 1);
 }

@@ -50,6 +50,7 @@ import {
 } from "./csv";
 import { reassessRooms, roomsOfSensors } from "@/lib/assessment/service";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
+import { holdingWriteGate } from "@/lib/workers/write-gate";
 
 export const MAX_CSV_UPLOAD_BYTES = LOGGER_CSV_LIMITS.maxUploadBytes;
 /** An upload waits this long for its import; then it is deleted. */
@@ -560,52 +561,55 @@ export async function importCsvUpload(actor: SessionUser, sensorId: number, toke
     refuseEmpty(scan);
     if (scan.issueCount > 0) throw new CsvImportRejectedError(summaryOf(scan));
     const db = getDb();
-    result = db.transaction(
-      (tx) => {
-        const current = tx.select().from(sensors).where(eq(sensors.id, sensorId)).get();
-        if (!current) throw new NotFoundError("That sensor");
-        if (!current.active) throw new ConflictError(`Sensor ${current.externalId} was switched off meanwhile; nothing was imported.`);
-        // WHERE true: SQLite's grammar needs it between SELECT … and ON CONFLICT.
-        // Counted before the insert: afterwards every staged instant is stored.
-        const { conflicts } = db.$client
-          .prepare(`SELECT count(*) AS conflicts FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at WHERE r.temp_c <> s.temp_c`)
-          .get(sensorId) as { conflicts: number };
-        const accepted = db.$client
-          .prepare(`INSERT INTO readings (sensor_id, at, temp_c) SELECT ?, at, temp_c FROM temp.${scan.stage.name} WHERE true ORDER BY at ON CONFLICT (sensor_id, at) DO NOTHING`)
-          .run(sensorId).changes;
-        const alreadyStored = scan.readingCount - accepted;
-        const duplicates = alreadyStored + scan.repeatedInFile;
-        const remembered = toRememberedMapping(mapping);
-        tx.update(sensors).set({ csvMapping: remembered, timeZone: mapping.timeZone, updatedAt: new Date() }).where(eq(sensors.id, sensorId)).run();
-        // The staged minimum is at or before the earliest newly stored reading: detection from there finds the same.
-        const excursions = accepted > 0 && scan.firstAtMs !== null ? refreshExcursions(tx, [sensorId], { sinceMs: scan.firstAtMs, notify: true }) : { opened: 0, closed: 0, updated: 0 };
-        if (accepted > 0) reassessRooms(tx, roomsOfSensors(tx, [sensorId]), { reason: "uploaded temperature readings" });
-        recordAudit(tx, actor, {
-          action: "upload_readings",
-          entityType: "sensor",
-          entityId: sensorId,
-          summary:
-            `Uploaded ${formatCount(accepted)} reading${accepted === 1 ? "" : "s"} from ${meta.fileName} ` +
-            `(${duplicates === 0 ? "no duplicates" : `${formatCount(duplicates)} duplicate${duplicates === 1 ? "" : "s"} not stored again`}` +
-            `${conflicts === 0 ? "" : `, of which ${formatCount(conflicts)} differing from the stored reading, which was kept`})`,
-          before: { csvMapping: current.csvMapping, timeZone: current.timeZone },
-          after: {
-            fileName: meta.fileName,
-            sizeBytes: meta.sizeBytes,
-            rowCount: scan.rowCount,
-            accepted,
-            duplicates,
-            conflicts,
-            firstAt: scan.firstAtMs === null ? null : new Date(scan.firstAtMs).toISOString(),
-            lastAt: scan.lastAtMs === null ? null : new Date(scan.lastAtMs).toISOString(),
-            csvMapping: remembered,
-            timeZone: mapping.timeZone,
-            excursions,
-          },
-        });
-        return { accepted, duplicates, alreadyStored, conflicts, repeatedInFile: scan.repeatedInFile, rowCount: scan.rowCount, firstAtMs: scan.firstAtMs, lastAtMs: scan.lastAtMs, excursions };
-      },
-      { behavior: "immediate" },
+    // The write gate: the request thread waits for this without blocking (lib/workers/write-gate.ts).
+    result = holdingWriteGate(() =>
+      db.transaction(
+        (tx) => {
+          const current = tx.select().from(sensors).where(eq(sensors.id, sensorId)).get();
+          if (!current) throw new NotFoundError("That sensor");
+          if (!current.active) throw new ConflictError(`Sensor ${current.externalId} was switched off meanwhile; nothing was imported.`);
+          // WHERE true: SQLite's grammar needs it between SELECT … and ON CONFLICT.
+          // Counted before the insert: afterwards every staged instant is stored.
+          const { conflicts } = db.$client
+            .prepare(`SELECT count(*) AS conflicts FROM temp.${scan.stage.name} s JOIN readings r ON r.sensor_id = ? AND r.at = s.at WHERE r.temp_c <> s.temp_c`)
+            .get(sensorId) as { conflicts: number };
+          const accepted = db.$client
+            .prepare(`INSERT INTO readings (sensor_id, at, temp_c) SELECT ?, at, temp_c FROM temp.${scan.stage.name} WHERE true ORDER BY at ON CONFLICT (sensor_id, at) DO NOTHING`)
+            .run(sensorId).changes;
+          const alreadyStored = scan.readingCount - accepted;
+          const duplicates = alreadyStored + scan.repeatedInFile;
+          const remembered = toRememberedMapping(mapping);
+          tx.update(sensors).set({ csvMapping: remembered, timeZone: mapping.timeZone, updatedAt: new Date() }).where(eq(sensors.id, sensorId)).run();
+          // The staged minimum is at or before the earliest newly stored reading: detection from there finds the same.
+          const excursions = accepted > 0 && scan.firstAtMs !== null ? refreshExcursions(tx, [sensorId], { sinceMs: scan.firstAtMs, notify: true }) : { opened: 0, closed: 0, updated: 0 };
+          if (accepted > 0) reassessRooms(tx, roomsOfSensors(tx, [sensorId]), { reason: "uploaded temperature readings" });
+          recordAudit(tx, actor, {
+            action: "upload_readings",
+            entityType: "sensor",
+            entityId: sensorId,
+            summary:
+              `Uploaded ${formatCount(accepted)} reading${accepted === 1 ? "" : "s"} from ${meta.fileName} ` +
+              `(${duplicates === 0 ? "no duplicates" : `${formatCount(duplicates)} duplicate${duplicates === 1 ? "" : "s"} not stored again`}` +
+              `${conflicts === 0 ? "" : `, of which ${formatCount(conflicts)} differing from the stored reading, which was kept`})`,
+            before: { csvMapping: current.csvMapping, timeZone: current.timeZone },
+            after: {
+              fileName: meta.fileName,
+              sizeBytes: meta.sizeBytes,
+              rowCount: scan.rowCount,
+              accepted,
+              duplicates,
+              conflicts,
+              firstAt: scan.firstAtMs === null ? null : new Date(scan.firstAtMs).toISOString(),
+              lastAt: scan.lastAtMs === null ? null : new Date(scan.lastAtMs).toISOString(),
+              csvMapping: remembered,
+              timeZone: mapping.timeZone,
+              excursions,
+            },
+          });
+          return { accepted, duplicates, alreadyStored, conflicts, repeatedInFile: scan.repeatedInFile, rowCount: scan.rowCount, firstAtMs: scan.firstAtMs, lastAtMs: scan.lastAtMs, excursions };
+        },
+        { behavior: "immediate" },
+      ),
     );
   } finally {
     scan.stage.drop();

@@ -9,6 +9,7 @@ import { readingLimits } from "@/lib/config";
 import { log } from "@/lib/log";
 import { refreshExcursions, type RefreshResult } from "./excursion-store";
 import { formatInstantUtc, instantProblem, parseOffsetInstant, temperatureProblem, type ReadingLimits } from "./plausible";
+import { holdingWriteGate } from "@/lib/workers/write-gate";
 
 export const MAX_READINGS_PER_BATCH = 10_000;
 
@@ -120,7 +121,8 @@ export function ingestReadings(rawRows: unknown[], options: { limits?: ReadingLi
   }
   if (errors.length) throw new BatchRejectedError(errors.sort((a, b) => a.index - b.index));
 
-  return db.transaction((tx) => {
+  // The write gate: in a worker thread (big batches), the request thread waits for this without blocking.
+  return holdingWriteGate(() => db.transaction((tx) => {
     const insert = preparedOn(tx, "INSERT INTO readings (sensor_id, at, temp_c) VALUES (?, ?, ?) ON CONFLICT (sensor_id, at) DO NOTHING");
     const stored = preparedOn(tx, "SELECT temp_c AS tempC FROM readings WHERE sensor_id = ? AND at = ?");
     let accepted = 0;
@@ -149,5 +151,5 @@ export function ingestReadings(rawRows: unknown[], options: { limits?: ReadingLi
       sensorIds,
       excursions: excursionChanges,
     };
-  });
+  }));
 }

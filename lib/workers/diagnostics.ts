@@ -4,6 +4,7 @@
  */
 import { getDb } from "@/db/client";
 import { DomainError, ValidationError } from "@/lib/errors";
+import { holdingWriteGate } from "./write-gate";
 
 export const diagnosticTasks = {
   /** Keeps the worker's thread busy for `ms` without yielding; returns how many loops it made. */
@@ -18,12 +19,28 @@ export const diagnosticTasks = {
     getDb().$client.prepare("insert into settings (key, value) values (?, ?) on conflict (key) do update set value = excluded.value").run(key, JSON.stringify(value));
     return { key };
   },
-  /** Starts a write transaction, writes a row, and ends the thread before it commits. */
+  /** A long write: holds SQLite's write lock for `ms` (with the write gate raised unless `gate` is false), then commits a row. */
+  "diagnostics.longWrite": ({ key, ms, gate = true }: { key: string; ms: number; gate?: boolean }) => {
+    const sqlite = getDb().$client;
+    const write = sqlite.transaction(() => {
+      sqlite.prepare("insert into settings (key, value) values (?, '1') on conflict (key) do update set value = excluded.value").run(key);
+      const until = performance.now() + ms;
+      while (performance.now() < until) {
+        // holding the lock
+      }
+    });
+    if (gate) holdingWriteGate(() => write.immediate());
+    else write.immediate();
+    return { key };
+  },
+  /** Starts a write transaction (with the write gate raised), writes a row, and ends the thread before it commits. */
   "diagnostics.exitInTransaction": ({ key }: { key: string }) => {
     const sqlite = getDb().$client;
-    sqlite.prepare("begin immediate").run();
-    sqlite.prepare("insert into settings (key, value) values (?, '1')").run(key);
-    process.exit(3);
+    holdingWriteGate(() => {
+      sqlite.prepare("begin immediate").run();
+      sqlite.prepare("insert into settings (key, value) values (?, '1')").run(key);
+      process.exit(3);
+    });
   },
   /** Allocates until the heap limit ends the thread. */
   "diagnostics.exhaustMemory": () => {

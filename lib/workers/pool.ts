@@ -8,6 +8,7 @@ import { uploadDir } from "@/lib/config";
 import { DomainError } from "@/lib/errors";
 import { log } from "@/lib/log";
 import { reviveError } from "./errors";
+import { clearWriteGate, writeGateBuffer } from "./write-gate";
 import type { Tasks } from "./tasks";
 import type { TaskMessage, TaskOutcome } from "./worker";
 
@@ -65,10 +66,14 @@ export function createWorkerPool(options: WorkerPoolOptions = {}): Piscina<TaskM
     atomics: "disabled",
     resourceLimits: { maxOldGenerationSizeMb },
     // Assessments digest their inputs with this process's key; the threads use the same one.
-    workerData: { assessmentKey: PROCESS_KEY },
+    // …and raise the write gate (lib/workers/write-gate.ts) around their long write transactions.
+    workerData: { assessmentKey: PROCESS_KEY, writeGate: writeGateBuffer() },
   });
   // A thread that fails with no task running is replaced; the event must not end the process.
-  pool.on("error", (error) => log.error({ err: error }, "a worker thread failed"));
+  pool.on("error", (error) => {
+    clearWriteGate();
+    log.error({ err: error }, "a worker thread failed");
+  });
   return pool;
 }
 
@@ -135,6 +140,8 @@ export async function runNamedTask(name: string, args: unknown, options: RunOpti
     if (reason === "Task queue is at limit") throw new ServerBusyError();
     if (error instanceof Error && error.name === "AbortError") throw error;
     const outOfMemory = (error as { code?: string }).code === "ERR_WORKER_OUT_OF_MEMORY";
+    // It may have died inside a write transaction (SQLite rolled it back): the gate must not stay up.
+    clearWriteGate();
     log.error({ err: error, task: name }, "a worker thread stopped while running a task");
     throw new WorkerStoppedError(name, reason, outOfMemory);
   }

@@ -11,7 +11,8 @@ import { MessageChannel } from "node:worker_threads";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import ExcelJS from "exceljs";
-import { getDb } from "@/db/client";
+import Database from "better-sqlite3";
+import { databasePath, getDb } from "@/db/client";
 import { auditEvents, jobs, readings, rooms, sensors, settings, sites, storageUnits, type User } from "@/db/schema";
 import * as exportRoute from "@/app/api/v1/exports/register.xlsx/route";
 import * as readingsRoute from "@/app/api/v1/readings/route";
@@ -24,8 +25,10 @@ import { ImportFileError } from "@/lib/imports/errors";
 import { BatchRejectedError } from "@/lib/temperatures/ingest";
 import { closeWorkerPool, createWorkerPool, runNamedTask, runTask, WorkerStoppedError } from "@/lib/workers/pool";
 import { readableFromPort } from "@/lib/workers/port-stream";
+import { writeGateRaised } from "@/lib/workers/write-gate";
+import * as sitesRoute from "@/app/api/v1/sites/route";
 import { buildWorkerBundle } from "@/scripts/build-workers";
-import { makeUser, sessionCookieFor } from "./helpers/world";
+import { call, makeUser, sessionCookieFor } from "./helpers/world";
 
 const FINDING_COUNT = 3_000;
 const TRACE_TEXT_BYTES = 3_000;
@@ -105,7 +108,8 @@ describe("a task in a worker thread", () => {
     expect(stopped).toBeInstanceOf(WorkerStoppedError);
     expect(stopped).toMatchObject({ code: "worker_stopped", status: 500, task: "diagnostics.exitInTransaction", reason: "worker exited with code: 3" });
     expect(getDb().select().from(settings).where(eq(settings.key, "worker.crashed")).get()).toBeUndefined();
-    // The dead thread's write lock is gone: this connection writes, and so does the next task.
+    // The dead thread's write lock is gone, and so is its write gate: this connection writes, and so does the next task.
+    expect(writeGateRaised()).toBe(false);
     getDb().insert(settings).values({ key: "worker.main-after-crash", value: 1 }).run();
     await runNamedTask("diagnostics.write", { key: "worker.after-crash", value: 2 });
     expect(getDb().select().from(settings).where(eq(settings.key, "worker.after-crash")).get()?.value).toBe(2);
@@ -143,6 +147,61 @@ describe("a task in a worker thread", () => {
     }
     expect(ticks).toBeGreaterThan(50);
     expect(largestGapMs).toBeLessThan(200);
+  });
+
+  it("lets a write on the request thread wait for a worker's long write without stopping the event loop", async () => {
+    const cookie = await sessionCookieFor(admin);
+    await runNamedTask("diagnostics.busy", { ms: 1 }); // a thread is up
+    const tick = () => {
+      let last = performance.now();
+      const gap = { largestMs: 0 };
+      const timer = setInterval(() => {
+        const now = performance.now();
+        gap.largestMs = Math.max(gap.largestMs, now - last);
+        last = now;
+      }, 5);
+      const stop = () => {
+        // A block that ends just before stop() is seen here, not by the timer.
+        gap.largestMs = Math.max(gap.largestMs, performance.now() - last);
+        clearInterval(timer);
+      };
+      return { gap, stop };
+    };
+    const createSite = (name: string) =>
+      call(sitesRoute.POST, { method: "POST", path: "/api/v1/sites", cookie, body: { name } });
+
+    // With the gate: the worker holds the write lock for 1.2 s; the route's write waits for it
+    // asynchronously and lands after it, while this thread's timers keep firing.
+    const ticking = tick();
+    const longWrite = runNamedTask("diagnostics.longWrite", { key: "worker.long-write", ms: 1_200 });
+    while (!writeGateRaised()) await new Promise((resolve) => setTimeout(resolve, 2));
+    const created = await createSite("Gate test campus");
+    ticking.stop();
+    await longWrite;
+    expect(created.status).toBe(201);
+    expect(getDb().select().from(settings).where(eq(settings.key, "worker.long-write")).get()).toBeDefined();
+    expect(ticking.gap.largestMs).toBeLessThan(150);
+    expect(writeGateRaised()).toBe(false);
+
+    // Without the gate the same write waits in SQLite's busy handler, and the whole thread with it.
+    const blocked = tick();
+    const ungated = runNamedTask("diagnostics.longWrite", { key: "worker.ungated", ms: 600, gate: false });
+    // Until the worker holds the write lock (a second connection that does not wait sees it busy).
+    const probe = new Database(databasePath(), { timeout: 0 });
+    const locked = () => {
+      try {
+        probe.exec("BEGIN IMMEDIATE; ROLLBACK");
+        return false;
+      } catch {
+        return true;
+      }
+    };
+    while (!locked()) await new Promise((resolve) => setTimeout(resolve, 2));
+    probe.close();
+    expect((await createSite("Blocked campus")).status).toBe(201);
+    blocked.stop();
+    await ungated;
+    expect(blocked.gap.largestMs).toBeGreaterThan(250);
   });
 });
 
