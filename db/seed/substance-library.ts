@@ -132,7 +132,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 465,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67641.html (LEL)",
+        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67641.html (LEL); Haz-Map agent 138 (excerpts of the NIOSH IDLH documentation): IDLH 2,500 ppm = 10 % LEL",
         lflVolPercent: 2.5,
       },
     ],
@@ -240,7 +240,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 385,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67561.html (LEL 6.0 %)",
+        source: "NIOSH IDLH documentation, methyl alcohol (May 1994), https://www.cdc.gov/niosh/idlh/67561.html: LEL 6.0 % (10 % LEL, 6,000 ppm)",
         lflVolPercent: 6,
       },
     ],
@@ -558,7 +558,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 413,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/71238.html (LEL)",
+        source: "NIOSH IDLH documentation, n-propyl alcohol (May 1994), https://www.cdc.gov/niosh/idlh/71238.html: LEL 2.2 % (10 % LEL, 2,200 ppm)",
         lflVolPercent: 2.2,
       },
     ],
@@ -753,7 +753,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 160,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/60297.html; OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_240480.html (IDLH 1,900 ppm [LEL])",
+        source: "NIOSH IDLH documentation, ethyl ether (May 1994), https://www.cdc.gov/niosh/idlh/60297.html: LEL 1.9 % (10 % LEL, 1,900 ppm)",
         lflVolPercent: 1.9,
       },
     ],
@@ -965,7 +965,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 180,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/123911.html (LEL 2.0 %)",
+        source: "NIOSH IDLH documentation, dioxane (May 1994), https://www.cdc.gov/niosh/idlh/123911.html: LEL 2.0 % (10 % LEL, 2,000 ppm)",
         lflVolPercent: 2,
       },
     ],
@@ -1066,7 +1066,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 427,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/141786.html (LEL)",
+        source: "NIOSH IDLH documentation, ethyl acetate (May 1994), http://www.cdc.gov/niosh/idlh/141786.html: LEL 2.0 % (10 % LEL, 2,000 ppm)",
         lflVolPercent: 2,
       },
     ],
@@ -1172,7 +1172,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 454,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/79209.html (LEL)",
+        source: "NIOSH IDLH documentation, methyl acetate (May 1994), https://www.cdc.gov/niosh/idlh/79209.html: LEL 3.1 % (10 % LEL, 3,100 ppm)",
         lflVolPercent: 3.1,
       },
     ],
@@ -1270,7 +1270,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 524,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/75058.html (LEL)",
+        source: "NIOSH IDLH documentation, acetonitrile (May 1994), http://www.cdc.gov/niosh/idlh/75058.html: LEL 3.0 % (10 % LEL, 3,000 ppm)",
         lflVolPercent: 3,
       },
     ],
@@ -1360,7 +1360,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     liquidDensityGPerMl: 1.3266,
     alternativeFlammability: [
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/75092.html (LEL 13 %)",
+        source: "NIOSH IDLH documentation, methylene chloride (May 1994), http://www.cdc.gov/niosh/idlh/75092.html: LEL 13 % (10 % LEL, 13,000 ppm)",
         lflVolPercent: 13,
       },
     ],
@@ -2389,7 +2389,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 243,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/109660.html (LEL 1.5 %)",
+        source: "NIOSH IDLH documentation, n-pentane (May 1994), http://www.cdc.gov/niosh/idlh/109660.html: LEL 1.5 % (10 % LEL, 1,500 ppm)",
         lflVolPercent: 1.5,
       },
     ],
@@ -2672,7 +2672,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 204,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/142825.html (LEL)",
+        source: "NIOSH IDLH documentation, n-heptane (May 1994), http://www.cdc.gov/niosh/idlh/142825.html: LEL 1.05 % (10 % LEL, 1,050 ppm)",
         lflVolPercent: 1.05,
       },
     ],
@@ -2771,7 +2771,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 245,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/110827.html (LEL)",
+        source: "NIOSH IDLH documentation, cyclohexane (May 1994), http://www.cdc.gov/niosh/idlh/110827.html: LEL 1.3 % (10 % LEL, 1,300 ppm)",
         lflVolPercent: 1.3,
       },
     ],
@@ -2957,7 +2957,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 90,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75150.html (LEL)",
+        source: "NIOSH IDLH documentation, carbon disulfide (May 1994), https://www.cdc.gov/niosh/idlh/75150.html: LEL 1.3 % (10 % LEL, 1,300 ppm)",
         lflVolPercent: 1.3,
       },
     ],
@@ -3051,7 +3051,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 175,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75070.html (LEL 4.0 %)",
+        source: "NIOSH IDLH documentation, acetaldehyde (May 1994), https://www.cdc.gov/niosh/idlh/75070.html: LEL 4.0 % (10 % LEL, 4,000 ppm)",
         lflVolPercent: 4,
       },
     ],
@@ -3257,7 +3257,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 434,
       },
       {
-        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/64186.html (LEL)",
+        source: "NIOSH IDLH documentation, formic acid (May 1994), https://beta.cdc.gov/niosh/idlh/64186.html: LEL of the 90 % solution 18 % (10 % LEL, 18,000 ppm)",
         lflVolPercent: 18,
       },
     ],
@@ -3346,7 +3346,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 482,
       },
       {
-        source: "The Merck Index monograph \"Pyridine\" (druglead.com/cds/pyridine.html): flash point 68 °F (20 °C); NTP Chemical Repository page, pyridine: UEL 12.4 %; NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/110861.html: LEL",
+        source: "NTP Chemical Repository (Radian Corp., Aug. 29 1991), pyridine, https://igsvtu.lanuv.nrw.de/igs80s/content/shared/de/docs/ntp/110861.htm: flash point 20 °C (68 °F), LEL 1.8 %, UEL 12.4 %; the flash point agrees with The Merck Index monograph \"Pyridine\" (68 °F) and the LEL with the NIOSH IDLH documentation, pyridine (May 1994), http://www.cdc.gov/niosh/idlh/110861.html",
         flashPointC: 20,
         lflVolPercent: 1.8,
         uflVolPercent: 12.4,
@@ -3441,7 +3441,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 249,
       },
       {
-        source: "NIOSH IDLH documentation (mirror http://niosh.dnacih.com/nioshdbs/idlh/121448.htm) (LEL)",
+        source: "NIOSH IDLH documentation, triethylamine (May 1994; copy at http://niosh.dnacih.com/nioshdbs/idlh/121448.htm): LEL 1.2 % (10 % LEL, 1,200 ppm)",
         lflVolPercent: 1.2,
       },
     ],
@@ -3540,7 +3540,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 455,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/68122.html (LEL, at 212 °F)",
+        source: "NIOSH IDLH documentation, dimethylformamide (May 1994), https://www.cdc.gov/niosh/idlh/68122.html: LEL at 212 °F 2.2 % (10 % LEL, 2,200 ppm)",
         lflVolPercent: 2.2,
       },
     ],
@@ -3755,7 +3755,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 418,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75525.html (LEL)",
+        source: "NIOSH IDLH documentation, nitromethane (May 1994), https://www.cdc.gov/niosh/idlh/75525.html: LEL 7.3 % (10 % LEL, 7,300 ppm)",
         lflVolPercent: 7.3,
       },
     ],
@@ -3862,7 +3862,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 404,
       },
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/78933.html (LEL, at 200 °F)",
+        source: "NIOSH IDLH documentation, 2-butanone (May 1994), http://www.cdc.gov/niosh/idlh/78933.html: LEL at 200 °F 1.4 % (10 % LEL, 1,400 ppm)",
         lflVolPercent: 1.4,
       },
     ],
@@ -3960,7 +3960,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     liquidDensityGPerMl: 0.7965,
     alternativeFlammability: [
       {
-        source: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/108101.html (LEL, at 200 °F)",
+        source: "NIOSH IDLH documentation, hexone (May 1994), http://www.cdc.gov/niosh/idlh/108101.html: LEL at 200 °F 1.2 % (10 % LEL, 1,200 ppm)",
         lflVolPercent: 1.2,
       },
     ],
@@ -4073,7 +4073,7 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 413,
       },
       {
-        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/107062.html (LEL)",
+        source: "NIOSH IDLH documentation, ethylene dichloride (May 1994), https://www.cdc.gov/niosh/idlh/107062.html: LEL 6.2 % (10 % LEL, 6,200 ppm)",
         lflVolPercent: 6.2,
       },
     ],
