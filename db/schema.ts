@@ -304,7 +304,6 @@ export type SubstanceAlternative = {
   lflVolPercent?: number;
   uflVolPercent?: number;
   autoignitionC?: number;
-  recalledFromMemory?: string[];
 };
 
 /** Stored form of a vapor-pressure correlation (mirrors lib/hazard's VaporPressureCorrelation). */

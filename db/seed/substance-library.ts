@@ -1,8 +1,8 @@
 import type { VaporPressureCorrelation } from '@/lib/hazard';
 
 // Substance library seed: pure data. Every value carries its source in `sources` (field name →
-// source text); each correlation and each exposure limit also carries its own. Values marked
-// "recalled from memory" must be verified before anyone relies on them.
+// source text); each correlation and each exposure limit also carries its own. Liquid densities are the
+// CRC Handbook values at the temperature the table gives (18–25 °C), stated with each.
 //
 // Correlations are in order of preference: a set whose range covers 20 °C first, then Perry's
 // wide-range DIPPR-101 set, so that freezer (−20 °C) and warm-storeroom (40 °C) temperatures are
@@ -27,8 +27,6 @@ export type SeedFlammabilityAlternative = {
   lflVolPercent?: number;
   uflVolPercent?: number;
   autoignitionC?: number;
-  /** Fields in this entry that were recalled from memory rather than read. */
-  recalledFromMemory?: string[];
 };
 
 export type SubstanceSeed = {
@@ -47,7 +45,7 @@ export type SubstanceSeed = {
   lflVolPercent?: number;
   uflVolPercent?: number;
   autoignitionC?: number;
-  /** Near 20 °C, to turn container volumes into masses. */
+  /** Near room temperature (the CRC table's 18–25 °C, stated in the source), to turn container volumes into masses. */
   liquidDensityGPerMl?: number;
   /** Cryogens: density of the liquid at its boiling point. */
   liquidDensityKgPerM3?: number;
@@ -124,7 +122,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.79,
+    liquidDensityGPerMl: 0.7845,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -134,11 +132,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 465,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry (https://www.cdc.gov/niosh/npg/npgd0004.html) not read (memory); NTP Chemical Repository page (igsvtu.lanuv.nrw.de/.../ntp/67641.htm) gives 180 mm Hg @ 20 C, UEL 12.8%",
-        flashPointC: -17.8,
+        source: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67641.html (LEL); Haz-Map agent 138 (excerpts of the NIOSH IDLH documentation): IDLH 2,500 ppm = 10 % LEL",
         lflVolPercent: 2.5,
-        uflVolPercent: 12.8,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -147,7 +142,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -160,7 +155,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67641.html (REL, current PEL, LEL, revised IDLH); OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_216600.html (PEL 29 CFR 1910.1000 Z-1)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7845 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -235,7 +230,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.791,
+    liquidDensityGPerMl: 0.7914,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -245,11 +240,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 385,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); NAS Prudent Practices LCSS (nap.edu record 4911 p.352) gives 96 mmHg at 20 C",
-        flashPointC: 11.1,
+        source: "NIOSH IDLH documentation, methyl alcohol (May 1994), https://www.cdc.gov/niosh/idlh/67561.html: LEL 6.0 % (10 % LEL, 6,000 ppm)",
         lflVolPercent: 6,
-        uflVolPercent: 36,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -258,7 +250,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -271,7 +263,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/67561.html (REL TWA/STEL [skin], PEL, LEL 6.0%); IDLH 6000 ppm per Haz-Map/NLM excerpt of NIOSH (webarchive hazmap id=13) and =10% LEL",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7914 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -339,7 +331,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.789,
+    liquidDensityGPerMl: 0.7893,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -361,7 +353,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -374,7 +366,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG npgd0262 (mirror https://986742.kipptkehk.tech/csi/files/NPG_only/npgd0262.htm of https://www.cdc.gov/niosh/npg/npgd0262.html); IDLH doc https://www.cdc.gov/niosh/idlh/64175.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7893 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -449,7 +441,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.785,
+    liquidDensityGPerMl: 0.7809,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -469,7 +461,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -482,7 +474,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG npgd0359 (mirror http://medbox.iiab.me/modules/en-cdc/www.cdc.gov/niosh/npg/npgd0359.html); IDLH doc https://www.cdc.gov/niosh/idlh/67630.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7809 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -556,7 +548,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.803,
+    liquidDensityGPerMl: 0.7997,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -566,18 +558,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 413,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); LEL from IDLH doc",
-        flashPointC: 22.2,
+        source: "NIOSH IDLH documentation, n-propyl alcohol (May 1994), https://www.cdc.gov/niosh/idlh/71238.html: LEL 2.2 % (10 % LEL, 2,200 ppm)",
         lflVolPercent: 2.2,
-        uflVolPercent: 13.7,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
-    notes: ["NPG VP/FP/UEL from memory."],
+    notes: [],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -590,7 +579,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/71238.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7997 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -658,7 +647,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.81,
+    liquidDensityGPerMl: 0.8095,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -680,7 +669,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -693,7 +682,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG npgd0076 (mirror http://med.iiab.me/modules/en-cdc/www.cdc.gov/niosh/npg/npgd0076.html); IDLH doc https://cdc.gov/niosh/idlh/71363.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8095 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -754,7 +743,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.713,
+    liquidDensityGPerMl: 0.7138,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -764,11 +753,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 160,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry (https://www.cdc.gov/niosh/npg/npgd0277.html) not read (memory); NAS LCSS (nap.edu 4911 p.296) gives 442 mmHg at 20 C",
-        flashPointC: -45,
+        source: "NIOSH IDLH documentation, ethyl ether (May 1994), https://www.cdc.gov/niosh/idlh/60297.html: LEL 1.9 % (10 % LEL, 1,900 ppm)",
         lflVolPercent: 1.9,
-        uflVolPercent: 36,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -777,7 +763,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -790,7 +776,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_240480.html (PEL 400 TWA; NIOSH REL: Appendix D, none established; IDLH 1,900 ppm [LEL]); IDLH doc https://www.cdc.gov/niosh/idlh/60297.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7138 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -839,33 +825,33 @@ export const substanceLibrary: SubstanceSeed[] = [
         value: 200,
         unit: "ppm",
         body: "OSHA",
-        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (REL, PEL, LEL 2%); revised IDLH 2000 ppm not in excerpt read (memory; = 10% LEL)",
+        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (May 1994): NIOSH REL 200 ppm TWA, 250 ppm STEL; current OSHA PEL 200 ppm TWA; LEL 2 % (10 % LEL, 2,000 ppm)",
       },
       {
         kind: "TWA",
         value: 200,
         unit: "ppm",
         body: "NIOSH",
-        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (REL, PEL, LEL 2%); revised IDLH 2000 ppm not in excerpt read (memory; = 10% LEL)",
+        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (May 1994): NIOSH REL 200 ppm TWA, 250 ppm STEL; current OSHA PEL 200 ppm TWA; LEL 2 % (10 % LEL, 2,000 ppm)",
       },
       {
         kind: "STEL",
         value: 250,
         unit: "ppm",
         body: "NIOSH",
-        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (REL, PEL, LEL 2%); revised IDLH 2000 ppm not in excerpt read (memory; = 10% LEL)",
+        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (May 1994): NIOSH REL 200 ppm TWA, 250 ppm STEL; current OSHA PEL 200 ppm TWA; LEL 2 % (10 % LEL, 2,000 ppm)",
       },
       {
         kind: "IDLH",
         value: 2000,
         unit: "ppm",
         body: "NIOSH",
-        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (REL, PEL, LEL 2%); revised IDLH 2000 ppm not in excerpt read (memory; = 10% LEL)",
-        note: "[10%LEL]; value recalled from memory (= 10 % of the LFL), not read",
+        source: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (May 1994): NIOSH REL 200 ppm TWA, 250 ppm STEL; current OSHA PEL 200 ppm TWA; LEL 2 % (10 % LEL, 2,000 ppm); Haz-Map agent 649 (excerpts of the NIOSH IDLH documentation): IDLH = 10 % LEL",
+        note: "[10%LEL]",
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.889,
+    liquidDensityGPerMl: 0.8833,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -882,12 +868,12 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     notes: [
-      "IDLH 2000 ppm from memory (=10% of LEL 2%); REL/PEL/LEL read on IDLH doc. IEC LFL 1.5% vs NPG 2%.",
+      "IDLH 2,000 ppm = 10 % of the LEL 2 % (NIOSH IDLH documentation, May 1994). IEC LFL 1.5 % vs NPG 2 %.",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -898,9 +884,9 @@ export const substanceLibrary: SubstanceSeed[] = [
       uflVolPercent: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       autoignitionC: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
-      exposureLimits: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (REL, PEL, LEL 2%); revised IDLH 2000 ppm not in excerpt read (memory; = 10% LEL)",
+      exposureLimits: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/109999.html (May 1994): NIOSH REL 200 ppm TWA, 250 ppm STEL; current OSHA PEL 200 ppm TWA; LEL 2 % (10 % LEL, 2,000 ppm)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8833 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -969,7 +955,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.033,
+    liquidDensityGPerMl: 1.0337,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -979,11 +965,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 180,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: 12.8,
+        source: "NIOSH IDLH documentation, dioxane (May 1994), https://www.cdc.gov/niosh/idlh/123911.html: LEL 2.0 % (10 % LEL, 2,000 ppm)",
         lflVolPercent: 2,
-        uflVolPercent: 22,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -992,7 +975,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1005,7 +988,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/123911.html (REL 1 ppm 30-minute CEILING, Ca; PEL 100 ppm TWA [skin]; LEL 2.0%; revised IDLH 500 ppm)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.0337 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1073,7 +1056,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.902,
+    liquidDensityGPerMl: 0.9003,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -1083,18 +1066,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 427,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); NAS LCSS (nap.edu 4911 p.312) gives 76 mmHg at 20 C",
-        flashPointC: -4.4,
+        source: "NIOSH IDLH documentation, ethyl acetate (May 1994), http://www.cdc.gov/niosh/idlh/141786.html: LEL 2.0 % (10 % LEL, 2,000 ppm)",
         lflVolPercent: 2,
-        uflVolPercent: 11.5,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1107,7 +1087,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/141786.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.9003 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1182,7 +1162,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.932,
+    liquidDensityGPerMl: 0.9342,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -1192,18 +1172,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 454,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -10,
+        source: "NIOSH IDLH documentation, methyl acetate (May 1994), https://www.cdc.gov/niosh/idlh/79209.html: LEL 3.1 % (10 % LEL, 3,100 ppm)",
         lflVolPercent: 3.1,
-        uflVolPercent: 16,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1216,7 +1193,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/79209.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.9342 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1283,7 +1260,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.786,
+    liquidDensityGPerMl: 0.7857,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -1293,11 +1270,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 524,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: 5.6,
+        source: "NIOSH IDLH documentation, acetonitrile (May 1994), http://www.cdc.gov/niosh/idlh/75058.html: LEL 3.0 % (10 % LEL, 3,000 ppm)",
         lflVolPercent: 3,
-        uflVolPercent: 16,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -1306,7 +1280,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1319,7 +1293,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/75058.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7857 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1383,22 +1357,20 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.326,
+    liquidDensityGPerMl: 1.3266,
     alternativeFlammability: [
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); NTP repository (pseudopodium.com/.../Radian75-09-2.txt) gives 440 mm Hg @ 25 C; NPG lists Fl.P as \"?\"",
+        source: "NIOSH IDLH documentation, methylene chloride (May 1994), http://www.cdc.gov/niosh/idlh/75092.html: LEL 13 % (10 % LEL, 13,000 ppm)",
         lflVolPercent: 13,
-        uflVolPercent: 23,
-        recalledFromMemory: ["uflVolPercent"],
       },
     ],
     notes: [
-      "OSHA PEL from 29 CFR 1910.1052 (25 ppm TWA, 125 ppm STEL, action level 12.5 ppm); the 1994 NIOSH IDLH document still lists the superseded 500/1000/2000 ppm PEL. No NIOSH REL (Ca). No flash point in IEC/NFPA tables (NPG lists Fl.P \"?\" - memory); LEL 13%.",
+      "OSHA PEL from 29 CFR 1910.1052 (25 ppm TWA, 125 ppm STEL, action level 12.5 ppm); the 1994 NIOSH IDLH document still lists the superseded 500/1000/2000 ppm PEL. No NIOSH REL (Ca). No flash point in IEC/NFPA tables; LEL 13 % (NIOSH IDLH documentation).",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1411,7 +1383,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "OSHA 29 CFR 1910.1052 (1997): 25 ppm TWA, 125 ppm 15-min STEL (read on ECU EHS summary https://oehs.ecu.edu/?p=5431); NIOSH: no REL, potential occupational carcinogen; IDLH 2,300 ppm and LEL 13% from IDLH doc http://www.cdc.gov/niosh/idlh/75092.html (that 1994 page still lists the superseded 500/1000/2000 ppm PEL)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.3266 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1476,7 +1448,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.489,
+    liquidDensityGPerMl: 1.4788,
     alternativeFlammability: [],
     notes: [
       "Noncombustible (no FP/LFL/UFL). REL is a 60-minute STEL (2 ppm), Ca. PEL is a ceiling (50 ppm).",
@@ -1484,7 +1456,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1497,7 +1469,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG npgd0127 (mirror http://medbox.iiab.me/modules/en-cdc/www.cdc.gov/niosh/npg/npgd0127.html): REL Ca ST 2 ppm [60-minute]; PEL C 50 ppm; IDLH doc http://www.cdc.gov/niosh/idlh/67663.html (revised IDLH 500 ppm)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.4788 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1577,7 +1549,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1590,7 +1562,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "OSHA CSI (webarchive of https://www.osha.gov/dts/chemicalsampling/data/CH_225800.html): Z-2 10 ppm TWA, 25 ppm ceiling, 200 ppm peak; NIOSH REL 2 ppm 60-min STEL, Ca; IDLH 200 ppm; IDLH doc mirror jasem.chiachoob.com/niosh/idlh/56235.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.5940 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1672,7 +1644,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.877,
+    liquidDensityGPerMl: 0.8765,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -1694,7 +1666,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1707,7 +1679,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG npgd0049 (mirror http://niosh.dnacih.com/nioshdbs/npg/NPGD0049.HTM; also CCOHS sample http://www.ccohs.ca/products/databases/samples/npg.html): REL Ca TWA 0.1 ST 1; PEL [29 CFR 1910.1028] TWA 1 ST 5; IDLH Ca [500 ppm]",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8765 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1788,7 +1760,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.867,
+    liquidDensityGPerMl: 0.8623,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -1808,7 +1780,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1821,7 +1793,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG 2007 print (fliphtml5 https://fliphtml5.com/lnkmc/sngp/NIOSH_Pocket_Guide_to_Chemical_Hazards/341, book p.311): PEL TWA 200 ppm, C 300 ppm, 500 ppm 10-minute maximum peak",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8623 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1895,15 +1867,8 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.88,
+    liquidDensityGPerMl: 0.8755,
     alternativeFlammability: [
-      {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG (o-/m-/p-xylene) not read (memory)",
-        flashPointC: 32.2,
-        lflVolPercent: 0.9,
-        uflVolPercent: 6.7,
-        recalledFromMemory: ["flashPointC", "lflVolPercent", "uflVolPercent"],
-      },
     ],
     notes: [
       "OEL values are for xylenes (o-, m-, p-) collectively. Poling set Tmin 312.75 K (above room T); extrapolation needed below 40 C or use Perry DIPPR-101.",
@@ -1911,7 +1876,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -1924,7 +1889,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation (all three isomers) https://www.cdc.gov/niosh/idlh/95476.html (REL 100 TWA/150 STEL, PEL 100 TWA, LEL 0.9-1.1%); IDLH 900 ppm from OSHA CSI (webarchive of https://www.osha.gov/dts/chemicalsampling/data/CH_276400.html)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8755 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -1998,15 +1963,8 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.864,
+    liquidDensityGPerMl: 0.8598,
     alternativeFlammability: [
-      {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG (o-/m-/p-xylene) not read (memory)",
-        flashPointC: 27.8,
-        lflVolPercent: 1.1,
-        uflVolPercent: 7,
-        recalledFromMemory: ["flashPointC", "lflVolPercent", "uflVolPercent"],
-      },
     ],
     notes: [
       "Not on the required list; included for completeness (xylene mixtures). Poling Tmin 308.54 K.",
@@ -2014,7 +1972,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2027,7 +1985,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation (all three isomers) https://www.cdc.gov/niosh/idlh/95476.html (REL 100 TWA/150 STEL, PEL 100 TWA, LEL 0.9-1.1%); IDLH 900 ppm from OSHA CSI (webarchive of https://www.osha.gov/dts/chemicalsampling/data/CH_276400.html)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8598 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2101,21 +2059,14 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.861,
+    liquidDensityGPerMl: 0.8565,
     alternativeFlammability: [
-      {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG (o-/m-/p-xylene) not read (memory)",
-        flashPointC: 27.2,
-        lflVolPercent: 1.1,
-        uflVolPercent: 7,
-        recalledFromMemory: ["flashPointC", "lflVolPercent", "uflVolPercent"],
-      },
     ],
     notes: ["mp 13.3 C: solid in refrigerators. OEL values are for xylenes collectively."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2128,7 +2079,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation (all three isomers) https://www.cdc.gov/niosh/idlh/95476.html (REL 100 TWA/150 STEL, PEL 100 TWA, LEL 0.9-1.1%); IDLH 900 ppm from OSHA CSI (webarchive of https://www.osha.gov/dts/chemicalsampling/data/CH_276400.html)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8565 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2203,7 +2154,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.867,
+    liquidDensityGPerMl: 0.8626,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2223,7 +2174,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2236,7 +2187,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/100414.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.8626 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2317,7 +2268,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.906,
+    liquidDensityGPerMl: 0.9016,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2339,7 +2290,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2352,7 +2303,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG 2005 (mirror https://bradenfire.com/hazmat/npg-only/npgd0571.html); IDLH doc http://www.cdc.gov/niosh/idlh/100425.html (PEL 100 TWA, 200 C, 600 ppm 5-min peak in any 3 h)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.9016 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2428,7 +2379,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.626,
+    liquidDensityGPerMl: 0.6262,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2438,18 +2389,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 243,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -49.4,
+        source: "NIOSH IDLH documentation, n-pentane (May 1994), http://www.cdc.gov/niosh/idlh/109660.html: LEL 1.5 % (10 % LEL, 1,500 ppm)",
         lflVolPercent: 1.5,
-        uflVolPercent: 7.8,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: ["REL ceiling 610 ppm is a 15-minute ceiling."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2462,7 +2410,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/109660.html (REL 120 TWA, 610 ppm 15-min CEILING; PEL 1000; LEL 1.5%); IDLH 1500 ppm per NLM Haz-Map archive (webarchive hazmap id=107)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.6262 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2507,7 +2455,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     ],
     exposureLimits: [],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.62,
+    liquidDensityGPerMl: 0.6201,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2518,12 +2466,12 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     notes: [
-      "Bp 27.8 C: at or near room temperature Psat approaches/exceeds 1 atm (cap concentration at 100%). No OSHA PEL/NIOSH REL/IDLH specific to isopentane (memory).",
+      "Bp 27.8 C: at or near room temperature Psat approaches/exceeds 1 atm (cap concentration at 100%). No specific OSHA PEL or NIOSH REL for isopentane (OSHA Chemical Sampling Information, 2-Methylbutane).",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2534,9 +2482,9 @@ export const substanceLibrary: SubstanceSeed[] = [
       uflVolPercent: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       autoignitionC: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
-      exposureLimits: "none found",
+      exposureLimits: "no specific OSHA PEL or NIOSH REL: OSHA Chemical Sampling Information, 2-Methylbutane, https://www.osha.gov/dts/chemicalsampling/data/CH_251890.html (\"There is no specific OSHA PEL or NIOSH REL for this compound\"; the pentane limits are listed there)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.6201 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2604,7 +2552,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.659,
+    liquidDensityGPerMl: 0.6606,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2626,7 +2574,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2639,7 +2587,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NPG 2005 (mirror https://bradenfire.com/hazmat/npg-only/npgd0322.html); IDLH doc http://www.cdc.gov/Niosh/idlh/110543.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.6606 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2714,7 +2662,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.684,
+    liquidDensityGPerMl: 0.6795,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2724,18 +2672,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 204,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -3.9,
+        source: "NIOSH IDLH documentation, n-heptane (May 1994), http://www.cdc.gov/niosh/idlh/142825.html: LEL 1.05 % (10 % LEL, 1,050 ppm)",
         lflVolPercent: 1.05,
-        uflVolPercent: 6.7,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
-    notes: ["REL ceiling 440 ppm is a 15-minute ceiling. NPG FP 25 F (memory)."],
+    notes: ["REL ceiling 440 ppm is a 15-minute ceiling."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2748,7 +2693,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/142825.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.6795 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2816,7 +2761,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.779,
+    liquidDensityGPerMl: 0.7739,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2826,18 +2771,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 245,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -17.8,
+        source: "NIOSH IDLH documentation, cyclohexane (May 1994), http://www.cdc.gov/niosh/idlh/110827.html: LEL 1.3 % (10 % LEL, 1,300 ppm)",
         lflVolPercent: 1.3,
-        uflVolPercent: 8,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: ["mp 6.7 C (CRC): solid in refrigerators (supercooled-liquid VP otherwise)."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2850,7 +2792,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/110827.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7739 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -2895,7 +2837,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     ],
     exposureLimits: [],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.741,
+    liquidDensityGPerMl: 0.7353,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -2906,12 +2848,12 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     notes: [
-      "No OSHA PEL / NIOSH REL / IDLH (memory). NFPA 497 (2008) transcription lists FP -80 C, which looks erroneous (IEC -27 C). Only Landolt set (287-326 K) - extrapolation needed below 14 C.",
+      "No OSHA PEL or NIOSH REL: the OSHA Chemical Sampling Information page lists only the ACGIH TLV (50 ppm TWA). NFPA 497 (2008) transcription lists FP -80 C, which looks erroneous (IEC -27 C). Only Landolt set (287-326 K) - extrapolation needed below 14 C.",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -2922,9 +2864,9 @@ export const substanceLibrary: SubstanceSeed[] = [
       uflVolPercent: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       autoignitionC: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
-      exposureLimits: "no OSHA PEL or NIOSH REL (memory)",
+      exposureLimits: "no OSHA PEL or NIOSH REL: OSHA Chemical Sampling Information, tert-Butyl Methyl Ether, https://www.osha.gov/dts/chemicalsampling/data/CH_223650.html (revised 11/05/2003; lists only the ACGIH TLV, 50 ppm TWA)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7353 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3005,7 +2947,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.263,
+    liquidDensityGPerMl: 1.2632,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3015,11 +2957,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 90,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); NAS LCSS (nap.edu 4911 p.274) gives 300 mmHg at 20 C",
-        flashPointC: -30,
+        source: "NIOSH IDLH documentation, carbon disulfide (May 1994), https://www.cdc.gov/niosh/idlh/75150.html: LEL 1.3 % (10 % LEL, 1,300 ppm)",
         lflVolPercent: 1.3,
-        uflVolPercent: 50,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -3028,7 +2967,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3041,7 +2980,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75150.html; OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_225500.html (Z-2: 20 TWA, 30 ceiling, 100 ppm peak 30 min)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.2632 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3102,7 +3041,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.783,
+    liquidDensityGPerMl: 0.7834,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3112,18 +3051,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 175,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -37.8,
+        source: "NIOSH IDLH documentation, acetaldehyde (May 1994), https://www.cdc.gov/niosh/idlh/75070.html: LEL 4.0 % (10 % LEL, 4,000 ppm)",
         lflVolPercent: 4,
-        uflVolPercent: 60,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: ["Bp 20.8 C: above ~21 C Psat > 1 atm (cap concentration). NIOSH: Ca, no REL."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3136,7 +3072,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75070.html (REL none, Ca; PEL 200 TWA; LEL 4.0%; revised IDLH 2,000 ppm)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7834 g/cm³ at 18 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3210,7 +3146,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.049,
+    liquidDensityGPerMl: 1.0446,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3231,7 +3167,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3244,7 +3180,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/64197.html; IDLH 50 ppm from OSHA CSI copy (corpora.tika.apache.org govdocs1 508486)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.0446 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3321,11 +3257,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 434,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); NPG flammability values refer to 90% solution",
-        flashPointC: 50,
+        source: "NIOSH IDLH documentation, formic acid (May 1994), https://beta.cdc.gov/niosh/idlh/64186.html: LEL of the 90 % solution 18 % (10 % LEL, 18,000 ppm)",
         lflVolPercent: 18,
-        uflVolPercent: 57,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -3334,7 +3267,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3347,7 +3280,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://beta.cdc.gov/niosh/idlh/64186.html; OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_242800.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.220 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3403,7 +3336,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.982,
+    liquidDensityGPerMl: 0.9819,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3413,24 +3346,24 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 482,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (VP memory); Fl.P 68 F from Merck monograph (druglead.com/cds/pyridine.html); UEL 12.4% from NTP repository page",
+        source: "NTP Chemical Repository (Radian Corp., Aug. 29 1991), pyridine, https://igsvtu.lanuv.nrw.de/igs80s/content/shared/de/docs/ntp/110861.htm: flash point 20 °C (68 °F), LEL 1.8 %, UEL 12.4 %; the flash point agrees with The Merck Index monograph \"Pyridine\" (68 °F) and the LEL with the NIOSH IDLH documentation, pyridine (May 1994), http://www.cdc.gov/niosh/idlh/110861.html",
         flashPointC: 20,
         lflVolPercent: 1.8,
         uflVolPercent: 12.4,
       },
     ],
     notes: [
-      "VP at 20 C disagrees between sources: NTP/LCSS 18 mmHg, NPG 16 mmHg (memory), CLIP 12 mmHg, Poling set 15.6 mmHg; NTP 20 mmHg @25 C agrees with Poling (+3%). Landolt set in transcription is inconsistent with Tb (-69% at Tb) - do not use. Fl.P 68 F = 20 C (Merck).",
+      "VP at 20 C disagrees between sources: NTP/LCSS 18 mmHg, CLIP 12 mmHg, Poling set 15.6 mmHg; NTP 20 mmHg @25 C agrees with Poling (+3%). Landolt set in transcription is inconsistent with Tb (-69% at Tb) - do not use. Fl.P 68 F = 20 C (Merck).",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
       enthalpyOfVaporizationKJPerMol: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv) (ΔHvap at 388.38 K)",
-      meltingPointC: "recalled from memory (CRC Handbook, −41.6 °C); verify",
+      meltingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: mp 231.52 K (−41.63 °C) (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       flashPointC: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       lflVolPercent: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
       uflVolPercent: "IEC 60079-20-1:2010 — transcription in CalebBell/chemicals Safety/IS IEC 60079-20-1 2010.tsv (IS/IEC copy https://law.resource.org/pub/in/bis/S05/is.iec.60079.20.1.2010.pdf)",
@@ -3438,7 +3371,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/110861.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.9819 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3498,7 +3431,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.726,
+    liquidDensityGPerMl: 0.7275,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3508,11 +3441,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 249,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: -6.7,
+        source: "NIOSH IDLH documentation, triethylamine (May 1994; copy at http://niosh.dnacih.com/nioshdbs/idlh/121448.htm): LEL 1.2 % (10 % LEL, 1,200 ppm)",
         lflVolPercent: 1.2,
-        uflVolPercent: 8,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -3521,7 +3451,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3534,7 +3464,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH doc (mirror http://niosh.dnacih.com/nioshdbs/idlh/121448.htm); OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_273600.html (REL: Appendix D, none established)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7275 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3600,7 +3530,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.944,
+    liquidDensityGPerMl: 0.9445,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3610,11 +3540,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 455,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); LEL 2.2% is at 212 F; NAS LCSS gives 2.6 mmHg at 20 C",
-        flashPointC: 57.8,
+        source: "NIOSH IDLH documentation, dimethylformamide (May 1994), https://www.cdc.gov/niosh/idlh/68122.html: LEL at 212 °F 2.2 % (10 % LEL, 2,200 ppm)",
         lflVolPercent: 2.2,
-        uflVolPercent: 15.2,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -3623,7 +3550,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3636,7 +3563,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/68122.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.9445 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3677,15 +3604,15 @@ export const substanceLibrary: SubstanceSeed[] = [
     ],
     exposureLimits: [],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.1,
+    liquidDensityGPerMl: 1.101,
     alternativeFlammability: [],
     notes: [
-      "No Antoine set in the compilations used covers room temperature (NIST 325.49-442.09 K; Landolt 483-523 K); use Perry DIPPR-101 (291.67-729 K). Not in NPG; no OSHA PEL/NIOSH REL (memory). Flash point not in IEC/NFPA transcriptions (left blank).",
+      "No Antoine set in the compilations used covers room temperature (NIST 325.49-442.09 K; Landolt 483-523 K); use Perry DIPPR-101 (291.67-729 K). No OSHA PEL (OSHA Chemical Sampling Information, Dimethyl sulfoxide). Flash point not in IEC/NFPA transcriptions (left blank).",
     ],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3696,9 +3623,9 @@ export const substanceLibrary: SubstanceSeed[] = [
       uflVolPercent: "no value in IEC 60079-20-1 or NFPA 497 transcriptions (nonflammable or not listed); left out",
       autoignitionC: "no value in IEC 60079-20-1 or NFPA 497 transcriptions (nonflammable or not listed); left out",
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
-      exposureLimits: "no OSHA PEL or NIOSH REL (memory)",
+      exposureLimits: "no OSHA PEL: OSHA Chemical Sampling Information, Dimethyl sulfoxide, https://www.osha.gov/dts/chemicalsampling/data/CH_236510.html (note 1: \"OSHA does not have a PEL for dimethyl sulfoxide (DMSO)\")",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.1010 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3738,7 +3665,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     ],
     exposureLimits: [],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.998,
+    liquidDensityGPerMl: 0.997,
     alternativeFlammability: [],
     notes: [
       "For water use IAPWS-IF97 / IAPWS-95 rather than Antoine (Poling set is -0.5 to -0.9% near 0 C and at 100 C). The NIST WebBook set in the CalebBell/chemicals transcription set is a 379-573 K set (out of range at room T).",
@@ -3746,7 +3673,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3759,7 +3686,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "n/a",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Inorganic Compounds: 0.9970 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Inorganic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3819,7 +3746,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.137,
+    liquidDensityGPerMl: 1.1371,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3828,10 +3755,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 418,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: 35,
+        source: "NIOSH IDLH documentation, nitromethane (May 1994), https://www.cdc.gov/niosh/idlh/75525.html: LEL 7.3 % (10 % LEL, 7,300 ppm)",
         lflVolPercent: 7.3,
-        recalledFromMemory: ["flashPointC"],
       },
     ],
     notes: [
@@ -3840,7 +3765,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3853,7 +3778,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/75525.html; OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_257700.html (REL: Appendix D)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.1371 g/cm³ at 20 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -3927,7 +3852,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.805,
+    liquidDensityGPerMl: 0.7999,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -3937,18 +3862,15 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 404,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); LEL/UEL at 200 F",
-        flashPointC: -8.9,
+        source: "NIOSH IDLH documentation, 2-butanone (May 1994), http://www.cdc.gov/niosh/idlh/78933.html: LEL at 200 °F 1.4 % (10 % LEL, 1,400 ppm)",
         lflVolPercent: 1.4,
-        uflVolPercent: 11.4,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: ["NPG LEL/UEL at 200 F."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -3961,7 +3883,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation http://www.cdc.gov/niosh/idlh/78933.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7999 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -4035,21 +3957,18 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 0.801,
+    liquidDensityGPerMl: 0.7965,
     alternativeFlammability: [
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory); LEL/UEL at 200 F",
-        flashPointC: 17.8,
+        source: "NIOSH IDLH documentation, hexone (May 1994), http://www.cdc.gov/niosh/idlh/108101.html: LEL at 200 °F 1.2 % (10 % LEL, 1,200 ppm)",
         lflVolPercent: 1.2,
-        uflVolPercent: 8,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: ["NPG LEL/UEL at 200 F. Poling set Tmin 293.4 K; -2.3% at Tb."],
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -4062,7 +3981,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation (hexone) http://www.cdc.gov/niosh/idlh/108101.html",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 0.7965 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -4144,7 +4063,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       },
     ],
     physicalState: "liquid",
-    liquidDensityGPerMl: 1.253,
+    liquidDensityGPerMl: 1.2454,
     alternativeFlammability: [
       {
         source: "NFPA 497 (2008), transcription in CalebBell/chemicals Safety/NFPA 497 2008.tsv",
@@ -4154,11 +4073,8 @@ export const substanceLibrary: SubstanceSeed[] = [
         autoignitionC: 413,
       },
       {
-        source: "NIOSH Pocket Guide to Chemical Hazards — NPG entry not read (memory)",
-        flashPointC: 13.3,
+        source: "NIOSH IDLH documentation, ethylene dichloride (May 1994), https://www.cdc.gov/niosh/idlh/107062.html: LEL 6.2 % (10 % LEL, 6,200 ppm)",
         lflVolPercent: 6.2,
-        uflVolPercent: 16,
-        recalledFromMemory: ["flashPointC", "uflVolPercent"],
       },
     ],
     notes: [
@@ -4167,7 +4083,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     sources: {
       cas: "CAS registry number as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       name: "common name",
-      synonyms: "common names and abbreviations (recalled from memory)",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula as listed in CRC Handbook of Chemistry and Physics 95th ed., Physical Constants of Organic Compounds (as transcribed in CalebBell/chemicals)",
       molarMassGPerMol: "MW computed from formula with CIAAW/IUPAC conventional atomic weights (H 1.008, C 12.011, N 14.007, O 15.999, S 32.06, Cl 35.45)",
       normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv)",
@@ -4180,7 +4096,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       correlations: "in order of preference: a set covering 20 °C first, then the wide-range set; each correlation names its own source",
       exposureLimits: "NIOSH IDLH documentation https://www.cdc.gov/niosh/idlh/107062.html; OSHA CSI https://www.osha.gov/dts/chemicalsampling/data/CH_240397.html (Z-2: 50 TWA, 100 ceiling, 200 ppm peak)",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",
-      liquidDensityGPerMl: "liquid density near 20 °C recalled from memory (CRC Handbook values); verify before relying on it",
+      liquidDensityGPerMl: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds: 1.2454 g/cm³ at 25 °C (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv)",
       alternativeFlammability: "other published values kept beside the primary IEC values, each with its source",
       notes: "Headroom substance notes, compiled from the sources cited for each value",
     },
@@ -4192,7 +4108,7 @@ export const substanceLibrary: SubstanceSeed[] = [
     formula: "CO2",
     molarMassGPerMol: 44.009,
     normalBoilingPointC: -78.5,
-    enthalpyOfVaporizationKJPerMol: 25.2,
+    enthalpyOfVaporizationKJPerMol: 26.1,
     correlations: [],
     exposureLimits: [
       {
@@ -4230,17 +4146,17 @@ export const substanceLibrary: SubstanceSeed[] = [
       "Dry ice sublimes at −78.5 °C at 1 atm; normalBoilingPointC holds the sublimation point and enthalpyOfVaporizationKJPerMol the enthalpy of sublimation, so the Clausius–Clapeyron fallback gives the sublimation pressure.",
       "Gas volume ≈ 0.546 m³/kg at 20 °C (ideal gas); 1 lb → 8.8 ft³ (Univ. of Maine at Fort Kent) and 10 kg → 5.4 m³ (Univ. of York) agree within about 2 %.",
       "Nonflammable. CO₂ reaches its 40,000 ppm IDLH well before it lowers oxygen to 19.5 % (≈ 67,000 ppm): assess CO₂ ppm, not only oxygen.",
-      "Triple point −56.6 °C at 5.18 bar (recalled from memory); no liquid exists at 1 atm, so no melting point is set.",
+      "Triple point −56.56 °C (216.59 K) at 5.18 bar: no liquid exists at 1 atm, so no melting point is set.",
     ],
     sources: {
-      cas: "CAS registry number (recalled from memory)",
+      cas: "CAS registry number 124-38-9 (check digit valid) as listed in CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds and Physical Constants of Inorganic Compounds (transcriptions in CalebBell/chemicals chemicals/Misc/)",
       name: "common name",
-      synonyms: "common names",
+      synonyms: "common names in laboratory use (common practice)",
       formula: "molecular formula",
       molarMassGPerMol: "computed from CIAAW conventional atomic weights (C 12.011, O 15.999)",
       normalBoilingPointC: "sublimation point −78.5 °C at 1 atm: Univ. of Maine at Fort Kent \"Dry Ice: The Cold Facts\"; Univ. of York Biology, Dry ice",
-      enthalpyOfVaporizationKJPerMol: "enthalpy of sublimation ≈ 25.2 kJ/mol near −78.5 °C, recalled from memory (CRC Handbook / NIST WebBook); not read in a published source — verify",
-      meltingPointC: "not set: no liquid at 1 atm (triple point −56.6 °C at 5.18 bar, recalled from memory)",
+      enthalpyOfVaporizationKJPerMol: "mean enthalpy of sublimation between the sublimation point (−78.5 °C at 101.325 kPa, sources above) and the triple point (216.592 K, 517.95 kPa: Span & Wagner (1996), CO₂ reference equation of state, J. Phys. Chem. Ref. Data — melting-line reference point 216.592 K, 0.51795 MPa (as coded in the CoolProp CarbonDioxide fluid file)), from the integrated Clausius–Clapeyron equation (Headroom's arithmetic: 26.07 kJ/mol), so the sublimation-pressure curve passes through both points",
+      meltingPointC: "not set: no liquid at 1 atm. Triple point 216.589 K (−56.56 °C): CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds, melting point of carbon dioxide (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Organic Compounds.csv); at 0.51795 MPa (5.18 bar): Span & Wagner (1996), CO₂ reference equation of state, J. Phys. Chem. Ref. Data — melting-line reference point 216.592 K, 0.51795 MPa (as coded in the CoolProp CarbonDioxide fluid file)",
       flashPointC: "nonflammable",
       lflVolPercent: "nonflammable",
       uflVolPercent: "nonflammable",
@@ -4249,7 +4165,7 @@ export const substanceLibrary: SubstanceSeed[] = [
       exposureLimits: "NIOSH IDLH documentation, carbon dioxide (May 1994), http://www.cdc.gov/niosh/idlh/124389.html — confirms TWA 5,000, STEL 30,000, IDLH 40,000 ppm",
       physicalState: "solid (dry ice)",
       alternativeFlammability: "none",
-      notes: "Univ. of Maine at Fort Kent, \"Dry Ice: The Cold Facts\"; Univ. of York Biology, Dry ice; NIOSH IDLH documentation, carbon dioxide (May 1994); the 67,000 ppm figure is Headroom's arithmetic",
+      notes: "Univ. of Maine at Fort Kent, \"Dry Ice: The Cold Facts\"; Univ. of York Biology, Dry ice; NIOSH IDLH documentation, carbon dioxide (May 1994); triple point: CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Organic Compounds, and Span & Wagner (1996), CO₂ reference equation of state, J. Phys. Chem. Ref. Data — melting-line reference point 216.592 K, 0.51795 MPa (as coded in the CoolProp CarbonDioxide fluid file); the 67,000 ppm figure is Headroom's arithmetic",
     },
   },
   {
@@ -4271,14 +4187,14 @@ export const substanceLibrary: SubstanceSeed[] = [
       "Expansion ratio (gas at room temperature per volume of liquid): ρ/M × Vm gives ≈ 692 at 20 °C and ≈ 704 at 25 °C; published round figures 682 (liquid-nitrogen guideline adapted from Univ. of Oxford S4/03), 696 (expansion-ratio encyclopedia entry) and \"about 700\" (Univ. of Oxford Safety Office S4/03; OSTI 45495).",
     ],
     sources: {
-      cas: "CAS registry number (recalled from memory)",
+      cas: "CAS registry number 7727-37-9 (check digit valid) as listed in CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Inorganic Compounds (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Inorganic Compounds.csv)",
       name: "common name",
-      synonyms: "common names",
+      synonyms: "common names and abbreviations in laboratory use (common practice)",
       formula: "molecular formula",
       molarMassGPerMol: "computed from CIAAW conventional atomic weights (N 14.007)",
-      normalBoilingPointC: "−195.8 °C, recalled from memory (CRC Handbook −195.79 °C); verify",
-      enthalpyOfVaporizationKJPerMol: "5.57 kJ/mol at the normal boiling point, recalled from memory (CRC Handbook); verify",
-      meltingPointC: "−210.0 °C, recalled from memory (CRC Handbook); verify",
+      normalBoilingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Inorganic Compounds: bp 77.355 K (−195.795 °C, rounded to −195.8 °C) (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Inorganic Compounds.csv)",
+      enthalpyOfVaporizationKJPerMol: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Enthalpy of Vaporization table: 5.57 kJ/mol at the normal boiling point (77.36 K) (transcription in CalebBell/chemicals chemicals/Phase Change/CRC Handbook Heat of Vaporization.tsv)",
+      meltingPointC: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014), Physical Constants of Inorganic Compounds: mp 63.15 K (−210.00 °C) (transcription in CalebBell/chemicals chemicals/Misc/Physical Constants of Inorganic Compounds.csv)",
       flashPointC: "nonflammable",
       lflVolPercent: "nonflammable",
       uflVolPercent: "nonflammable",

@@ -73,7 +73,7 @@ describe("finding traces", () => {
     expect(trace.parts.map((part) => part.method)).toEqual(["Closed-enclosure bound", "Fraction of the lower flammable limit"]);
     const severityStep = trace.steps.at(-1);
     expect(severityStep?.formula).toBe("f ≥ 1 → critical; f ≥ 0.25 → high; f ≥ 0.1 → moderate");
-    expect(severityStep?.substituted).toBe("f = 0.4596 ≥ 0.25 → high");
+    expect(severityStep?.substituted).toBe("f = 0.4601 ≥ 0.25 → high");
     expect(severityStep?.result.value).toBe("high");
     expect(severityStep?.result.source).toMatch(/^Default, set by your organisation\./);
     expect(trace.inputs[0]).toEqual({ name: "Worst-case temperature", symbol: "T", value: 4, unit: "°C", source: "4.0 °C, design maximum" });

@@ -15,8 +15,9 @@ describe("enclosure-lfl: closed units", () => {
   it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 578 000 ppm = 3400 % LFL (critical by the fractions, high in a rated unit)", () => {
     // Psat(20 °C) from the Poling Antoine set: log10(P/bar) = 4.10962 − 1090.64/(293.15 − 41.95) → 58.600 kPa; the
     // handbook check value is 442 mmHg = 58.93 kPa (NRC Prudent Practices 1995, LCSS), 0.6 % higher.
-    // C_sat = 58.600/101.325 × 10⁶ = 578 341 ppm. All-evaporated: 4 L × 713 g/L (density recalled from memory,
-    // CRC) = 2852 g → (2852/74.123) × 24.055 / (1000 × 0.276) × 10⁶ = 3.35 × 10⁶ ppm (capped at 10⁶), so
+    // C_sat = 58.600/101.325 × 10⁶ = 578 341 ppm. All-evaporated: 4 L × 713.8 g/L (0.7138 g/cm³ at 20 °C,
+    // CRC Handbook 95th ed., Physical Constants of Organic Compounds) = 2855 g → (2855/74.123) × 24.055
+    // / (1000 × 0.276) × 10⁶ = 3.36 × 10⁶ ppm (capped at 10⁶), so
     // C = min(C_sat, C_inv) = C_sat. LFL 1.7 % (IEC 60079-20-1) → 578 341/17 000 = 34.02 = 3402 % LFL.
     const findings = assessLocation(
       unitSnapshot([container(ether, 4, "L", "sealed", { containerId: 41 })], {
@@ -53,19 +54,19 @@ describe("enclosure-lfl: closed units", () => {
     expect(rated.trace.steps).toHaveLength(1);
   });
 
-  it("a 10 mL bottle in the same refrigerator at 4 °C is inventory-limited: 7813 ppm = 46 % LFL (high)", () => {
-    // By hand: m = 10 mL × 0.713 g/mL = 7.13 g; Vm(4 °C) = 8.314462618 × 277.15/101.325 = 22.742 L/mol (NIOSH
-    // NMAM Appendix A gives 22.74); V_free = 0.280 − 0.00001 m³; C_inv = (7.13/74.123) × 22.742/(1000 × 0.27999)
-    // × 10⁶ = 7813.2 ppm, far below C_sat (2.9 × 10⁵ ppm at 4 °C); 7813.2/17 000 = 0.4596.
+  it("a 10 mL bottle in the same refrigerator at 4 °C is inventory-limited: 7822 ppm = 46 % LFL (high)", () => {
+    // By hand: m = 10 mL × 0.7138 g/mL (at 20 °C, CRC Handbook 95th ed., Physical Constants of Organic Compounds) = 7.138 g; Vm(4 °C) = 8.314462618 × 277.15/101.325 = 22.742 L/mol (NIOSH
+    // NMAM Appendix A gives 22.74); V_free = 0.280 − 0.00001 m³; C_inv = (7.138/74.123) × 22.742/(1000 × 0.27999)
+    // × 10⁶ = 7821.9 ppm, far below C_sat (2.9 × 10⁵ ppm at 4 °C); 7821.9/17 000 = 0.4601.
     const findings = assessLocation(
       unitSnapshot([container(ether, 10, "mL", "opened")], { worstCase: { inControl: designWorstCase(4), controlLost: designWorstCase(4) } }),
     );
     const finding = byFingerprint(findings, "enclosure-lfl|unit:12|substance:7|in_control");
     expect(finding.severity).toBe("high");
-    expect(relativeDeviation(finding.ratio as number, 0.459597)).toBeLessThan(1e-5);
+    expect(relativeDeviation(finding.ratio as number, 0.460113)).toBeLessThan(1e-5);
     const bound = finding.trace.parts[0];
     expect(bound.steps.at(-1)?.description).toBe("The smaller of the two (inventory-limited)");
-    expect(relativeDeviation(bound.result.value as number, 7813.156)).toBeLessThan(1e-5);
+    expect(relativeDeviation(bound.result.value as number, 7821.922)).toBeLessThan(1e-5);
   });
 
   it("assesses a refrigerator in control and with control lost (warmed to its room), each with its own fingerprint and source", () => {
@@ -78,11 +79,11 @@ describe("enclosure-lfl: closed units", () => {
     expect(lost.worstCaseSource).toBe("21.3 °C, design maximum (the room's worst case, as if the unit had failed)");
     // Inventory-limited in both: C_inv grows with T as Vm does, 294.45/277.15.
     expect((lost.ratio as number) / (inControl.ratio as number)).toBeCloseTo(294.45 / 277.15, 10);
-    expect(lost.title).toBe("Diethyl ether in FSR-1 could reach 48.8 % LFL if the refrigerator fails (control lost, 21.3 °C)");
+    expect(lost.title).toBe("Diethyl ether in FSR-1 could reach 48.9 % LFL if the refrigerator fails (control lost, 21.3 °C)");
   });
 
   it("adds the open containers together: ΣCᵢ/LFLᵢ (Le Chatelier), each at most its own saturated concentration", () => {
-    // Two open 10 mL ether bottles at 4 °C: 2 × 7813 ppm (each inventory-limited) = 15 626 ppm → 91.9 % LFL;
+    // Two open 10 mL ether bottles at 4 °C: 2 × 7822 ppm (each inventory-limited) = 15 644 ppm → 92.0 % LFL;
     // the largest alone gives 46.0 %.
     const findings = assessLocation(
       unitSnapshot([container(ether, 10, "mL", "opened"), container(ether, 10, "mL", "in_use"), container(ether, 10, "mL", "sealed")], {
@@ -92,10 +93,10 @@ describe("enclosure-lfl: closed units", () => {
     const open = byFingerprint(findings, "enclosure-lfl|unit:12|open-containers|in_control");
     expect(open.severity).toBe("high");
     // Free volume now 0.280 − 0.00003 m³.
-    const expected = ((2 * (7.13 / 74.123) * 22.742199) / (1000 * 0.27997)) * 1e6 / 17000;
+    const expected = ((2 * (7.138 / 74.123) * 22.742199) / (1000 * 0.27997)) * 1e6 / 17000;
     expect(relativeDeviation(open.ratio as number, expected)).toBeLessThan(1e-5);
     expect(open.containerIds).toHaveLength(2);
-    expect(open.title).toBe("Open containers in FSR-1 could reach 91.9 % LFL together at its worst case in control (4.0 °C)");
+    expect(open.title).toBe("Open containers in FSR-1 could reach 92 % LFL together at its worst case in control (4.0 °C)");
   });
 
   it("open liquids whose vapor pressures add up to more than the ambient pressure fill the enclosure with vapor only (Dalton's law)", () => {

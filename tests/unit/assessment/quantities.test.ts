@@ -57,8 +57,8 @@ describe("quantity-limit", () => {
         limits: [{ id: 11, name: "Local rule: 10 L of Class IB per unit", scope: "storage_unit", liquidClasses: ["IB"], maxVolumeL: 10, sprinkleredMaxVolumeL: null, basis: "Local policy" }],
       },
     };
-    // 9.48 kg of acetone at 790 kg/m³ (recalled from memory) = 12 L.
-    const [finding] = quantityFindings(assessLocation(unitSnapshot([container(acetone, 9.48, "kg")], { kind: "open_shelving", setRange: null }), settings));
+    // 9.414 kg of acetone at 784.5 kg/m³ (0.7845 g/cm³ at 25 °C, CRC Handbook 95th ed., Physical Constants of Organic Compounds) = 12 L.
+    const [finding] = quantityFindings(assessLocation(unitSnapshot([container(acetone, 9.414, "kg")], { kind: "open_shelving", setRange: null }), settings));
     expect(finding.fingerprint).toBe("quantity-limit|unit:12|limit:11|in_control");
     expect(finding.value).toBeCloseTo(12, 10);
     expect(finding.severity).toBe("high");

@@ -10,7 +10,7 @@ const lab = { volumeM3: 100, floorAreaM2: 40, airChangesPerHour: 6, mixingFactor
  * EPA RMP Eq. D-1, QR = 0.284·U^0.78·MW^(2/3)·A·VP/(82.05·T) with A in ft² (0.1 m² per litre spilled →
  * 1.0764 ft²): QR = 0.284 × 0.16596 × 14.997 × 1.0764 × 230.86/(82.05 × 298.15) = 0.0071804 lb/min per litre
  * = 0.054283 g/s (× 453.59237/60). Well-mixed room: Q = 6 × 100/3600 = 0.16667 m³/s, k·Q = 0.083333 m³/s;
- * a pool of 790 g per litre (0.79 g/mL, recalled from memory) lasts 790/0.054283 = 14 553 s (243 min);
+ * a pool of 784.5 g per litre (0.7845 g/cm³ at 25 °C, CRC Handbook 95th ed., Physical Constants of Organic Compounds) lasts 784.5/0.054283 = 14 452 s (241 min);
  * C(t) = G/(k·Q)·(1 − e^(−k·Q·t/V)); ppm = mg/m³ × 24.465/58.08.
  */
 describe("spill in a ventilated room", () => {
@@ -44,7 +44,7 @@ describe("spill in a ventilated room", () => {
   });
 
   it("20 L of acetone: 2896 ppm within 15 minutes, above the NIOSH IDLH of 2500 ppm (critical), and 22 % LFL (moderate)", () => {
-    // The pool is 2 m² (below the 40 m² floor): G = 20 × 0.054283 = 1.0857 g/s, same 243 min to evaporate.
+    // The pool is 2 m² (below the 40 m² floor): G = 20 × 0.054283 = 1.0857 g/s, same 241 min to evaporate.
     const findings = assessLocation(roomSnapshot([container(acetone, 20)], lab));
     const exposure = findings.find((f) => f.rule === "spill-exposure");
     expect(exposure?.severity).toBe("critical");

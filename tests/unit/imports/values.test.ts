@@ -2,8 +2,9 @@ import { describe, expect, it } from "vitest";
 import { casCheckDigit, readCas, readDate, readNumber } from "@/lib/imports";
 
 describe("CAS numbers", () => {
-  // Check-digit rule as published by CAS. The numbers of acetone, water and ethanol are recalled from
-  // memory; their check digits show only that each is well formed, not which substance it names.
+  // Check-digit rule as published by CAS. The numbers of acetone, ethanol (CRC Handbook 95th ed., Physical Constants
+  // of Organic Compounds) and water (… of Inorganic Compounds) are as listed there; a check digit shows only that a
+  // number is well formed, not which substance it names.
   it("accepts valid numbers", () => {
     expect(readCas("67-64-1")).toEqual({ ok: true, value: "67-64-1" });
     expect(readCas("7732-18-5")).toEqual({ ok: true, value: "7732-18-5" });

@@ -204,7 +204,6 @@ export default async function SubstancePage({ params, searchParams }: { params: 
               {alt.lflVolPercent != null ? `LFL ${formatNumber(alt.lflVolPercent, 2)} % vol; ` : ""}
               {alt.uflVolPercent != null ? `UFL ${formatNumber(alt.uflVolPercent, 3)} % vol; ` : ""}
               {alt.autoignitionC != null ? `autoignition ${formatTempC(alt.autoignitionC)}` : ""}
-              {alt.recalledFromMemory?.length ? ` (recalled from memory: ${alt.recalledFromMemory.join(", ")})` : ""}
             </p>
           ))}
           {row.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{row.notes}</p> : null}
