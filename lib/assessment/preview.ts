@@ -96,14 +96,15 @@ export type PreviewResult = {
   cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
 };
 
-const STATIC_RATIO_SLACK = 1.01;
+/** A ratio that moves by less than 1 % has not changed: the same state assessed twice may differ in the last digits. */
+const RATIO_CHANGE_FACTOR = 1.01;
 
 function worse(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) > severityRank(before.severity) || (after.ratio ?? 0) > (before.ratio ?? 0) * STATIC_RATIO_SLACK;
+  return severityRank(after.severity) > severityRank(before.severity) || (after.ratio ?? 0) > (before.ratio ?? 0) * RATIO_CHANGE_FACTOR;
 }
 
 function better(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) < severityRank(before.severity) || (after.ratio ?? 0) * STATIC_RATIO_SLACK < (before.ratio ?? 0);
+  return severityRank(after.severity) < severityRank(before.severity) || (after.ratio ?? 0) * RATIO_CHANGE_FACTOR < (before.ratio ?? 0);
 }
 
 const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
