@@ -1,38 +1,127 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { and, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { AMOUNT_UNITS, CONTAINER_STATES } from "@/db/enums";
-import { containers, mixtures, storageUnits, substances } from "@/db/schema";
-import { NotFoundError, ValidationError } from "@/lib/errors";
+import { AMOUNT_UNITS, CONTAINER_STATES, type FindingStatus, type Scenario, type Severity } from "@/db/enums";
+import { containers, findings, mixtures, storageUnits, substances } from "@/db/schema";
+import { scopeFor } from "@/lib/auth/permissions";
+import type { SessionUser } from "@/lib/auth/session";
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
 import { containerAmountSchema } from "@/lib/inventory/schemas";
+import type { FindingCandidate } from "@/lib/register/store";
 import { optionalId, requiredId } from "@/lib/validation/fields";
-import { assessLocation, createAssessmentCache, severityRank } from "./rules";
+import { componentsOfMixtures, findingIdsVisibleTo, STANDING_STATUSES, standingFindingsAt, type StandingFinding } from "./preview-current";
+import { previewVerdict, verdictSentence, type CurrentOutcome, type PreviewMode, type PreviewVerdict } from "./preview-verdict";
+import { assessLocation, createAssessmentCache, severityRank, subjectKey } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
+
+const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
 
 export const assessmentPreviewSchema = z
   .object({
     storageUnitId: requiredId("storage unit"),
     substanceId: optionalId("substance"),
     mixtureId: optionalId("mixture"),
-    amount: containerAmountSchema,
-    amountUnit: z.enum(AMOUNT_UNITS, { error: `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.` }),
-    /** Optional: the stored container being edited, which the preview replaces by this one. */
+    amount: containerAmountSchema.optional(),
+    amountUnit: z.enum(AMOUNT_UNITS, { error: AMOUNT_UNIT_MESSAGE }).optional(),
+    /**
+     * Optional: a stored container. With the contents (substanceId or mixtureId, amount, amountUnit)
+     * it is an edit of that container, which the preview replaces by this one; with none of them it
+     * is a move: its stored contents are taken out of its place and assessed at storageUnitId.
+     */
     containerId: optionalId("container"),
-    /** Optional: the container's state (sealed when not given; empty or disposed stores nothing). */
+    /** Optional: the container's state (a new container's is sealed when not given; empty or disposed stores nothing). */
     state: z.enum(CONTAINER_STATES, { error: `state must be one of: ${CONTAINER_STATES.join(", ")}.` }).optional(),
   })
   .superRefine((value, ctx) => {
+    const moving = value.containerId != null && value.substanceId == null && value.mixtureId == null && value.amount === undefined && value.amountUnit === undefined;
+    if (moving) return;
     if ((value.substanceId == null) === (value.mixtureId == null)) ctx.addIssue({ code: "custom", path: ["substanceId"], message: "Give a substanceId or a mixtureId (one of them)." });
+    if (value.amount === undefined) ctx.addIssue({ code: "custom", path: ["amount"], message: "Amount is required." });
+    if (value.amountUnit === undefined) ctx.addIssue({ code: "custom", path: ["amountUnit"], message: AMOUNT_UNIT_MESSAGE });
   });
 export type AssessmentPreviewInput = z.output<typeof assessmentPreviewSchema>;
 
+export type PreviewFinding = {
+  rule: string;
+  severity: Severity;
+  scenario: Scenario;
+  title: string;
+  value: number | null;
+  limit: number | null;
+  ratio: number | null;
+  unit: string | null;
+  worstCaseTempC: number | null;
+  worstCaseSource: string | null;
+  storageUnitId: number | null;
+  roomId: number | null;
+  isNew: boolean;
+  previous: { severity: Severity; ratio: number | null } | null;
+  trace: unknown;
+};
+
+/** A finding standing in the register where the container would go, about the same substance or its group. */
+export type PreviewCurrentFinding = {
+  id: number;
+  rule: string;
+  severity: Severity;
+  status: FindingStatus;
+  scenario: Scenario;
+  title: string;
+  value: number | null;
+  limit: number | null;
+  ratio: number | null;
+  unit: string | null;
+  storageUnitId: number | null;
+  roomId: number | null;
+  substanceId: number | null;
+  mixtureId: number | null;
+  /** "substance": about the stored substance or mixture itself; "group": a finding it takes part in (a mixture holding it, open containers together, a quantity limit). */
+  about: "substance" | "group";
+  /** What the change would do to it; "worse" ones are among `findings` too. */
+  outcome: CurrentOutcome;
+  /** The finding as it would be after the change (null when the change clears it). */
+  after: { severity: Severity; ratio: number | null; value: number | null } | null;
+  /** Whether this person may open it in the register (/register/{id}). */
+  canOpen: boolean;
+};
+
+export type PreviewResult = {
+  storageUnitId: number;
+  findings: PreviewFinding[];
+  current: PreviewCurrentFinding[];
+  verdict: PreviewVerdict;
+  verdictSentence: string;
+  /** A move's bonus: findings standing at the container's old place that the move would clear, worst first. */
+  cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
+};
+
+/** A ratio that moves by less than 1 % has not changed: the same state assessed twice may differ in the last digits. */
+const RATIO_CHANGE_FACTOR = 1.01;
+
+function worse(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
+  return severityRank(after.severity) > severityRank(before.severity) || (after.ratio ?? 0) > (before.ratio ?? 0) * RATIO_CHANGE_FACTOR;
+}
+
+function better(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
+  return severityRank(after.severity) < severityRank(before.severity) || (after.ratio ?? 0) * RATIO_CHANGE_FACTOR < (before.ratio ?? 0);
+}
+
+const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
+
+/** The subject part of a fingerprint ("rule|location|subject|scenario"), e.g. "substance:7", "open-containers", "limit:3". */
+function subjectOf(fingerprint: string): string {
+  return fingerprint.split("|")[2] ?? "";
+}
+
 /**
  * What-if: the findings that storing this amount in this unit would raise or make worse, computed
- * on the current state plus the new container (or with an edited container as it would be), without
- * writing anything.
+ * on the current state plus the new container (an edited container as it would be, a moved one at
+ * its new place and gone from its old), without writing anything; the findings already standing
+ * there about the same substance or its group; and a verdict with its sentence. A stored container
+ * is previewed only by someone who may change it (researchers: their own).
  */
-export function previewStoring(input: AssessmentPreviewInput, nowMs = Date.now()) {
+export function previewStoring(input: AssessmentPreviewInput, user: SessionUser, nowMs = Date.now()): PreviewResult {
   const db = getDb();
   const unit = db.select({ id: storageUnits.id, roomId: storageUnits.roomId, code: storageUnits.code, retiredAt: storageUnits.retiredAt }).from(storageUnits).where(eq(storageUnits.id, input.storageUnitId)).get();
   if (!unit || unit.retiredAt) throw new NotFoundError("No such storage unit.");
@@ -42,30 +131,137 @@ export function previewStoring(input: AssessmentPreviewInput, nowMs = Date.now()
   if (input.mixtureId != null && !db.select({ id: mixtures.id }).from(mixtures).where(eq(mixtures.id, input.mixtureId)).get()) {
     throw new ValidationError("Choose an existing mixture.", { mixtureId: ["Choose an existing mixture."] });
   }
-  let label = "(new container)";
+
+  const stored = input.containerId != null ? db.select().from(containers).where(eq(containers.id, input.containerId)).get() : undefined;
   if (input.containerId != null) {
-    const stored = db.select({ id: containers.id, label: containers.label }).from(containers).where(eq(containers.id, input.containerId)).get();
     if (!stored) throw new ValidationError("Choose an existing container.", { containerId: ["No such container."] });
-    label = stored.label;
+    // The same rule as the container routes: the role must change containers, "own" only one's own.
+    const scope = scopeFor(user.role, "containers.write");
+    if (scope === null) throw new ForbiddenError("Your role cannot change containers, so it cannot preview changing one.");
+    if (scope === "own" && stored.ownerId !== user.id) throw new ForbiddenError("You can change only your own containers.");
+    if (stored.state === "disposed") throw new ConflictError("This container was disposed of; its record is kept and cannot be changed.");
   }
+  const mode: PreviewMode = !stored ? "store" : input.substanceId == null && input.mixtureId == null && input.amount === undefined ? "move" : "edit";
+  if (mode === "move" && stored!.storageUnitId === unit.id) {
+    throw new ValidationError("The container is already in that storage unit.", { storageUnitId: ["The container is already in that storage unit."] });
+  }
+  const content =
+    mode === "move"
+      ? { substanceId: stored!.substanceId, mixtureId: stored!.mixtureId, amount: stored!.amount, amountUnit: stored!.amountUnit, state: input.state ?? stored!.state }
+      : { substanceId: input.substanceId ?? null, mixtureId: input.mixtureId ?? null, amount: input.amount!, amountUnit: input.amountUnit!, state: input.state ?? stored?.state };
+
+  // Where the container stands now, when it leaves that place.
+  const source =
+    stored && stored.storageUnitId !== unit.id ? db.select({ id: storageUnits.id, roomId: storageUnits.roomId, code: storageUnits.code }).from(storageUnits).where(eq(storageUnits.id, stored.storageUnitId)).get() : undefined;
+  const atSource = (c: { storageUnitId: number | null; roomId: number | null }) =>
+    source !== undefined && (c.storageUnitId === source.id || (c.storageUnitId === null && source.roomId !== unit.roomId && c.roomId === source.roomId));
+
   const settings = loadAssessmentSettings(db);
   const library = new SnapshotLibrary(db);
+  library.load(content.substanceId != null ? [content.substanceId] : [], content.mixtureId != null ? [content.mixtureId] : []);
   const cache = createAssessmentCache();
-  const run = (withNew: boolean) =>
-    buildSnapshots(db, [unit.roomId], nowMs, library, withNew ? [{ storageUnitId: unit.id, substanceId: input.substanceId ?? null, mixtureId: input.mixtureId ?? null, amount: input.amount, amountUnit: input.amountUnit, label, state: input.state, replacesContainerId: input.containerId ?? undefined }] : [])
+  const roomIds = [...new Set([unit.roomId, ...(source ? [source.roomId] : [])])];
+  const extra = { storageUnitId: unit.id, ...content, label: stored?.label ?? "(new container)", replacesContainerId: stored?.id };
+  const run = (withChange: boolean): FindingCandidate[] =>
+    buildSnapshots(db, roomIds, nowMs, library, withChange ? [extra] : [])
       .flatMap((snapshot) => assessLocation(snapshot, settings, { cache }))
       .map(toStoredCandidate);
   const before = new Map(run(false).map((c) => [c.fingerprint, c]));
-  const after = run(true);
-  const raised = after.filter((c) => {
+  const afterList = run(true);
+  const after = new Map(afterList.map((c) => [c.fingerprint, c]));
+
+  const raised = afterList.filter((c) => {
+    if (atSource(c)) return false;
     const old = before.get(c.fingerprint);
-    if (!old) return true;
-    return severityRank(c.severity) > severityRank(old.severity) || (c.ratio ?? 0) > (old.ratio ?? 0) * 1.01;
+    return !old || worse(c, old);
   });
-  raised.sort((a, b) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? 0) - (a.ratio ?? 0));
+  raised.sort(byWorst);
+
+  // The findings standing where it would go, about the same substance or its group.
+  const storedContent = library.content(content.substanceId, content.mixtureId);
+  const substanceIds = new Set<number>(
+    storedContent?.kind === "substance" ? [storedContent.substance.id] : storedContent?.kind === "mixture" ? storedContent.mixture.components.map((c) => c.substance.id) : [],
+  );
+  const standing = standingFindingsAt(db, unit);
+  const components = componentsOfMixtures(db, [...new Set(standing.flatMap((f) => (f.mixtureId == null ? [] : [f.mixtureId])))]);
+  const flammable = storedContent?.kind === "substance" ? storedContent.substance.lflVolPercent != null : (storedContent?.mixture.components.some((c) => c.substance.lflVolPercent != null) ?? false);
+  const liquidClass = storedContent?.kind === "substance" ? storedContent.substance.nfpaClass : (storedContent?.mixture.nfpaClass ?? null);
+  const cold = storedContent?.kind === "substance" && (storedContent.substance.physicalState === "cryogen" || storedContent.substance.physicalState === "solid");
+  const limitClasses = new Map(settings.quantities.limits.map((l) => [subjectKey({ kind: "quantity-limit", id: l.id }), l.liquidClasses as readonly string[]]));
+  const aboutIt = (f: StandingFinding): "substance" | "group" | null => {
+    const subject = subjectOf(f.fingerprint);
+    if (subject === "open-containers") return flammable || (f.substanceId != null && substanceIds.has(f.substanceId)) ? "group" : null;
+    if (subject.startsWith("limit:")) return liquidClass != null && (limitClasses.get(subject)?.includes(liquidClass) ?? true) ? "group" : null;
+    if (subject === "cryogen-inventory" || subject === "dry-ice") return cold ? "group" : null;
+    if (f.substanceId != null && substanceIds.has(f.substanceId)) return "substance";
+    if (f.mixtureId != null && f.mixtureId === content.mixtureId) return "substance";
+    if (f.mixtureId != null && [...(components.get(f.mixtureId) ?? [])].some((id) => substanceIds.has(id))) return "group";
+    return null;
+  };
+  const related = standing.flatMap((f) => {
+    const about = aboutIt(f);
+    return about ? [{ f, about }] : [];
+  });
+  const otherStandingCount = standing.length - related.length;
+
+  // For a move: what leaves the old place with it.
+  const clearedFingerprints = source ? [...before.values()].filter((c) => atSource(c) && !after.has(c.fingerprint)).map((c) => c.fingerprint) : [];
+  const clearedRows = clearedFingerprints.length
+    ? db
+        .select({ id: findings.id, severity: findings.severity, title: findings.title, ratio: findings.ratio })
+        .from(findings)
+        .where(and(inArray(findings.fingerprint, clearedFingerprints), inArray(findings.status, [...STANDING_STATUSES])))
+        .all()
+        .sort(byWorst)
+    : [];
+
+  const visible = findingIdsVisibleTo(db, user, [...related.map((r) => r.f.id), ...clearedRows.map((r) => r.id)]);
+  const current: PreviewCurrentFinding[] = related.map(({ f, about }) => {
+    const now = after.get(f.fingerprint);
+    const was = before.get(f.fingerprint) ?? f;
+    const outcome: CurrentOutcome = !now ? (before.has(f.fingerprint) ? "cleared" : "unchanged") : worse(now, was) ? "worse" : better(now, was) ? "better" : "unchanged";
+    return {
+      id: f.id,
+      rule: f.rule,
+      severity: f.severity,
+      status: f.status,
+      scenario: f.scenario,
+      title: f.title,
+      value: f.value,
+      limit: f.limitValue,
+      ratio: f.ratio,
+      unit: f.unit,
+      storageUnitId: f.storageUnitId,
+      roomId: f.roomId,
+      substanceId: f.substanceId,
+      mixtureId: f.mixtureId,
+      about,
+      outcome,
+      after: now ? { severity: now.severity, ratio: now.ratio, value: now.value } : outcome === "cleared" ? null : { severity: f.severity, ratio: f.ratio, value: f.value },
+      canOpen: visible.has(f.id),
+    };
+  });
+  // Worst first; of equal severity, findings about the substance itself before those it takes part in.
+  current.sort((a, b) => severityRank(b.severity) - severityRank(a.severity) || (a.about === b.about ? 0 : a.about === "substance" ? -1 : 1) || (b.ratio ?? -1) - (a.ratio ?? -1));
+
+  const contentName = storedContent?.kind === "substance" ? storedContent.substance.name : storedContent?.kind === "mixture" ? storedContent.mixture.name : "it";
+  const withPrevious = raised.map((c) => {
+    const old = before.get(c.fingerprint);
+    return { c, previous: old ? { severity: old.severity, ratio: old.ratio } : null };
+  });
+  const facts = {
+    mode,
+    unitCode: unit.code,
+    contentName,
+    raised: withPrevious.map(({ c, previous }) => ({ severity: c.severity, title: c.title, isNew: previous === null, previous })),
+    current,
+    otherStandingCount,
+    cleared: clearedRows,
+    sourceUnitCode: source?.code ?? null,
+  };
   return {
     storageUnitId: unit.id,
-    findings: raised.map((c) => ({
+    findings: withPrevious.map(({ c, previous }) => ({
       rule: c.rule,
       severity: c.severity,
       scenario: c.scenario,
@@ -78,9 +274,13 @@ export function previewStoring(input: AssessmentPreviewInput, nowMs = Date.now()
       worstCaseSource: c.worstCaseSource,
       storageUnitId: c.storageUnitId,
       roomId: c.roomId,
-      isNew: !before.has(c.fingerprint),
-      previous: before.has(c.fingerprint) ? { severity: before.get(c.fingerprint)!.severity, ratio: before.get(c.fingerprint)!.ratio } : null,
+      isNew: previous === null,
+      previous,
       trace: c.trace,
     })),
+    current,
+    verdict: previewVerdict(facts),
+    verdictSentence: verdictSentence(facts),
+    cleared: clearedRows.map((r) => ({ id: r.id, severity: r.severity, title: r.title, canOpen: visible.has(r.id) })),
   };
 }

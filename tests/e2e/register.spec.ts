@@ -50,9 +50,11 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   expect(bottles.data.length).toBeGreaterThan(0);
   for (const bottle of bottles.data) {
     await page.goto(`/inventory/${bottle.id}`);
-    await page.getByLabel("Move to").selectOption({ label: "North Campus · 2.115 / FSR-1 Flammable-storage refrigerator" });
-    await page.getByRole("button", { name: "Move", exact: true }).click();
-    await expect(page.getByRole("status").first()).toBeVisible();
+    await page.getByRole("button", { name: "Move…" }).click();
+    const dialog = page.getByRole("dialog", { name: /^Move / });
+    await dialog.getByLabel("Move to").selectOption({ label: "FSR-1 Flammable-storage refrigerator" });
+    await dialog.getByRole("button", { name: "Move to 2.115 / FSR-1" }).click();
+    await expect(page.getByText(/^Moved CV-\d+\.$/)).toBeVisible();
   }
 
   await page.goto(findingUrl);

@@ -1,46 +1,13 @@
 "use client";
 import { useActionState } from "react";
 import { Button } from "@/components/ui/button";
-import { inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
-import { moveContainerAction, setStateAction } from "../actions";
-
-type UnitOption = { id: number; code: string; name: string; roomCode: string; siteName: string };
+import { setStateAction } from "../actions";
 
 function messages(state: FormState | undefined) {
   const errors = state?.error ? Object.values(state.error).flat().filter((m): m is string => Boolean(m)) : undefined;
   return { errors: errors?.length ? errors : undefined, success: state?.status === "success" ? state.message : undefined };
-}
-
-export function MoveContainer({ id, currentUnitId, units }: { id: number; currentUnitId: number; units: UnitOption[] }) {
-  const [state, dispatch, pending] = useActionState(moveContainerAction, undefined);
-  return (
-    <form action={dispatch} className="space-y-2">
-      <FormMessage {...messages(state)} />
-      <input type="hidden" name="id" value={id} />
-      <label htmlFor="move-to" className="block text-sm font-medium text-ink-800">
-        Move to
-      </label>
-      <div className="flex gap-2">
-        <select id="move-to" name="storageUnitId" defaultValue="" className={inputClass}>
-          <option value="" disabled>
-            Choose a storage unit
-          </option>
-          {units
-            .filter((u) => u.id !== currentUnitId)
-            .map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.siteName} · {u.roomCode} / {u.code} {u.name}
-              </option>
-            ))}
-        </select>
-        <Button type="submit" variant="secondary" disabled={pending}>
-          Move
-        </Button>
-      </div>
-    </form>
-  );
 }
 
 const STATES: { state: string; label: string }[] = [

@@ -16,7 +16,8 @@ import { formatDateTime, formatQuantity } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { updateContainerAction } from "../actions";
 import { ContainerForm } from "../container-form";
-import { ContainerStateButtons, MoveContainer } from "./container-actions";
+import { ContainerStateButtons } from "./container-actions";
+import { MoveDialog } from "./move-dialog";
 
 export const metadata: Metadata = { title: "Container" };
 
@@ -156,7 +157,7 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </Card>
           <div className="space-y-6">
             <Card title="Move">
-              <MoveContainer id={container.id} currentUnitId={container.storageUnitId} units={units} />
+              <MoveDialog container={{ id: container.id, label: container.label, storageUnitId: container.storageUnitId, roomCode: container.roomCode, unitCode: container.unitCode }} units={units} />
             </Card>
             <Card title="State">
               <ContainerStateButtons id={container.id} current={container.state} />

@@ -1,0 +1,38 @@
+import { expect, test } from "@playwright/test";
+import { LogContainerPage } from "./pages/log-container-page";
+import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
+
+// Runs before register.spec.ts, which moves the demo's diethyl ether out of FR-1.
+test("a researcher logging diethyl ether into the domestic-type refrigerator FR-1 is told it is already critical there before saving", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("researcher@example.org", DEMO_PASSWORD);
+  await expect(page).toHaveURL(/\/$/);
+
+  const form = new LogContainerPage(page);
+  await form.goto();
+  await expect(form.whatIf()).toContainText("Choose the storage unit, the substance or mixture and the amount");
+  await form.fillLabel(`WI-${Date.now().toString().slice(-6)}`);
+  await form.chooseSubstance("60-29-7", /diethyl ether/);
+  await expect(page.getByText("✓ diethyl ether · CAS 60-29-7")).toBeVisible();
+  await form.setAmount("1", "L");
+  await form.chooseStorageUnit("FR-1 Refrigerator (domestic type)");
+
+  // The demo's two ether bottles already saturate FR-1 if it fails: one more litre raises nothing
+  // new, and the panel says so plainly instead of "nothing new".
+  const whatIf = form.whatIf();
+  await expect(whatIf.getByText("Already flagged here")).toBeVisible();
+  await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails \(control lost, 28\.0 °C\)\. Storing more keeps it so\./)).toBeVisible();
+  await expect(whatIf.getByText("Critical").first()).toBeVisible();
+  await expect(whatIf.getByText(/Nothing new/)).toHaveCount(0);
+  const standing = whatIf.getByRole("link", { name: "Diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C)" });
+  await expect(standing).toHaveAttribute("href", /^\/register\/\d+$/);
+  await expect(whatIf.getByLabel("Caution")).toBeVisible();
+  // Advice only: saving stays possible.
+  await expect(form.saveButton()).toBeEnabled();
+
+  // The same litre in the flammable-storage refrigerator next door: the verdict follows the unit.
+  await form.chooseStorageUnit("FSR-1 Flammable-storage refrigerator");
+  await expect(whatIf.getByText(/FSR-1/).first()).toBeVisible();
+  await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1/)).toHaveCount(0);
+});
