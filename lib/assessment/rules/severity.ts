@@ -85,6 +85,7 @@ export const DEFAULT_ASSESSMENT_SETTINGS: AssessmentSettings = {
     marginC: 10,
     atOrAboveSeverity: "moderate",
     withinMarginSeverity: "low",
+    ignitionFreeSeverity: "low",
     source: `${DEFAULT_NOTE} Margin 10 °C: ASTM E502 says flammable vapor might be present from 5–10 °C below the closed-cup flash point; OSHA 29 CFR 1910.106(a)(19) handles a liquid heated to within 30 °F (16.7 °C) of its flash point as the next more hazardous category. NFPA 45 (2004) annex A.12.2.2.2.1: refrigerator temperatures are almost always above the flash points of the flammable liquids stored in them.`,
   },
   boilingPoint: {
@@ -201,6 +202,8 @@ export const assessmentSettingsSchema: z.ZodType<AssessmentSettings> = z.object(
     marginC: z.number().min(0, "The margin cannot be negative.").max(50, "The margin must be at most 50 °C."),
     atOrAboveSeverity: severity,
     withinMarginSeverity: severity,
+    // Settings stored before this field existed keep their values and get the default.
+    ignitionFreeSeverity: severity.default("low"),
     source,
   }),
   boilingPoint: z.object({ severity, source }),
@@ -322,12 +325,17 @@ export function oxygenSeverity(oxygenPercent: number, settings: AssessmentSettin
   return null;
 }
 
-/** At or above the flash point; or within the margin below it (FP − T ≤ margin); otherwise none. */
-export function flashPointSeverity(tempC: number, flashPointC: number, settings: AssessmentSettings): Severity | null {
+/**
+ * At or above the flash point; or within the margin below it (FP − T ≤ margin); otherwise none.
+ * Inside a closed unit whose interior is free of ignition sources at most `ignitionFreeSeverity`.
+ */
+export function flashPointSeverity(tempC: number, flashPointC: number, settings: AssessmentSettings, ignitionFreeUnit = false): Severity | null {
   const marginToFlashPointC = flashPointC - tempC;
-  if (marginToFlashPointC <= 0) return settings.flashPoint.atOrAboveSeverity;
-  if (marginToFlashPointC <= settings.flashPoint.marginC) return settings.flashPoint.withinMarginSeverity;
-  return null;
+  let severity: Severity | null = null;
+  if (marginToFlashPointC <= 0) severity = settings.flashPoint.atOrAboveSeverity;
+  else if (marginToFlashPointC <= settings.flashPoint.marginC) severity = settings.flashPoint.withinMarginSeverity;
+  if (severity !== null && ignitionFreeUnit && RANK[severity] > RANK[settings.flashPoint.ignitionFreeSeverity]) return settings.flashPoint.ignitionFreeSeverity;
+  return severity;
 }
 
 /** Whether a liquid counts as flammable for storage: GHS category 1–3 or NFPA class I. */
