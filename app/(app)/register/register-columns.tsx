@@ -11,9 +11,11 @@ export type RegisterRow = Omit<FindingListRow, "firstRaisedAt" | "updatedAt"> & 
 
 export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age"] as const;
 
-export function registerFilters(rules: { value: string; label: string }[], sites: { value: string; label: string }[]): DataTableFilters {
+type Option = { value: string; label: string };
+
+export function registerFilters(rules: Option[], sites: Option[], locations: { room: Option; units: Option[] }[] = []): DataTableFilters {
   return {
-    search: { label: "Search", placeholder: "Words in the finding" },
+    search: { label: "Search", placeholder: "Words, room or unit code (B-014, FR-1)" },
     selects: [
       { param: "severity", label: "Severity", allLabel: "Any severity", options: [{ value: "critical,high", label: "Critical or high" }, ...SEVERITIES.map((s) => ({ value: s, label: s.charAt(0).toUpperCase() + s.slice(1) }))] },
       {
@@ -25,6 +27,9 @@ export function registerFilters(rules: { value: string; label: string }[], sites
       { param: "scenario", label: "Scenario", allLabel: "Any scenario", options: SCENARIOS.map((s) => ({ value: s, label: SCENARIO_LABELS[s] })) },
       ...(rules.length ? [{ param: "rule", label: "Rule", allLabel: "Any rule", options: rules }] : []),
       ...(sites.length > 1 ? [{ param: "siteId", label: "Site", allLabel: "Every site", options: sites }] : []),
+      // A room includes its units' findings.
+      ...(locations.length ? [{ param: "roomId", label: "Room", allLabel: "Every room", options: locations.map((l) => l.room) }] : []),
+      ...(locations.length ? [{ param: "storageUnitId", label: "Unit", allLabel: "Every unit", options: locations.flatMap((l) => l.units.map((u) => ({ value: u.value, label: `${l.room.label.split(" ")[0]} › ${u.label}` }))) }] : []),
     ],
   };
 }
