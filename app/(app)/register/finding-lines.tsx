@@ -7,7 +7,7 @@ import { humaniseRule, STATUS_LABELS } from "@/lib/register/labels";
 import { SelectBox } from "./selection";
 
 function ratioText(f: FindingListRow): string {
-  return f.ratio == null ? "" : `${formatNumber(f.ratio * 100)} % of the limit`;
+  return f.ratio == null || !Number.isFinite(f.ratio) ? "" : `${formatNumber(f.ratio * 100)} % of the limit`;
 }
 
 function valueText(f: FindingListRow): string {
@@ -123,7 +123,7 @@ export function FindingLinesTable({
               </th>
               <td className="tabular px-2 py-2.5 text-right">
                 <span className="block">{valueText(f)}</span>
-                {f.ratio != null ? <span className="block text-xs text-ink-600">{ratioText(f)}</span> : null}
+                {ratioText(f) ? <span className="block text-xs text-ink-600">{ratioText(f)}</span> : null}
               </td>
               <td className="tabular px-2 py-2.5 text-right" title={f.worstCaseSource ?? undefined}>
                 {formatTempC(f.worstCaseTempC).replace(/ °C$/, "")}
