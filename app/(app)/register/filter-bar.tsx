@@ -1,8 +1,8 @@
 "use client";
 import { Search } from "lucide-react";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useId, useState, type FormEvent } from "react";
-import { controlClass } from "@/components/data-table/data-table-toolbar";
+import { useCallback, useEffect, useId, useState, type FormEvent } from "react";
+import { controlClass, SEARCH_DEBOUNCE_MS } from "@/components/data-table/data-table-toolbar";
 
 type Option = { value: string; label: string };
 export type LocationGroup = { room: Option; units: Option[] };
@@ -20,18 +20,43 @@ export function RegisterFilterBar({ locations, rules, showMine }: { locations: L
   const [text, setText] = useState(params.get("q") ?? "");
   const location = params.get("storageUnitId") ? `unit:${params.get("storageUnitId")}` : params.get("roomId") ? `room:${params.get("roomId")}` : "";
 
-  function apply(changes: Record<string, string | null>) {
-    const next = new URLSearchParams(params.toString());
-    for (const [key, value] of Object.entries(changes)) {
-      if (value === null || value === "") next.delete(key);
-      else next.set(key, value);
-    }
-    next.delete("page");
-    router.replace(`${pathname}?${next.toString()}`, { scroll: false });
+  const current = params.toString();
+  const apply = useCallback(
+    (changes: Record<string, string | null>) => {
+      const next = new URLSearchParams(current);
+      for (const [key, value] of Object.entries(changes)) {
+        if (value === null || value === "") next.delete(key);
+        else next.set(key, value);
+      }
+      next.delete("page");
+      router.replace(`${pathname}?${next.toString()}`, { scroll: false });
+    },
+    [current, pathname, router],
+  );
+
+  // Typing is applied after a short pause, as in every table's search box; Enter applies at once.
+  const applied = params.get("q") ?? "";
+  const [seen, setSeen] = useState(applied);
+  const [sent, setSent] = useState(applied);
+  // The URL changed under us (back button, another link): show its value, unless it is only the
+  // echo of what this box sent while the user kept typing.
+  if (applied !== seen) {
+    setSeen(applied);
+    if (applied !== sent) setText(applied);
   }
+  useEffect(() => {
+    const wanted = text.trim();
+    if (wanted === applied) return;
+    const timer = setTimeout(() => {
+      setSent(wanted);
+      apply({ q: wanted });
+    }, SEARCH_DEBOUNCE_MS);
+    return () => clearTimeout(timer);
+  }, [text, applied, apply]);
 
   function submit(event: FormEvent) {
     event.preventDefault();
+    setSent(text.trim());
     apply({ q: text.trim() });
   }
 
@@ -68,7 +93,6 @@ export function RegisterFilterBar({ locations, rules, showMine }: { locations: L
             autoComplete="off"
             spellCheck={false}
             onChange={(event) => setText(event.target.value)}
-            onBlur={() => text.trim() !== (params.get("q") ?? "") && apply({ q: text.trim() })}
             className={`${controlClass} w-full pl-8`}
           />
         </div>
