@@ -50,22 +50,22 @@ export function FindingLinesTable({
               <span className="sr-only">Select</span>
             </th>
           ) : null}
-          <th scope="col" className="w-28 px-2 py-2">
+          <th scope="col" className="w-26 px-2 py-2">
             Severity
           </th>
           <th scope="col" className="px-2 py-2">
             Problem and location
           </th>
-          <th scope="col" className="w-36 px-2 py-2 text-right md:w-44">
+          <th scope="col" className="w-36 px-2 py-2 text-right">
             Value / limit
           </th>
           <th scope="col" className="w-24 px-2 py-2 text-right">
             Worst case (°C)
           </th>
-          <th scope="col" className="hidden w-32 px-2 py-2 lg:table-cell">
+          <th scope="col" className="hidden w-32 px-2 py-2 xl:table-cell">
             Status
           </th>
-          <th scope="col" className="hidden w-40 px-2 py-2 xl:table-cell">
+          <th scope="col" className="hidden w-40 px-2 py-2 2xl:table-cell">
             Rule
           </th>
         </tr>
@@ -97,7 +97,7 @@ export function FindingLinesTable({
                     f.location.label
                   )}
                   {f.substance || f.mixture ? ` · ${f.substance?.name ?? f.mixture?.name}` : ""}
-                  <span className="lg:hidden"> · {statusText(f.status)}</span>
+                  <span className="xl:hidden"> · {statusText(f.status)}</span>
                 </p>
                 {line.others.length ? (
                   <details className="mt-1 text-xs text-ink-700">
@@ -128,8 +128,8 @@ export function FindingLinesTable({
               <td className="tabular px-2 py-2.5 text-right" title={f.worstCaseSource ?? undefined}>
                 {formatTempC(f.worstCaseTempC).replace(/ °C$/, "")}
               </td>
-              <td className="hidden px-2 py-2.5 lg:table-cell">{statusText(f.status)}</td>
-              <td className="hidden px-2 py-2.5 xl:table-cell">{ruleLabels[f.rule] ?? humaniseRule(f.rule)}</td>
+              <td className="hidden px-2 py-2.5 xl:table-cell">{statusText(f.status)}</td>
+              <td className="hidden px-2 py-2.5 2xl:table-cell">{ruleLabels[f.rule] ?? humaniseRule(f.rule)}</td>
             </tr>
           );
         })}

@@ -49,10 +49,38 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
       header: "Finding",
       meta: { rowHeader: true, className: "min-w-72" },
       cell: ({ row }) => (
-        <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
-          {row.original.title}
-        </Link>
+        <>
+          <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
+            {row.original.title}
+          </Link>
+          <span className="block text-xs text-ink-600">{row.original.location.label}</span>
+        </>
       ),
+    }),
+    column.display({
+      id: "valueLimit",
+      header: "Value / limit",
+      meta: { align: "end" },
+      cell: ({ row }) => {
+        const f = row.original;
+        if (f.value == null) return <span className="text-ink-400">—</span>;
+        return (
+          <span className="whitespace-nowrap">
+            {formatNumber(f.value)}
+            {f.limit != null ? ` / ${formatNumber(f.limit)}` : ""} {f.unit ?? ""}
+          </span>
+        );
+      },
+    }),
+    column.accessor("worstCaseTempC", {
+      header: "Worst case",
+      meta: { align: "end", unit: "°C" },
+      cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
+    }),
+    column.accessor("ratio", {
+      header: "Ratio",
+      meta: { align: "end", unit: "%" },
+      cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
     }),
     column.accessor("status", { header: "Status", cell: ({ row }) => STATUS_LABELS[row.original.status as keyof typeof STATUS_LABELS] ?? row.original.status }),
     column.accessor("rule", { header: "Rule", cell: ({ row }) => ruleLabels[row.original.rule] ?? humaniseRule(row.original.rule) }),
@@ -75,31 +103,6 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
       id: "substance",
       header: "Substance",
       cell: ({ row }) => row.original.substance?.name ?? row.original.mixture?.name ?? <span className="text-ink-400">—</span>,
-    }),
-    column.display({
-      id: "valueLimit",
-      header: "Value / limit",
-      meta: { align: "end" },
-      cell: ({ row }) => {
-        const f = row.original;
-        if (f.value == null) return <span className="text-ink-400">—</span>;
-        return (
-          <span className="whitespace-nowrap">
-            {formatNumber(f.value)}
-            {f.limit != null ? ` / ${formatNumber(f.limit)}` : ""} {f.unit ?? ""}
-          </span>
-        );
-      },
-    }),
-    column.accessor("ratio", {
-      header: "Ratio",
-      meta: { align: "end", unit: "%" },
-      cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
-    }),
-    column.accessor("worstCaseTempC", {
-      header: "Worst case",
-      meta: { align: "end", unit: "°C" },
-      cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
     }),
     column.accessor("firstRaisedAt", { id: "age", header: "Age", meta: { align: "end" }, cell: ({ row }) => ageText(row.original.firstRaisedAt) }),
   ]);
