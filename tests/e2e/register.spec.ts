@@ -26,7 +26,7 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   await expect(page.getByRole("link", { name: "One line per problem" })).toHaveAttribute("aria-current", "page");
   await page.getByRole("link", { name: "By location" }).click();
   await expect(page).toHaveURL(/view=locations/);
-  await expect(page.getByRole("listitem").first()).toContainText("2.107 › FR-1");
+  await expect(page.getByRole("list", { name: "Findings by location" }).getByRole("listitem").first()).toContainText("2.107 › FR-1");
   await page.getByRole("link", { name: "One line per problem" }).click();
   await expect(page).toHaveURL(/view=lines/);
   await page.getByRole("searchbox").or(page.getByLabel("Search")).first().fill("Diethyl ether (GHS category 1");
