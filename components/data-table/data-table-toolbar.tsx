@@ -51,7 +51,7 @@ function SearchBox({
   }
 
   return (
-    <form role="search" onSubmit={submit} className="flex min-w-0 flex-1 flex-col gap-1 sm:max-w-sm">
+    <form role="search" onSubmit={submit} className="flex w-full min-w-0 flex-col gap-1 sm:w-80 sm:flex-none">
       <label htmlFor={id} className="text-xs font-medium text-ink-700">
         {label}
       </label>

@@ -1,9 +1,10 @@
 import "server-only";
-import { and, asc, count, desc, eq, inArray, or, sql as rawSql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNull, or, sql as rawSql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { getDb } from "@/db/client";
 import { containers, findingEvents, findings, findingTraces, mixtures, rooms, sites, storageUnits, substances, users, type Severity } from "@/db/schema";
 import type { FindingListQuery } from "@/lib/register/schemas";
+import { groupFindings, type FindingLine } from "@/lib/register/grouping";
 import { lastAssessedAt } from "@/lib/register/store";
 import type { Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
@@ -37,6 +38,8 @@ const STATUS_ORDER = rawSql`case ${findings.status} when 'open' then 1 when 'ack
 
 export type FindingListRow = {
   id: number;
+  /** rule | location | subject | scenario: the findings of one problem share all but the scenario. */
+  fingerprint: string;
   rule: string;
   severity: Severity;
   status: string;
@@ -57,6 +60,31 @@ export type FindingListRow = {
   assignee: { id: number; name: string } | null;
 };
 
+/**
+ * The findings a container contributes to, for the containers `containerCondition` picks (a SQL
+ * condition on the alias `c`): the findings that turn on it; those of its unit, and of its room's
+ * own rules (spills, the room's worst case), about its substance or mixture; its unit's
+ * "open containers together" while it is open, and its unit's or room's quantity limits; its room's
+ * oxygen and CO₂ findings when it holds a cryogen or dry ice. Empty and disposed containers
+ * contribute nothing.
+ */
+function contributedBy(containerCondition: SQL): SQL {
+  return rawSql`exists (
+    select 1 from containers c
+    join storage_units cu on cu.id = c.storage_unit_id
+    left join substances cs on cs.id = c.substance_id
+    where ${containerCondition} and c.state not in ('empty', 'disposed') and (
+      ${findings.containerId} = c.id
+      or ((${findings.storageUnitId} = c.storage_unit_id or (${findings.storageUnitId} is null and ${findings.roomId} = cu.room_id)) and (
+        ${findings.substanceId} = c.substance_id
+        or ${findings.mixtureId} = c.mixture_id
+        or (${findings.rule} = 'enclosure-lfl' and ${findings.substanceId} is null and ${findings.mixtureId} is null and c.state in ('opened', 'in_use'))
+        or ${findings.rule} = 'quantity-limit'
+        or (${findings.rule} in ('oxygen-depletion', 'co2-exposure') and cs.physical_state in ('cryogen', 'solid'))
+      ))
+    ))`;
+}
+
 function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): SQL | undefined {
   const like = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   return and(
@@ -65,32 +93,36 @@ function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingL
     query.status?.length ? inArray(findings.status, query.status) : undefined,
     query.scenario?.length ? inArray(findings.scenario, query.scenario) : undefined,
     query.siteId ? eq(findings.siteId, query.siteId) : undefined,
+    // A unit's findings carry its room too: a room's filter includes its units' findings.
     query.roomId ? eq(findings.roomId, query.roomId) : undefined,
     query.storageUnitId ? eq(findings.storageUnitId, query.storageUnitId) : undefined,
+    query.containerId ? contributedBy(rawSql`c.id = ${query.containerId}`) : undefined,
+    query.substanceId
+      ? or(
+          eq(findings.substanceId, query.substanceId),
+          inArray(findings.mixtureId, rawSql`(select mixture_id from mixture_components where substance_id = ${query.substanceId})`),
+        )
+      : undefined,
+    query.mine ? contributedBy(rawSql`c.owner_id = ${user.id}`) : undefined,
     query.rule ? eq(findings.rule, query.rule) : undefined,
-    query.q ? rawSql`lower(${findings.title}) like ${like(query.q)} escape '\\'` : undefined,
+    query.q
+      ? or(
+          rawSql`lower(${findings.title}) like ${like(query.q)} escape '\\'`,
+          // A room's code finds its units' findings as well (they carry the room).
+          inArray(findings.roomId, rawSql`(select id from rooms where lower(code) like ${like(query.q)} escape '\\')`),
+          inArray(findings.storageUnitId, rawSql`(select id from storage_units where lower(code) like ${like(query.q)} escape '\\')`),
+        )
+      : undefined,
   );
 }
 
-export function listFindingsPage(user: SessionUser, scope: Scope, query: FindingListQuery): { rows: FindingListRow[]; total: number } {
+function readListRows(where: SQL | undefined, order: SQL[], paging?: { limit: number; offset: number }): FindingListRow[] {
   const db = getDb();
   const assignee = alias(users, "assignee");
-  const where = findingFilters(user, scope, query);
-  const dir = query.dir === "desc" ? desc : asc;
-  const order: SQL[] = {
-    severity: [dir(SEVERITY_ORDER), desc(findings.ratio)],
-    status: [dir(STATUS_ORDER), desc(SEVERITY_ORDER)],
-    rule: [dir(findings.rule), desc(SEVERITY_ORDER)],
-    location: [dir(rooms.code), dir(storageUnits.code)],
-    ratio: [rawSql`${findings.ratio} ${rawSql.raw(query.dir)} nulls last`],
-    worstCaseTempC: [rawSql`${findings.worstCaseTempC} ${rawSql.raw(query.dir)} nulls last`],
-    age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
-    updated: [dir(findings.updatedAt)],
-  }[query.sort].map((o) => o as SQL);
-  const total = db.select({ n: count() }).from(findings).where(where).get()?.n ?? 0;
-  const rows = db
+  const query = db
     .select({
       id: findings.id,
+      fingerprint: findings.fingerprint,
       rule: findings.rule,
       severity: findings.severity,
       status: findings.status,
@@ -127,14 +159,11 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
     .leftJoin(mixtures, eq(mixtures.id, findings.mixtureId))
     .leftJoin(assignee, eq(assignee.id, findings.assigneeId))
     .where(where)
-    .orderBy(...order, asc(findings.id))
-    .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize)
-    .all();
-  return {
-    total,
-    rows: rows.map((r) => ({
+    .orderBy(...order, asc(findings.id));
+  const rows = paging ? query.limit(paging.limit).offset(paging.offset).all() : query.all();
+  return rows.map((r) => ({
       id: r.id,
+      fingerprint: r.fingerprint,
       rule: r.rule,
       severity: r.severity,
       status: r.status,
@@ -161,8 +190,175 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
       mixture: r.mixtureId ? { id: r.mixtureId, name: r.mixtureName! } : null,
       containerId: r.containerId,
       assignee: r.assigneeId ? { id: r.assigneeId, name: r.assigneeName! } : null,
-    })),
-  };
+  }));
+}
+
+export function listFindingsPage(user: SessionUser, scope: Scope, query: FindingListQuery): { rows: FindingListRow[]; total: number } {
+  const where = findingFilters(user, scope, query);
+  const dir = query.dir === "desc" ? desc : asc;
+  const order: SQL[] = {
+    severity: [dir(SEVERITY_ORDER), desc(findings.ratio)],
+    status: [dir(STATUS_ORDER), desc(SEVERITY_ORDER)],
+    rule: [dir(findings.rule), desc(SEVERITY_ORDER)],
+    location: [dir(rooms.code), dir(storageUnits.code)],
+    ratio: [rawSql`${findings.ratio} ${rawSql.raw(query.dir)} nulls last`],
+    worstCaseTempC: [rawSql`${findings.worstCaseTempC} ${rawSql.raw(query.dir)} nulls last`],
+    age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
+    updated: [dir(findings.updatedAt)],
+  }[query.sort].map((o) => o as SQL);
+  const total = getDb().select({ n: count() }).from(findings).where(where).get()?.n ?? 0;
+  return { total, rows: readListRows(where, order, { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }) };
+}
+
+/** rule | location | subject: the fingerprint without its scenario (as `findingGroupKey` in lib/register/grouping.ts). */
+const GROUP_KEY = rawSql<string>`substr(${findings.fingerprint}, 1, length(${findings.fingerprint}) - length(${findings.scenario}) - 1)`;
+
+/**
+ * One line per problem, a page of lines at a time: the lines are paged in SQL (worst first, or by
+ * location), then every finding of the page's lines is read and arranged by `groupFindings`.
+ * `total` counts lines, `findings` the findings within them.
+ */
+export function listFindingLinesPage(
+  user: SessionUser,
+  scope: Scope,
+  query: FindingListQuery,
+): { lines: FindingLine<FindingListRow>[]; total: number; findings: number } {
+  const db = getDb();
+  const where = findingFilters(user, scope, query);
+  const worst = rawSql<number>`max(${SEVERITY_ORDER})`;
+  const maxRatio = rawSql<number | null>`max(${findings.ratio})`;
+  const up = query.dir === "asc";
+  const order: SQL[] =
+    query.sort === "location"
+      ? [rawSql`min(${rooms.code}) ${rawSql.raw(up ? "asc" : "desc")}`, rawSql`min(coalesce(${storageUnits.code}, '')) ${rawSql.raw(up ? "asc" : "desc")}`, desc(worst)]
+      : query.sort === "ratio"
+        ? [rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`, desc(worst)]
+        : [up ? asc(worst) : desc(worst), rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`];
+  const totals = db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get();
+  const keys = db
+    .select({ key: GROUP_KEY })
+    .from(findings)
+    .leftJoin(rooms, eq(rooms.id, findings.roomId))
+    .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
+    .where(where)
+    .groupBy(GROUP_KEY)
+    .orderBy(...order, asc(GROUP_KEY))
+    .limit(query.pageSize)
+    .offset((query.page - 1) * query.pageSize)
+    .all()
+    .map((r) => r.key);
+  const rank = new Map(keys.map((key, i) => [key, i]));
+  const rows = keys.length ? readListRows(and(where, inArray(GROUP_KEY, keys)), [desc(SEVERITY_ORDER)]) : [];
+  const lines = groupFindings(rows).sort((a, b) => rank.get(a.key)! - rank.get(b.key)!);
+  return { lines, total: totals?.lines ?? 0, findings: totals?.findings ?? 0 };
+}
+
+export type LocationSummary = {
+  roomId: number;
+  roomCode: string;
+  roomName: string;
+  storageUnitId: number | null;
+  unitCode: string | null;
+  unitName: string | null;
+  label: string;
+  worst: Severity;
+  counts: Record<Severity, number>;
+  total: number;
+  /** The location's worst finding. */
+  top: { id: number; title: string; severity: Severity };
+};
+
+const SEVERITY_OF_RANK: Record<number, Severity> = { 4: "critical", 3: "high", 2: "moderate", 1: "low" };
+
+/**
+ * The register by location: every room (its own findings) and every storage unit with findings in
+ * the filters, worst first, with its counts per severity and its worst finding. The counts of all
+ * locations add up to the findings in the filters (each finding has one room and at most one unit).
+ */
+export function listFindingLocations(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): LocationSummary[] {
+  const where = findingFilters(user, scope, query);
+  const bySeverity = (severity: Severity) => rawSql<number>`sum(case when ${findings.severity} = ${severity} then 1 else 0 end)`;
+  const ranked = getDb()
+    .select({
+      id: findings.id,
+      roomId: findings.roomId,
+      storageUnitId: findings.storageUnitId,
+      title: findings.title,
+      severity: findings.severity,
+      place: rawSql<number>`row_number() over (partition by ${findings.roomId}, ${findings.storageUnitId} order by ${SEVERITY_ORDER} desc, ${findings.ratio} desc nulls last, ${findings.id})`.as("place"),
+    })
+    .from(findings)
+    .where(where)
+    .as("ranked");
+  const tops = new Map(
+    getDb()
+      .select({ id: ranked.id, roomId: ranked.roomId, storageUnitId: ranked.storageUnitId, title: ranked.title, severity: ranked.severity })
+      .from(ranked)
+      .where(eq(ranked.place, 1))
+      .all()
+      .map((t) => [`${t.roomId}|${t.storageUnitId ?? ""}`, t]),
+  );
+  const rows = getDb()
+    .select({
+      roomId: findings.roomId,
+      storageUnitId: findings.storageUnitId,
+      roomCode: rooms.code,
+      roomName: rooms.name,
+      unitCode: storageUnits.code,
+      unitName: storageUnits.name,
+      worst: rawSql<number>`max(${SEVERITY_ORDER})`,
+      critical: bySeverity("critical"),
+      high: bySeverity("high"),
+      moderate: bySeverity("moderate"),
+      low: bySeverity("low"),
+      total: count(),
+    })
+    .from(findings)
+    .innerJoin(rooms, eq(rooms.id, findings.roomId))
+    .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
+    .where(where)
+    .groupBy(findings.roomId, findings.storageUnitId)
+    .orderBy(desc(rawSql`max(${SEVERITY_ORDER})`), desc(bySeverity("critical")), desc(bySeverity("high")), desc(count()), asc(rooms.code), asc(storageUnits.code))
+    .all();
+  return rows.map((r) => {
+    const top = tops.get(`${r.roomId}|${r.storageUnitId ?? ""}`)!;
+    return {
+      roomId: r.roomId!,
+      roomCode: r.roomCode,
+      roomName: r.roomName,
+      storageUnitId: r.storageUnitId,
+      unitCode: r.unitCode,
+      unitName: r.unitName,
+      label: r.unitCode ? `${r.roomCode} › ${r.unitCode}` : r.roomCode,
+      worst: SEVERITY_OF_RANK[Number(r.worst)],
+      counts: { critical: Number(r.critical), high: Number(r.high), moderate: Number(r.moderate), low: Number(r.low) },
+      total: r.total,
+      top: { id: top.id, title: top.title, severity: top.severity },
+    };
+  });
+}
+
+/** The findings of some locations, as lines per location ("room:1" for a room's own findings, "unit:5"). */
+export function findingLinesAt(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>, locations: { roomId: number; storageUnitId: number | null }[]): Map<string, FindingLine<FindingListRow>[]> {
+  const result = new Map<string, FindingLine<FindingListRow>[]>();
+  if (locations.length === 0) return result;
+  const unitIds = locations.flatMap((l) => (l.storageUnitId !== null ? [l.storageUnitId] : []));
+  const roomIds = locations.flatMap((l) => (l.storageUnitId === null ? [l.roomId] : []));
+  const where = and(
+    findingFilters(user, scope, query),
+    or(
+      unitIds.length ? inArray(findings.storageUnitId, unitIds) : undefined,
+      roomIds.length ? and(inArray(findings.roomId, roomIds), isNull(findings.storageUnitId)) : undefined,
+    ),
+  );
+  const rows = readListRows(where, [desc(SEVERITY_ORDER)]);
+  const byLocation = new Map<string, FindingListRow[]>();
+  for (const row of rows) {
+    const key = row.location.storageUnitId !== null ? `unit:${row.location.storageUnitId}` : `room:${row.location.roomId}`;
+    byLocation.set(key, [...(byLocation.get(key) ?? []), row]);
+  }
+  for (const [key, list] of byLocation) result.set(key, groupFindings(list));
+  return result;
 }
 
 /** Open findings per severity within the same filters (the register's counts). */

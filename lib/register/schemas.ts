@@ -55,6 +55,9 @@ const oneOrMore = <const T extends readonly [string, ...string[]]>(label: string
     .refine((list) => !list || list.every((s) => (values as readonly string[]).includes(s)), `${label} must be one or more of: ${values.join(", ")}.`)
     .transform((list) => list as T[number][] | undefined);
 
+export const REGISTER_VIEW_KINDS = ["lines", "flat", "locations"] as const;
+export type RegisterViewKind = (typeof REGISTER_VIEW_KINDS)[number];
+
 export const FINDING_SORTS = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age", "updated"] as const;
 
 export const findingListQuerySchema = listQuerySchema({
@@ -68,11 +71,50 @@ export const findingListQuerySchema = listQuerySchema({
     siteId: filterId("siteId"),
     roomId: filterId("roomId"),
     storageUnitId: filterId("storageUnitId"),
+    containerId: filterId("containerId"),
+    substanceId: filterId("substanceId"),
+    mine: z
+      .enum(["true", "false", ""], { error: "mine must be true or false." })
+      .optional()
+      .transform((v) => v === "true"),
     rule: z.string().trim().max(60, "rule is at most 60 characters.").optional(),
     q: z.string().trim().max(100, "q is at most 100 characters.").optional(),
+    /** The register page's view: one line per problem, every finding, or by location (the API ignores it). */
+    view: z.enum(REGISTER_VIEW_KINDS, { error: `view must be one of: ${REGISTER_VIEW_KINDS.join(", ")}.` }).optional(),
   },
 });
 export type FindingListQuery = z.output<typeof findingListQuerySchema>;
+
+/** Most findings one bulk step may name. */
+export const MAX_BULK_FINDINGS = 500;
+
+const bulkIds = {
+  findingIds: z
+    .array(requiredId("finding (a positive whole number)"), {
+      error: "findingIds must be a list of finding ids.",
+    })
+    .min(1, "Choose at least one finding.")
+    .max(MAX_BULK_FINDINGS, `At most ${MAX_BULK_FINDINGS} findings at once.`)
+    .refine((ids) => new Set(ids).size === ids.length, "Name each finding once."),
+};
+
+/**
+ * One step on many findings: `{ findingIds, kind, … }` with the same fields as one finding's step
+ * (reopen and resolve stay per finding: each needs its own reason).
+ */
+export const bulkFindingEventSchema = z.discriminatedUnion(
+  "kind",
+  [
+    FINDING_STEP_SCHEMAS.acknowledge.extend(bulkIds),
+    FINDING_STEP_SCHEMAS.start_mitigation.extend(bulkIds),
+    FINDING_STEP_SCHEMAS.accept_risk.extend(bulkIds),
+    FINDING_STEP_SCHEMAS.comment.extend(bulkIds),
+    FINDING_STEP_SCHEMAS.assign.extend(bulkIds),
+  ],
+  { error: "kind must be one of acknowledge, start_mitigation, accept_risk, comment, assign." },
+);
+export type BulkFindingEventInput = z.output<typeof bulkFindingEventSchema>;
+export const BULK_EVENT_KINDS = ["acknowledge", "assign", "comment", "start_mitigation", "accept_risk"] as const;
 
 /** A saved register view: the query string of the register page, for one role. */
 export const registerViewSchema = z.object({

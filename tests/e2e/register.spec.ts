@@ -21,6 +21,14 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   // The register opens on the findings that need work, most severe first.
   await page.getByRole("link", { name: "Register" }).first().click();
   await expect(page).toHaveURL(/\/register\?status=open/);
+  // One line per problem by default; the by-location view opens on the worst location, the
+  // domestic refrigerator FR-1 with its ether and acetone.
+  await expect(page.getByRole("link", { name: "One line per problem" })).toHaveAttribute("aria-current", "page");
+  await page.getByRole("link", { name: "By location" }).click();
+  await expect(page).toHaveURL(/view=locations/);
+  await expect(page.getByRole("list", { name: "Findings by location" }).getByRole("listitem").first()).toContainText("2.107 › FR-1");
+  await page.getByRole("link", { name: "One line per problem" }).click();
+  await expect(page).toHaveURL(/view=lines/);
   await page.getByRole("searchbox").or(page.getByLabel("Search")).first().fill("Diethyl ether (GHS category 1");
   // The search reaches the URL after a short pause; a click before it would be undone by it.
   await expect(page).toHaveURL(/[?&]q=Diethyl/);

@@ -83,6 +83,7 @@ const ROUTES: Entry[] = [
   { file: "findings/route.ts", method: "GET", path: "/api/v1/findings", action: "findings.read" },
   { file: "findings/[id]/route.ts", method: "GET", path: "/api/v1/findings/999", action: "findings.read", params: { id: "999" } },
   { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },
+  { file: "findings/events/route.ts", method: "POST", path: "/api/v1/findings/events", action: "findings.comment", body: {} },
   { file: "assessments/preview/route.ts", method: "POST", path: "/api/v1/assessments/preview", action: "assessments.preview", body: {} },
   { file: "settings/assessment/route.ts", method: "GET", path: "/api/v1/settings/assessment", action: "findings.read" },
   { file: "settings/assessment/route.ts", method: "PUT", path: "/api/v1/settings/assessment", action: "hazardSettings.write", body: {} },

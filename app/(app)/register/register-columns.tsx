@@ -11,9 +11,11 @@ export type RegisterRow = Omit<FindingListRow, "firstRaisedAt" | "updatedAt"> & 
 
 export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age"] as const;
 
-export function registerFilters(rules: { value: string; label: string }[], sites: { value: string; label: string }[]): DataTableFilters {
+type Option = { value: string; label: string };
+
+export function registerFilters(rules: Option[], sites: Option[], locations: { room: Option; units: Option[] }[] = []): DataTableFilters {
   return {
-    search: { label: "Search", placeholder: "Words in the finding" },
+    search: { label: "Search", placeholder: "Words, room or unit code (B-014, FR-1)" },
     selects: [
       { param: "severity", label: "Severity", allLabel: "Any severity", options: [{ value: "critical,high", label: "Critical or high" }, ...SEVERITIES.map((s) => ({ value: s, label: s.charAt(0).toUpperCase() + s.slice(1) }))] },
       {
@@ -25,6 +27,9 @@ export function registerFilters(rules: { value: string; label: string }[], sites
       { param: "scenario", label: "Scenario", allLabel: "Any scenario", options: SCENARIOS.map((s) => ({ value: s, label: SCENARIO_LABELS[s] })) },
       ...(rules.length ? [{ param: "rule", label: "Rule", allLabel: "Any rule", options: rules }] : []),
       ...(sites.length > 1 ? [{ param: "siteId", label: "Site", allLabel: "Every site", options: sites }] : []),
+      // A room includes its units' findings.
+      ...(locations.length ? [{ param: "roomId", label: "Room", allLabel: "Every room", options: locations.map((l) => l.room) }] : []),
+      ...(locations.length ? [{ param: "storageUnitId", label: "Unit", allLabel: "Every unit", options: locations.flatMap((l) => l.units.map((u) => ({ value: u.value, label: `${l.room.label.split(" ")[0]} › ${u.label}` }))) }] : []),
     ],
   };
 }
@@ -44,10 +49,38 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
       header: "Finding",
       meta: { rowHeader: true, className: "min-w-72" },
       cell: ({ row }) => (
-        <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
-          {row.original.title}
-        </Link>
+        <>
+          <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
+            {row.original.title}
+          </Link>
+          <span className="block text-xs text-ink-600">{row.original.location.label}</span>
+        </>
       ),
+    }),
+    column.display({
+      id: "valueLimit",
+      header: "Value / limit",
+      meta: { align: "end" },
+      cell: ({ row }) => {
+        const f = row.original;
+        if (f.value == null) return <span className="text-ink-400">—</span>;
+        return (
+          <span className="whitespace-nowrap">
+            {formatNumber(f.value)}
+            {f.limit != null ? ` / ${formatNumber(f.limit)}` : ""} {f.unit ?? ""}
+          </span>
+        );
+      },
+    }),
+    column.accessor("worstCaseTempC", {
+      header: "Worst case",
+      meta: { align: "end", unit: "°C" },
+      cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
+    }),
+    column.accessor("ratio", {
+      header: "Ratio",
+      meta: { align: "end", unit: "%" },
+      cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
     }),
     column.accessor("status", { header: "Status", cell: ({ row }) => STATUS_LABELS[row.original.status as keyof typeof STATUS_LABELS] ?? row.original.status }),
     column.accessor("rule", { header: "Rule", cell: ({ row }) => ruleLabels[row.original.rule] ?? humaniseRule(row.original.rule) }),
@@ -70,31 +103,6 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
       id: "substance",
       header: "Substance",
       cell: ({ row }) => row.original.substance?.name ?? row.original.mixture?.name ?? <span className="text-ink-400">—</span>,
-    }),
-    column.display({
-      id: "valueLimit",
-      header: "Value / limit",
-      meta: { align: "end" },
-      cell: ({ row }) => {
-        const f = row.original;
-        if (f.value == null) return <span className="text-ink-400">—</span>;
-        return (
-          <span className="whitespace-nowrap">
-            {formatNumber(f.value)}
-            {f.limit != null ? ` / ${formatNumber(f.limit)}` : ""} {f.unit ?? ""}
-          </span>
-        );
-      },
-    }),
-    column.accessor("ratio", {
-      header: "Ratio",
-      meta: { align: "end", unit: "%" },
-      cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
-    }),
-    column.accessor("worstCaseTempC", {
-      header: "Worst case",
-      meta: { align: "end", unit: "°C" },
-      cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
     }),
     column.accessor("firstRaisedAt", { id: "age", header: "Age", meta: { align: "end" }, cell: ({ row }) => ageText(row.original.firstRaisedAt) }),
   ]);

@@ -14,7 +14,7 @@ import {
   type TraceValue,
 } from "@/lib/hazard";
 import { cachedBoilingTempC, cachedLowerFlammableTempC } from "./cache";
-import { findingTrace, largestByMass, severityStep, worstCaseInput, type AssessmentContext, type ContentGroup, type ScenarioView } from "./context";
+import { findingTrace, isClosedUnit, largestByMass, severityStep, worstCaseInput, type AssessmentContext, type ContentGroup, type ScenarioView } from "./context";
 import { capitalise, formatQuantity, formatSig, formatTempC } from "./format";
 import { ruleLabel } from "./rule-ids";
 import { flashPointSeverity } from "./severity";
@@ -50,9 +50,13 @@ function flashPointFinding(ctx: AssessmentContext, group: ContentGroup, view: Sc
     }
     return;
   }
-  const severity = flashPointSeverity(view.tempC, flashPointC, ctx.settings);
+  // A closed unit whose interior is free of ignition sources is built to hold liquids above their
+  // flash points: the vapor inside has nothing to ignite it (the enclosure rule grades the vapor).
+  const ignitionFreeUnit = ctx.unit !== null && ctx.unit.ignitionSourceFree && isClosedUnit(ctx.unit);
+  const severity = flashPointSeverity(view.tempC, flashPointC, ctx.settings, ignitionFreeUnit);
   if (severity === null) return;
   const { flashPoint } = ctx.settings;
+  const gradeWithoutUnit = flashPointSeverity(view.tempC, flashPointC, ctx.settings);
   const marginToFlashPointC = flashPointC - view.tempC;
   const atOrAbove = marginToFlashPointC <= 0;
   ctx.finding({
@@ -100,11 +104,22 @@ function flashPointFinding(ctx: AssessmentContext, group: ContentGroup, view: Sc
         severityStep(
           "Severity: at or above the flash point, or within the margin below it",
           `ΔT ≤ 0 → ${flashPoint.atOrAboveSeverity}; 0 < ΔT ≤ ${flashPoint.marginC} °C → ${flashPoint.withinMarginSeverity}`,
-          `ΔT = ${formatSig(marginToFlashPointC, 4)} °C → ${severity}`,
-          severity,
+          `ΔT = ${formatSig(marginToFlashPointC, 4)} °C → ${gradeWithoutUnit}`,
+          gradeWithoutUnit ?? severity,
           flashPoint.source,
         ),
       ];
+      if (gradeWithoutUnit !== severity) {
+        steps.push(
+          severityStep(
+            `${ctx.unit?.code ?? "The unit"} is closed and its interior is free of ignition sources: information only`,
+            "severity = min(severity from ΔT, severity for an ignition-free closed unit)",
+            `min(${gradeWithoutUnit}, ${flashPoint.ignitionFreeSeverity}) = ${severity}`,
+            severity,
+            flashPoint.source,
+          ),
+        );
+      }
       return findingTrace({
         rule: "flash-point",
         scenario: view.scenario,

@@ -68,7 +68,7 @@ export const EXAMPLE_QUANTITY_LIMITS: readonly QuantityLimitSetting[] = [
     maxVolumeL: 120 * LITRES_PER_US_GALLON,
     sprinkleredMaxVolumeL: 240 * LITRES_PER_US_GALLON,
     basis:
-      "Example default: IFC Table 5003.1.1(1) maximum allowable quantity per control area, 120 gal Class IA+IB+IC combined, doubled in a fully sprinklered building (combined figure and sprinkler allowance recalled from memory, not read — verify against your adopted edition; the AHJ decides). Counts liquids in cabinets too.",
+      "Example default: IFC (2012) Table 5003.1.1(1), maximum allowable quantity per control area: 120 gal of Class IB flammable liquid (as adopted in the 2014 Indiana Fire Code). This example applies the 120 gal to Class IA, IB and IC together and doubles it in a fully sprinklered building; replace both with the table and footnotes of the edition your authority has adopted — the authority having jurisdiction decides. Counts liquids in cabinets too.",
   },
 ];
 
@@ -85,7 +85,8 @@ export const DEFAULT_ASSESSMENT_SETTINGS: AssessmentSettings = {
     marginC: 10,
     atOrAboveSeverity: "moderate",
     withinMarginSeverity: "low",
-    source: `${DEFAULT_NOTE} Margin 10 °C: ASTM E502 says flammable vapor might be present from 5–10 °C below the closed-cup flash point; OSHA 29 CFR 1910.106(a)(19) handles a liquid heated to within 30 °F (16.7 °C) of its flash point as the next more hazardous category. NFPA 45 (2004) annex A.12.2.2.2.1: refrigerator temperatures are almost always above the flash points of the flammable liquids stored in them.`,
+    ignitionFreeSeverity: "low",
+    source: `${DEFAULT_NOTE} Margin 10 °C: ASTM E502 says flammable vapor might be present from 5–10 °C below the closed-cup flash point; OSHA 29 CFR 1910.106(a)(19) handles a liquid heated to within 30 °F (16.7 °C) of its flash point as the next more hazardous category. NFPA 45 (2004) annex A.12.2.2.2.1: refrigerator temperatures are almost always above the flash points of the flammable liquids stored in them, and what makes a domestic refrigerator dangerous is the ignition sources in its compartment — so inside a closed unit whose interior is free of ignition sources (a flammable-storage or explosion-proof refrigerator, a closed flammable-liquid cabinet) the flash-point finding is information (low); the closed-space rule grades the vapor itself against the LFL. Moderate at or above the flash point elsewhere, and low for the margin: common practice.`,
   },
   boilingPoint: {
     severity: "high",
@@ -113,7 +114,7 @@ export const DEFAULT_ASSESSMENT_SETTINGS: AssessmentSettings = {
     durationMin: 15,
     evaporationModel: "epa-rmp",
     schmidtNumber: 1.5,
-    source: `${DEFAULT_NOTE} Pool depth 1 cm for an undiked spill: US EPA RMP Offsite Consequence Analysis Guidance (EPA 550-B-99-009) and DOE-STD-3014-96. Evaporation: EPA RMP Eq. D-1. Air speed 0.1 m/s: laboratory air typically moves at about 20 ft/min (NRC Prudent Practices 1981, §I.H.1). 15 minutes: the STEL averaging period (NIOSH, OSHA) and the period over which OSHA assesses a ceiling. Schmidt number 1.5 (only for Mackay–Matsugu): a typical value for organic vapors in air, recalled from memory.`,
+    source: `${DEFAULT_NOTE} Pool depth 1 cm for an undiked spill: US EPA RMP Offsite Consequence Analysis Guidance (EPA 550-B-99-009) and DOE-STD-3014-96. Evaporation: EPA RMP Eq. D-1. Air speed 0.1 m/s: laboratory air typically moves at about 20 ft/min (NRC Prudent Practices 1981, §I.H.1). 15 minutes: the STEL averaging period (NIOSH, OSHA) and the period over which OSHA assesses a ceiling. Schmidt number 1.5 (only for Mackay–Matsugu): common practice for organic vapors in air (Sc = ν/D: air about 1.5 × 10⁻⁵ m²/s over a vapor diffusivity of about 10⁻⁵ m²/s).`,
   },
   quantities: {
     warnFraction: 0.8,
@@ -201,6 +202,8 @@ export const assessmentSettingsSchema: z.ZodType<AssessmentSettings> = z.object(
     marginC: z.number().min(0, "The margin cannot be negative.").max(50, "The margin must be at most 50 °C."),
     atOrAboveSeverity: severity,
     withinMarginSeverity: severity,
+    // Settings stored before this field existed keep their values and get the default.
+    ignitionFreeSeverity: severity.default("low"),
     source,
   }),
   boilingPoint: z.object({ severity, source }),
@@ -322,12 +325,17 @@ export function oxygenSeverity(oxygenPercent: number, settings: AssessmentSettin
   return null;
 }
 
-/** At or above the flash point; or within the margin below it (FP − T ≤ margin); otherwise none. */
-export function flashPointSeverity(tempC: number, flashPointC: number, settings: AssessmentSettings): Severity | null {
+/**
+ * At or above the flash point; or within the margin below it (FP − T ≤ margin); otherwise none.
+ * Inside a closed unit whose interior is free of ignition sources at most `ignitionFreeSeverity`.
+ */
+export function flashPointSeverity(tempC: number, flashPointC: number, settings: AssessmentSettings, ignitionFreeUnit = false): Severity | null {
   const marginToFlashPointC = flashPointC - tempC;
-  if (marginToFlashPointC <= 0) return settings.flashPoint.atOrAboveSeverity;
-  if (marginToFlashPointC <= settings.flashPoint.marginC) return settings.flashPoint.withinMarginSeverity;
-  return null;
+  let severity: Severity | null = null;
+  if (marginToFlashPointC <= 0) severity = settings.flashPoint.atOrAboveSeverity;
+  else if (marginToFlashPointC <= settings.flashPoint.marginC) severity = settings.flashPoint.withinMarginSeverity;
+  if (severity !== null && ignitionFreeUnit && RANK[severity] > RANK[settings.flashPoint.ignitionFreeSeverity]) return settings.flashPoint.ignitionFreeSeverity;
+  return severity;
 }
 
 /** Whether a liquid counts as flammable for storage: GHS category 1–3 or NFPA class I. */

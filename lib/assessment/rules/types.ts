@@ -199,6 +199,13 @@ export type AssessmentSettings = {
     readonly marginC: number;
     readonly atOrAboveSeverity: Severity;
     readonly withinMarginSeverity: Severity;
+    /**
+     * The severity of a liquid at or above (or near) its flash point inside a closed unit whose
+     * interior is free of ignition sources (a rated cabinet, a flammable-storage or
+     * explosion-proof refrigerator): information — the unit is built for exactly that — unless
+     * the rule's own grade is lower. The enclosure rule grades the vapor itself.
+     */
+    readonly ignitionFreeSeverity: Severity;
     readonly source: string;
   };
   readonly boilingPoint: { readonly severity: Severity; readonly source: string };

@@ -54,6 +54,7 @@ const WRITES: Entry[] = [
   { file: "sensors/[id]/csv-uploads/[token]/import/route.ts", method: "POST", auth: "cookie" },
   { file: "excursions/[id]/acknowledge/route.ts", method: "POST", auth: "cookie" },
   { file: "findings/[id]/events/route.ts", method: "POST", auth: "cookie" },
+  { file: "findings/events/route.ts", method: "POST", auth: "cookie" },
   { file: "assessments/preview/route.ts", method: "POST", auth: "cookie" },
   { file: "settings/assessment/route.ts", method: "PUT", auth: "cookie" },
   // Loggers send an API key and no cookie: there is no ambient credential for a foreign page to use.

@@ -38,7 +38,7 @@ const FIELD_NAMES = [
   "email", "name", "role", "password", "next", "label", "substanceId", "mixtureId", "amount", "amountUnit", "capacity",
   "capacityUnit", "storageUnitId", "roomId", "siteId", "ownerId", "state", "kind", "comment", "reviewBy", "assigneeId",
   "tempC", "sensor", "at", "readings", "deviceId", "mapping", "timeZone", "code", "volumeM3", "designMaxTempC",
-  "setPointMinC", "setPointMaxC", "casNumber", "components", "fraction", "scopes", "alerts", "__proto__", "constructor",
+  "setPointMinC", "setPointMaxC", "casNumber", "components", "fraction", "scopes", "alerts", "findingIds", "note", "__proto__", "constructor",
 ];
 
 const value = fc.oneof(

@@ -25,6 +25,25 @@ describe("flash-point", () => {
     expect(at25[0].title).toBe("1-butanol in FSR-1 comes within 10 °C of its flash point of 35.0 °C at its worst case (25.0 °C)");
     expect(assessLocation(unitSnapshot([container(butanol, 1)], shelf(24.9))).filter((f) => f.rule === "flash-point")).toEqual([]);
   });
+  it("in a closed unit whose interior is free of ignition sources, a liquid above its flash point is information (low), not moderate", () => {
+    // Acetone (FP −20 °C) at 8 °C in a flammable-storage refrigerator: NFPA 45 (2004) A.12.2.2.2.1 notes
+    // that refrigerator temperatures are almost always above the flash points of the liquids stored
+    // in them — which is why such units are built without ignition sources inside. The vapor itself
+    // is graded by the enclosure rule; the flash-point line only says the liquid gives off flammable vapor.
+    const acetone = substance(CAS.acetone);
+    const [inFsr] = assessLocation(unitSnapshot([container(acetone, 1)])).filter((f) => f.rule === "flash-point");
+    expect(inFsr).toMatchObject({ severity: "low", value: 8, limitValue: -20 });
+    const steps = inFsr.trace.steps.map((step) => step.description);
+    expect(steps.at(-1)).toBe("FSR-1 is closed and its interior is free of ignition sources: information only");
+    // A closed flammable-liquid cabinet at 28 °C: the same.
+    const cabinet = { kind: "flammable_cabinet" as const, setRange: null, internalVolumeL: 200, worstCase: { inControl: designWorstCase(28), controlLost: null } };
+    expect(assessLocation(unitSnapshot([container(acetone, 1)], cabinet)).find((f) => f.rule === "flash-point")?.severity).toBe("low");
+    // A domestic refrigerator has ignition sources in its compartment: still moderate.
+    const domestic = { kind: "domestic_refrigerator" as const, code: "FR-1", ignitionSourceFree: false };
+    expect(assessLocation(unitSnapshot([container(acetone, 1)], domestic)).find((f) => f.rule === "flash-point" && f.scenario === "in_control")?.severity).toBe("moderate");
+    // A ventilated cabinet is not closed: its vapor reaches the room, so the room's grade holds.
+    expect(assessLocation(unitSnapshot([container(acetone, 1)], { ...cabinet, ventilated: true })).find((f) => f.rule === "flash-point")?.severity).toBe("moderate");
+  });
 });
 
 describe("boiling-point", () => {

@@ -126,6 +126,9 @@ describe("severity at the edges", () => {
     expect(flashPointSeverity(-20, -20, settings)).toBe("moderate");
     expect(flashPointSeverity(25, 35, settings)).toBe("low");
     expect(flashPointSeverity(24.99, 35, settings)).toBeNull();
+    // Inside a closed unit free of ignition sources: information (low) at most; none stays none.
+    expect(flashPointSeverity(-20, -20, settings, true)).toBe("low");
+    expect(flashPointSeverity(24.99, 35, settings, true)).toBeNull();
   });
 
   it("ignition sources: GHS 1–2 / NFPA IA–IB critical, GHS 3 / NFPA IC high, combustible or unclassed none", () => {

@@ -6,6 +6,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { SeverityBadge } from "@/components/ui/severity";
 import type { Severity } from "@/db/enums";
 import type { AssessmentSettings } from "@/lib/assessment/rules";
+import { DEFAULT_REASONS } from "@/lib/assessment/rules/default-reasons";
 import { loadAssessmentSettings } from "@/lib/assessment/service";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
@@ -21,8 +22,8 @@ const percent = (fraction: number | null) => (fraction == null ? "not used" : `$
 const sev = (severity: Severity) => <SeverityBadge severity={severity} />;
 const MODEL_LABELS: Record<AssessmentSettings["spill"]["evaporationModel"], string> = { "epa-rmp": "US EPA RMP (Eq. D-1)", "mackay-matsugu": "Mackay–Matsugu" };
 const MISSING_LABELS: Record<string, string> = {
-  "no-vapor-pressure-method": "No vapour-pressure method",
-  "no-correlation": "No vapour-pressure correlation (estimate used)",
+  "no-vapor-pressure-method": "No vapor-pressure method",
+  "no-correlation": "No vapor-pressure correlation (estimate used)",
   "no-lfl": "No LFL",
   "no-flash-point": "No flash point",
   "no-room-volume": "No room volume",
@@ -38,7 +39,7 @@ const MISSING_LABELS: Record<string, string> = {
 function groups(s: AssessmentSettings): Group[] {
   return [
     {
-      title: "Flammable vapour (share of the LFL)",
+      title: "Flammable vapor (share of the LFL)",
       rows: [
         ["Moderate from", percent(s.lfl.moderate)],
         ["High from", percent(s.lfl.high)],
@@ -53,6 +54,7 @@ function groups(s: AssessmentSettings): Group[] {
         ["Margin below the flash point", `${formatNumber(s.flashPoint.marginC)} °C`],
         ["At or above the flash point", sev(s.flashPoint.atOrAboveSeverity)],
         ["Within the margin", sev(s.flashPoint.withinMarginSeverity)],
+        ["In a closed unit free of ignition sources, at most", sev(s.flashPoint.ignitionFreeSeverity)],
       ],
       source: s.flashPoint.source,
     },
@@ -177,6 +179,48 @@ export default async function AssessmentSettingsPage() {
           </Card>
         ))}
       </div>
+      <Card title="Why the defaults are what they are">
+        <p className="mb-3 text-sm text-ink-700">
+          Each default threshold with its reasoning and its source: a publication with its edition and clause, or common practice where no published rule sets the value. Your organisation&apos;s own values, once saved, replace the defaults above; local codes and the authority having jurisdiction prevail.
+        </p>
+        <div className="overflow-x-auto">
+          <table className="w-full min-w-[40rem] border-collapse text-sm">
+            <caption className="sr-only">Default thresholds, their reasoning and their sources</caption>
+            <thead className="bg-ink-50 text-left text-xs font-semibold text-ink-700">
+              <tr>
+                <th scope="col" className="px-2 py-2">
+                  Threshold
+                </th>
+                <th scope="col" className="px-2 py-2">
+                  Default
+                </th>
+                <th scope="col" className="px-2 py-2">
+                  Why
+                </th>
+                <th scope="col" className="px-2 py-2">
+                  Source
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {DEFAULT_REASONS.map((reason) => (
+                <tr key={`${reason.group}|${reason.threshold}`} className="border-t border-ink-200 align-top">
+                  <th scope="row" className="px-2 py-2 text-left font-medium text-ink-900">
+                    <span className="block text-xs font-normal text-ink-600">{reason.group}</span>
+                    {reason.threshold}
+                  </th>
+                  <td className="tabular px-2 py-2 whitespace-nowrap">
+                    {reason.severity ? <SeverityBadge severity={reason.severity} /> : null}
+                    <span className="block text-xs text-ink-700">{reason.value}</span>
+                  </td>
+                  <td className="px-2 py-2 text-ink-800">{reason.reasoning}</td>
+                  <td className="px-2 py-2 text-xs text-ink-700">{reason.source}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </Card>
       <Caution />
     </div>
   );
