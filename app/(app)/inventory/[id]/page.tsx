@@ -17,6 +17,7 @@ import { idParam } from "@/lib/http/paging";
 import { updateContainerAction } from "../actions";
 import { ContainerForm } from "../container-form";
 import { ContainerStateButtons, MoveContainer } from "./container-actions";
+import { PlaceFindings } from "@/app/(app)/locations/place-findings";
 
 export const metadata: Metadata = { title: "Container" };
 
@@ -119,6 +120,8 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </ol>
         </Card>
       </div>
+
+      <PlaceFindings user={user} place={{ kind: "container", containerId: container.id }} />
 
       <Card title="Safety data sheet">
         <SdsAttachment target={{ kind: "container", id: container.id }} {...containerSds(user, container.id)} />
