@@ -135,3 +135,32 @@ export function worstOpenSeverityByContainer(user: SessionUser, scope: Scope | n
   }
   return result;
 }
+
+/**
+ * Open findings (open, acknowledged, mitigating) that a researcher's live containers contribute to
+ * but that the register records on someone else's container, so the researcher's own scope does
+ * not list them: the findings of the same contents in the same unit, and the room's own findings
+ * of them. Counted per severity for the Overview, never described.
+ */
+export const CONTRIBUTED_ELSEWHERE_SQL = `with mine as (
+    select c.storage_unit_id as unitId, u.room_id as roomId, c.substance_id as substanceId, c.mixture_id as mixtureId
+      from containers c join storage_units u on u.id = c.storage_unit_id
+      where c.owner_id = @userId and c.state not in ('empty', 'disposed')
+      group by 1, 2, 3, 4
+  ),
+  here(id) as (
+    select f.id from mine join findings f on f.storage_unit_id = mine.unitId
+      and (f.substance_id = mine.substanceId or f.mixture_id = mine.mixtureId)
+    union
+    select f.id from mine join findings f on f.room_id = mine.roomId and f.storage_unit_id is null
+      and (f.substance_id = mine.substanceId or f.mixture_id = mine.mixtureId)
+  )
+  select f.severity, count(*) as n
+  from here join findings f on f.id = here.id
+  where f.status in ('open', 'acknowledged', 'mitigating') and not (${VISIBLE})
+  group by f.severity`;
+
+export function openFindingsContributedElsewhere(user: SessionUser): { count: number; worst: Severity | null } {
+  const rows = preparedOn(getDb(), CONTRIBUTED_ELSEWHERE_SQL).all({ ...scopeParams(user, "own"), userId: user.id }) as { severity: Severity; n: number }[];
+  return { count: rows.reduce((sum, row) => sum + row.n, 0), worst: worstSeverity(rows.map((row) => row.severity)) };
+}

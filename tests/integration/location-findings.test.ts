@@ -5,7 +5,7 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { containers, findings, rooms, sites, storageUnits, substances, type NewFinding, type User } from "@/db/schema";
+import { containers, excursions, findings, rooms, sensors, sites, storageUnits, substances, type NewFinding, type User } from "@/db/schema";
 import {
   CONTAINER_FINDINGS_SQL,
   openFindingsInRoom,
@@ -13,12 +13,14 @@ import {
   openFindingsOfContainer,
   ROOM_FINDINGS_SQL,
   UNIT_FINDINGS_SQL,
+  openFindingsContributedElsewhere,
   worstOpenSeverityByContainer,
 } from "@/db/queries/location-findings";
+import { overviewCounts } from "@/db/queries/overview";
 import { explainStatements } from "@/bench/lib/query-plan";
 import { makeUser } from "./helpers/world";
 
-let officer: User, owner: User, neighbour: User, contact: User;
+let officer: User, owner: User, neighbour: User, contact: User, auditor: User;
 let siteId: number, roomId: number, otherRoomId: number, fridgeId: number, shelfId: number, otherUnitId: number;
 let etherId: number, acetoneId: number;
 let smallEther: number, largeEther: number, acetone: number, emptyEther: number, elsewhereEther: number;
@@ -38,6 +40,7 @@ beforeAll(() => {
   owner = makeUser("researcher");
   neighbour = makeUser("researcher");
   contact = makeUser("facilities");
+  auditor = makeUser("auditor");
   siteId = db.insert(sites).values({ name: "Panel campus" }).returning().get().id;
   roomId = db.insert(rooms).values({ siteId, code: "P-1", name: "Solvent store", facilitiesContactId: contact.id }).returning().get().id;
   otherRoomId = db.insert(rooms).values({ siteId, code: "P-2", name: "Teaching lab" }).returning().get().id;
@@ -64,6 +67,18 @@ beforeAll(() => {
   finding("resolvedFridge", { severity: "critical", title: "Ether in FR-1 (resolved)", storageUnitId: fridgeId, containerId: smallEther, substanceId: etherId, status: "resolved", resolvedAt: new Date() });
   finding("accepted", { severity: "moderate", title: "Ether in FR-1 in control", scenario: "in_control", storageUnitId: fridgeId, substanceId: etherId, status: "risk_accepted", ratio: 0.3 });
   finding("elsewhere", { severity: "high", title: "Ether on SH-2", roomId: otherRoomId, storageUnitId: otherUnitId, containerId: elsewhereEther, substanceId: etherId });
+
+  // One open excursion in the contact's room, one on a shelf in the other room, one over and acknowledged.
+  const roomSensor = db.insert(sensors).values({ externalId: "PNL-LOG-1", name: "Store logger", roomId }).returning().get().id;
+  const shelfSensor = db.insert(sensors).values({ externalId: "PNL-LOG-2", name: "Shelf logger", storageUnitId: otherUnitId }).returning().get().id;
+  const at = (iso: string) => new Date(iso);
+  db.insert(excursions)
+    .values([
+      { sensorId: roomSensor, roomId, thresholdC: 25, startAt: at("2026-07-01T10:00:00Z"), peakTempC: 29, peakAt: at("2026-07-01T12:00:00Z") },
+      { sensorId: shelfSensor, storageUnitId: otherUnitId, thresholdC: 25, startAt: at("2026-07-02T10:00:00Z"), peakTempC: 27, peakAt: at("2026-07-02T11:00:00Z") },
+      { sensorId: roomSensor, roomId, thresholdC: 25, startAt: at("2026-06-01T10:00:00Z"), endAt: at("2026-06-01T11:00:00Z"), peakTempC: 26, peakAt: at("2026-06-01T10:30:00Z"), acknowledgedAt: at("2026-06-02T08:00:00Z") },
+    ])
+    .run();
 });
 
 const titles = (here: { items: { id: number }[] }) => here.items.map((item) => Object.entries(ids).find(([, id]) => id === item.id)?.[0]);
@@ -153,5 +168,35 @@ describe("query plans", () => {
     expect(container).toMatch(/SEARCH findings USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
     expect(container).toMatch(/SEARCH findings USING INDEX findings_room_unit_idx \(room_id=\? AND storage_unit_id=\?\)/);
     for (const plan of [room, unit, container]) expect(plan).not.toMatch(/SCAN f\b|SCAN findings/);
+  });
+});
+
+describe("the Overview's counts in each reader's scope", () => {
+  it("count for a researcher only their own containers' findings, and no excursions", async () => {
+    const counts = await overviewCounts(owner, "own");
+    // Their ketone bottle (moderate) and their bottle on SH-2 (high); the resolved finding is not counted.
+    expect(counts.openFindings).toEqual({ critical: 0, high: 1, moderate: 1, low: 0 });
+    expect(counts).toMatchObject({ openExcursions: 0, unacknowledgedExcursions: 0, allOpenExcursions: 0, myContainers: 4, myUnits: 0, myRooms: 0 });
+  });
+
+  it("count for a safety officer and an auditor the whole register and every excursion", async () => {
+    // Risk accepted is not counted as needing attention.
+    for (const reader of [officer, auditor]) {
+      const counts = await overviewCounts(reader, "all");
+      expect(counts.openFindings).toEqual({ critical: 1, high: 2, moderate: 1, low: 1 });
+      expect(counts).toMatchObject({ openExcursions: 2, unacknowledgedExcursions: 2, allOpenExcursions: 2 });
+    }
+  });
+
+  it("count for facilities staff the findings and excursions of the rooms they are the contact for", async () => {
+    const counts = await overviewCounts(contact, "own");
+    expect(counts.openFindings).toEqual({ critical: 1, high: 1, moderate: 1, low: 1 });
+    expect(counts).toMatchObject({ openExcursions: 1, unacknowledgedExcursions: 1, allOpenExcursions: 2, myRooms: 1, myUnits: 0 });
+  });
+
+  it("count what a researcher's containers add to on other people's containers, without listing it", () => {
+    // The fridge's critical ether finding and the room's spill finding name the neighbour's large bottle.
+    expect(openFindingsContributedElsewhere(owner)).toEqual({ count: 2, worst: "critical" });
+    expect(openFindingsContributedElsewhere(neighbour)).toEqual({ count: 0, worst: null });
   });
 });
