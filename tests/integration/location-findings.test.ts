@@ -18,7 +18,8 @@ import {
 } from "@/db/queries/location-findings";
 import { overviewCounts } from "@/db/queries/overview";
 import { explainStatements } from "@/bench/lib/query-plan";
-import { makeUser } from "./helpers/world";
+import * as containersRoute from "@/app/api/v1/containers/route";
+import { call, makeUser, sessionCookieFor } from "./helpers/world";
 
 let officer: User, owner: User, neighbour: User, contact: User, auditor: User;
 let siteId: number, roomId: number, otherRoomId: number, fridgeId: number, shelfId: number, otherUnitId: number;
@@ -148,6 +149,23 @@ describe("the inventory's marker", () => {
     const mine = worstOpenSeverityByContainer(owner, "own", [smallEther, largeEther, acetone]);
     expect(Object.fromEntries(mine)).toEqual({ [smallEther]: "critical", [acetone]: "moderate" });
     expect(worstOpenSeverityByContainer(owner, null, [smallEther]).size).toBe(0);
+  });
+});
+
+describe("the container list", () => {
+  it("filters to the reader's own containers and marks each with the worst open finding it contributes to", async () => {
+    const cookie = await sessionCookieFor(owner);
+    const mine = await call(containersRoute.GET, { path: "/api/v1/containers?mine=1&sort=label&dir=asc&q=PNL", cookie });
+    expect(mine.status).toBe(200);
+    expect(mine.body.data.map((row: { label: string; openFindingSeverity: string | null }) => [row.label, row.openFindingSeverity])).toEqual([
+      ["PNL-ELSE", "high"],
+      ["PNL-EMPTY", null],
+      ["PNL-KET", "moderate"],
+      ["PNL-SMALL", "critical"],
+    ]);
+    const everyone = await call(containersRoute.GET, { path: "/api/v1/containers?sort=label&dir=asc&q=PNL-LARGE", cookie });
+    // The neighbour's bottle: its findings are not in this reader's view.
+    expect(everyone.body.data.map((row: { label: string; openFindingSeverity: string | null }) => [row.label, row.openFindingSeverity])).toEqual([["PNL-LARGE", null]]);
   });
 });
 
