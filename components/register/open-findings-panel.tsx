@@ -9,14 +9,16 @@ import { groupByUnit, ratioPercent, registerHrefFor, type FindingPlace, type Ope
 
 const PLACE_WORDS: Record<FindingPlace["kind"], string> = { room: "this room", unit: "this storage unit", container: "this container" };
 
-function valueText(item: OpenFindingItem): string | null {
-  if (item.value == null) return null;
+/** Shown at once per group; the rest open on demand, so a busy room does not bury the page. */
+const FIRST_SHOWN = 6;
+
+function valueText(item: OpenFindingItem): string[] {
   const unit = item.unit ? ` ${item.unit}` : "";
-  return item.limit != null ? `${formatNumber(item.value)} of ${formatNumber(item.limit)}${unit}` : `${formatNumber(item.value)}${unit}`;
+  return [item.value != null ? `value ${formatNumber(item.value)}${unit}` : null, item.limit != null ? `limit ${formatNumber(item.limit)}${unit}` : null].filter((text): text is string => text !== null);
 }
 
 function FindingLine({ item }: { item: OpenFindingItem }) {
-  const value = valueText(item);
+  const values = valueText(item);
   const ratio = ratioPercent(item.ratio, (n) => formatNumber(n));
   const status = item.status !== "open" ? (STATUS_LABELS[item.status as keyof typeof STATUS_LABELS] ?? item.status) : null;
   return (
@@ -27,7 +29,7 @@ function FindingLine({ item }: { item: OpenFindingItem }) {
           {item.title}
         </Link>
         <p className="tabular mt-0.5 text-xs text-ink-600">
-          {[value, ratio ? `${ratio} of the limit` : null, SCENARIO_LABELS[item.scenario as Scenario] ?? item.scenario, status].filter(Boolean).join(" · ")}
+          {[...values, ratio ? `${ratio} of the limit` : null, SCENARIO_LABELS[item.scenario as Scenario] ?? item.scenario, status].filter(Boolean).join(" · ")}
         </p>
       </div>
     </li>
@@ -89,10 +91,24 @@ export function OpenFindingsPanel({ here, place, groupUnits = false, note }: { h
                 </h3>
               ) : null}
               <ul className="divide-y divide-ink-100">
-                {group.items.map((item) => (
+                {group.items.slice(0, FIRST_SHOWN).map((item) => (
                   <FindingLine key={item.id} item={item} />
                 ))}
               </ul>
+              {group.items.length > FIRST_SHOWN ? (
+                <details className="group mt-2">
+                  <summary className="cursor-pointer text-sm font-medium text-accent-700 hover:underline">
+                    <span className="group-open:hidden">Show</span>
+                    <span className="hidden group-open:inline">Hide</span> {formatCount(group.items.length - FIRST_SHOWN)} more
+                    {groupUnits ? (group.storageUnitId == null ? " for the room as a whole" : ` in unit ${group.unitCode}`) : ""}
+                  </summary>
+                  <ul className="mt-2 divide-y divide-ink-100">
+                    {group.items.slice(FIRST_SHOWN).map((item) => (
+                      <FindingLine key={item.id} item={item} />
+                    ))}
+                  </ul>
+                </details>
+              ) : null}
             </div>
           ))}
         </div>
