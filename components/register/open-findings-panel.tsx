@@ -36,12 +36,12 @@ function FindingLine({ item }: { item: OpenFindingItem }) {
   );
 }
 
-function HiddenNote({ hidden, place }: { hidden: OpenFindingsHere["hidden"]; place: FindingPlace }) {
+function HiddenNote({ hidden, place, listed }: { hidden: OpenFindingsHere["hidden"]; place: FindingPlace; listed: boolean }) {
   if (hidden.count === 0 || !hidden.worst) return null;
   const worst = SEVERITY_STYLE[hidden.worst].label.toLowerCase();
   return (
     <p className="mt-3 rounded-md border border-ink-200 bg-ink-50 px-3 py-2 text-xs text-ink-700">
-      {formatCount(hidden.count)} more open finding{hidden.count === 1 ? "" : "s"} concern{hidden.count === 1 ? "s" : ""} {PLACE_WORDS[place.kind]} (the worst {worst}):{" "}
+      {formatCount(hidden.count)} {listed ? "more " : ""}open finding{hidden.count === 1 ? "" : "s"} concern{hidden.count === 1 ? "s" : ""} {PLACE_WORDS[place.kind]} (the worst {worst}):{" "}
       {hidden.count === 1 ? "it turns" : "they turn"} on containers or locations of other people, so your register does not list {hidden.count === 1 ? "it" : "them"}. A safety officer
       sees every finding.
     </p>
@@ -73,7 +73,7 @@ export function OpenFindingsPanel({ here, place, groupUnits = false, note }: { h
           <Link href={registerHref} className="text-accent-700 hover:underline">
             See {words} in the register
           </Link>{" "}
-          for its resolved findings and their history.
+          {own ? "for your findings here that were resolved." : "for its resolved findings and their history."}
         </p>
       ) : (
         <div className="space-y-4">
@@ -113,7 +113,7 @@ export function OpenFindingsPanel({ here, place, groupUnits = false, note }: { h
           ))}
         </div>
       )}
-      {own ? <HiddenNote hidden={here.hidden} place={place} /> : null}
+      {own ? <HiddenNote hidden={here.hidden} place={place} listed={here.items.length > 0} /> : null}
       {note ? <p className="mt-3 text-xs text-ink-600">{note}</p> : null}
     </Card>
   );
