@@ -23,7 +23,10 @@ function FindingLine({ item }: { item: OpenFindingItem }) {
   const status = item.status !== "open" ? (STATUS_LABELS[item.status as keyof typeof STATUS_LABELS] ?? item.status) : null;
   return (
     <li className="flex flex-wrap items-start gap-x-3 gap-y-1 py-2.5 first:pt-0 last:pb-0">
-      <SeverityBadge severity={item.severity} />
+      {/* A fixed width lines the titles up whatever the severity's word. */}
+      <div className="w-[5.5rem] shrink-0">
+        <SeverityBadge severity={item.severity} />
+      </div>
       <div className="min-w-0 flex-1">
         <Link href={`/register/${item.id}`} className="text-sm text-accent-800 underline-offset-2 hover:underline">
           {item.title}
