@@ -63,7 +63,10 @@ export function splitByScope(rows: readonly OpenFindingRow[], scope: "all" | "ow
   return { items, hidden: { count: hiddenSeverities.length, worst: worstSeverity(hiddenSeverities) }, scope };
 }
 
-/** A room's findings by where they sit: the room's own first, then each unit by code. */
+/**
+ * A room's findings by where they sit (the room as a whole, each unit), worst first: the groups
+ * in the order of their worst finding, the room's own first on a tie. Items keep their order.
+ */
 export function groupByUnit(items: readonly OpenFindingItem[]): { storageUnitId: number | null; unitCode: string | null; items: OpenFindingItem[] }[] {
   const groups = new Map<number | null, { storageUnitId: number | null; unitCode: string | null; items: OpenFindingItem[] }>();
   for (const item of items) {
@@ -72,6 +75,8 @@ export function groupByUnit(items: readonly OpenFindingItem[]): { storageUnitId:
     groups.set(item.storageUnitId, group);
   }
   return [...groups.values()].sort((a, b) => {
+    const byWorst = SEVERITY_RANK[b.items[0].severity] - SEVERITY_RANK[a.items[0].severity];
+    if (byWorst !== 0) return byWorst;
     if (a.storageUnitId === null) return -1;
     if (b.storageUnitId === null) return 1;
     return (a.unitCode ?? "").localeCompare(b.unitCode ?? "", "en", { numeric: true });

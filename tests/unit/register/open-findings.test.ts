@@ -39,9 +39,16 @@ describe("splitByScope", () => {
 });
 
 describe("groupByUnit", () => {
-  it("puts the room's own findings first, then units in code order (numbers in order), keeping each group's order", () => {
-    const groups = groupByUnit([row(1, { storageUnitId: 12, unitCode: "FR-10" }), row(2), row(3, { storageUnitId: 11, unitCode: "FR-2" }), row(4, { storageUnitId: 12, unitCode: "FR-10" })]);
+  it("orders the groups by their worst finding; on a tie the room's own first, then units in code order (numbers in order)", () => {
+    const groups = groupByUnit([
+      row(1, { storageUnitId: 12, unitCode: "FR-10" }),
+      row(2),
+      row(3, { storageUnitId: 11, unitCode: "FR-2" }),
+      row(4, { storageUnitId: 12, unitCode: "FR-10" }),
+      row(5, { storageUnitId: 13, unitCode: "SH-1", severity: "critical" }),
+    ]);
     expect(groups.map((g) => [g.unitCode, g.items.map((i) => i.id)])).toEqual([
+      ["SH-1", [5]],
       [null, [2]],
       ["FR-2", [3]],
       ["FR-10", [1, 4]],
