@@ -53,13 +53,14 @@ export default async function OverviewPage() {
   const words = SCOPE_WORDS[audience];
   const ownScope = audience === "researcher" || audience === "facilities";
   const showExcursions = can(user.role, "temperatures.read");
+  const elsewhere = audience === "researcher" ? openFindingsContributedElsewhere(user) : null;
   const headline = overviewHeadline(audience, {
     urgent,
     totalOpen,
     openExcursions: counts.openExcursions,
     responsibleFor: audience === "researcher" ? counts.myContainers + counts.myUnits : counts.myRooms + counts.myUnits,
+    contributedElsewhere: elsewhere?.count ?? 0,
   });
-  const elsewhere = audience === "researcher" ? openFindingsContributedElsewhere(user) : null;
 
   return (
     <div className="space-y-6">

@@ -31,6 +31,8 @@ export type HeadlineFigures = {
   openExcursions: number;
   /** How many containers, rooms or units the reader is responsible for (researchers, facilities). */
   responsibleFor: number;
+  /** Open findings a researcher's containers add to that the register records on others' containers. */
+  contributedElsewhere?: number;
 };
 
 const plural = (n: number, one: string, other: string) => `${formatCount(n)} ${n === 1 ? one : other}`;
@@ -49,6 +51,10 @@ export function overviewHeadline(audience: OverviewAudience, figures: HeadlineFi
   if (totalOpen > 0) return `No critical or high findings${scoped}; ${plural(totalOpen, "lower-severity finding is", "lower-severity findings are")} open.`;
   if (audience === "register") return "Nothing in the register needs attention right now.";
   if (audience === "researcher") {
+    const elsewhere = figures.contributedElsewhere ?? 0;
+    if (elsewhere > 0) {
+      return `None of your own findings is open, but your containers add to ${plural(elsewhere, "open finding", "open findings")} recorded on other people's containers.`;
+    }
     return figures.responsibleFor === 0
       ? "You have no containers or storage units of your own yet, so nothing in the register is yours."
       : "Nothing of yours needs attention right now.";

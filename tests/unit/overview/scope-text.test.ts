@@ -25,6 +25,12 @@ describe("overviewHeadline", () => {
     expect(overviewHeadline("facilities", { ...none, responsibleFor: 0 })).toBe("You are not the contact for any room and own no storage unit, so nothing in the register is yours.");
   });
 
+  it("does not tell a researcher all is well while their containers add to findings recorded on others'", () => {
+    expect(overviewHeadline("researcher", { ...none, contributedElsewhere: 2 })).toBe(
+      "None of your own findings is open, but your containers add to 2 open findings recorded on other people's containers.",
+    );
+  });
+
   it("names the scope of the findings counted", () => {
     expect(overviewHeadline("researcher", { ...none, urgent: 1, totalOpen: 2 })).toBe("1 critical or high finding on your containers needs attention.");
     expect(overviewHeadline("register", { ...none, urgent: 3, totalOpen: 5 })).toBe("3 critical or high findings need attention.");
