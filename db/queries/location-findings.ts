@@ -68,7 +68,7 @@ export const CONTAINER_FINDINGS_SQL = `with here(id) as (
       and (substance_id = @substanceId or mixture_id = @mixtureId)
   )
   select ${COLUMNS}
-  from here join findings f on f.id = here.id left join storage_units u on u.id = f.storage_unit_id
+  from here cross join findings f on f.id = here.id left join storage_units u on u.id = f.storage_unit_id
   where f.status <> 'resolved'
   order by ${SEVERITY_ORDER}`;
 
@@ -140,7 +140,9 @@ export function worstOpenSeverityByContainer(user: SessionUser, scope: Scope | n
  * Open findings (open, acknowledged, mitigating) that a researcher's live containers contribute to
  * but that the register records on someone else's container, so the researcher's own scope does
  * not list them: the findings of the same contents in the same unit, and the room's own findings
- * of them. Counted per severity for the Overview, never described.
+ * of them. Counted per severity for the Overview, never described. CROSS JOIN keeps SQLite's
+ * join order: the reader's few containers outside, each finding reached by its index (left to
+ * choose, the planner may walk every open finding instead).
  */
 export const CONTRIBUTED_ELSEWHERE_SQL = `with mine as (
     select c.storage_unit_id as unitId, u.room_id as roomId, c.substance_id as substanceId, c.mixture_id as mixtureId
@@ -149,14 +151,14 @@ export const CONTRIBUTED_ELSEWHERE_SQL = `with mine as (
       group by 1, 2, 3, 4
   ),
   here(id) as (
-    select f.id from mine join findings f on f.storage_unit_id = mine.unitId
+    select f.id from mine cross join findings f on f.storage_unit_id = mine.unitId
       and (f.substance_id = mine.substanceId or f.mixture_id = mine.mixtureId)
     union
-    select f.id from mine join findings f on f.room_id = mine.roomId and f.storage_unit_id is null
+    select f.id from mine cross join findings f on f.room_id = mine.roomId and f.storage_unit_id is null
       and (f.substance_id = mine.substanceId or f.mixture_id = mine.mixtureId)
   )
   select f.severity, count(*) as n
-  from here join findings f on f.id = here.id
+  from here cross join findings f on f.id = here.id
   where f.status in ('open', 'acknowledged', 'mitigating') and not (${VISIBLE})
   group by f.severity`;
 

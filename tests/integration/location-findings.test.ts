@@ -8,6 +8,7 @@ import { getDb } from "@/db/client";
 import { containers, excursions, findings, rooms, sensors, sites, storageUnits, substances, type NewFinding, type User } from "@/db/schema";
 import {
   CONTAINER_FINDINGS_SQL,
+  CONTRIBUTED_ELSEWHERE_SQL,
   openFindingsInRoom,
   openFindingsInUnit,
   openFindingsOfContainer,
@@ -186,6 +187,17 @@ describe("query plans", () => {
     expect(container).toMatch(/SEARCH findings USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
     expect(container).toMatch(/SEARCH findings USING INDEX findings_room_unit_idx \(room_id=\? AND storage_unit_id=\?\)/);
     for (const plan of [room, unit, container]) expect(plan).not.toMatch(/SCAN f\b|SCAN findings/);
+  });
+
+  it("reach the findings of a researcher's containers through their owner index and the findings indexes", () => {
+    const sqlite = getDb().$client;
+    const [elsewhere] = explainStatements(sqlite, () => {
+      sqlite.prepare(CONTRIBUTED_ELSEWHERE_SQL).all({ mode: "researcher", userId: owner.id });
+    }).map((p) => p.plan.join("\n"));
+    expect(elsewhere).toMatch(/SEARCH c USING INDEX containers_owner\w*_idx \(owner_id=\?\)/);
+    expect(elsewhere).toMatch(/SEARCH f USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
+    expect(elsewhere).toMatch(/SEARCH f USING INDEX findings_room_unit_idx \(room_id=\? AND storage_unit_id=\?\)/);
+    expect(elsewhere).not.toMatch(/SCAN f\b|SCAN findings|SCAN c\b/);
   });
 });
 
