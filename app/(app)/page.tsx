@@ -4,6 +4,7 @@ import Link from "next/link";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SEVERITY_STYLE } from "@/components/ui/severity";
+import { openFindingsContributedElsewhere } from "@/db/queries/location-findings";
 import { locationsClosestToLimits, overviewCounts, recentAuditEvents, recentFindingEvents, sitesWithRoomCounts } from "@/db/queries/overview";
 import { SEVERITIES } from "@/db/schema";
 import { requirePagePermission } from "@/lib/auth/page";
@@ -11,6 +12,7 @@ import { can, scopeFor } from "@/lib/auth/permissions";
 
 import { SeverityBadge } from "@/components/ui/severity";
 import { formatCount, formatDateTime, formatNumber, formatQuantity } from "@/lib/format/numbers";
+import { overviewAudience, overviewHeadline, SCOPE_WORDS } from "@/lib/overview/scope-text";
 
 export const metadata: Metadata = { title: "Overview" };
 
@@ -47,21 +49,42 @@ export default async function OverviewPage() {
   const events = showAudit ? recentAuditEvents() : [];
   const siteRows = sitesWithRoomCounts();
 
-  let headline: string;
-  if (urgent > 0) headline = `${formatCount(urgent)} critical or high finding${urgent === 1 ? "" : "s"} need attention.`;
-  else if (counts.openExcursions > 0) headline = `${formatCount(counts.openExcursions)} temperature excursion${counts.openExcursions === 1 ? " is" : "s are"} still open.`;
-  else if (totalOpen > 0) headline = `No critical or high findings; ${formatCount(totalOpen)} lower-severity finding${totalOpen === 1 ? " is" : "s are"} open.`;
-  else headline = "Nothing in the register needs attention right now.";
+  const audience = overviewAudience(user.role, findingScope);
+  const words = SCOPE_WORDS[audience];
+  const ownScope = audience === "researcher" || audience === "facilities";
+  const showExcursions = can(user.role, "temperatures.read");
+  const elsewhere = audience === "researcher" ? openFindingsContributedElsewhere(user) : null;
+  const headline = overviewHeadline(audience, {
+    urgent,
+    totalOpen,
+    openExcursions: counts.openExcursions,
+    responsibleFor: audience === "researcher" ? counts.myContainers + counts.myUnits : counts.myRooms + counts.myUnits,
+    contributedElsewhere: elsewhere?.count ?? 0,
+  });
 
   return (
     <div className="space-y-6">
       <PageHeader title={`Good to see you, ${user.name.split(" ")[0]}`} description={headline} />
 
       <section aria-labelledby="attention-heading">
-        <h2 id="attention-heading" className="mb-3 text-sm font-semibold text-ink-800">
-          Needs attention
+        <h2 id="attention-heading" className="mb-1 text-sm font-semibold text-ink-800">
+          {words.heading}
         </h2>
-        <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-5">
+        <p className="mb-3 text-xs text-ink-600">
+          {words.place
+            ? `Counted here: the open findings of ${words.place}. The register lists the same; a safety officer sees every finding.`
+            : audience === "auditor"
+              ? "Figures for every location, read-only."
+              : "Every open finding in the register, for every location."}
+        </p>
+        {elsewhere && elsewhere.count > 0 && elsewhere.worst ? (
+          <p className="mb-3 rounded-md border border-sev-high/40 bg-white px-3 py-2 text-sm text-ink-800">
+            Your containers also add to {formatCount(elsewhere.count)} open finding{elsewhere.count === 1 ? "" : "s"} (the worst{" "}
+            {SEVERITY_STYLE[elsewhere.worst].label.toLowerCase()}) that the register records on another person&apos;s container in the same unit or room. Each
+            container&apos;s page shows how many concern it; your safety officer follows them.
+          </p>
+        ) : null}
+        <div className={`grid gap-3 sm:grid-cols-2 ${showExcursions ? "xl:grid-cols-5" : "xl:grid-cols-4"}`}>
           {SEVERITIES.map((severity) => {
             const style = SEVERITY_STYLE[severity];
             const Icon = style.icon;
@@ -77,20 +100,31 @@ export default async function OverviewPage() {
                   {style.label}
                 </span>
                 <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(n)}</span>
-                <span className="block text-xs text-ink-600">open finding{n === 1 ? "" : "s"}</span>
+                <span className="block text-xs text-ink-600">
+                  open finding{n === 1 ? "" : "s"}
+                  {words.findings}
+                </span>
               </Link>
             );
           })}
-          <div className={`rounded-lg border bg-white px-4 py-3 ${counts.openExcursions > 0 ? "border-sev-high/40" : "border-ink-200"}`}>
-            <span className="flex items-center gap-1.5 text-xs font-semibold uppercase tracking-wide text-ink-700">
-              <Thermometer aria-hidden="true" className="size-4" />
-              Excursions
-            </span>
-            <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(counts.openExcursions)}</span>
-            <span className="block text-xs text-ink-600">
-              open · {formatCount(counts.unacknowledgedExcursions)} not acknowledged
-            </span>
-          </div>
+          {showExcursions ? (
+            <Link
+              href="/temperatures#awaiting-acknowledgement"
+              className={`rounded-lg border bg-white px-4 py-3 hover:shadow-sm ${counts.openExcursions > 0 || counts.unacknowledgedExcursions > 0 ? "border-sev-high/40" : "border-ink-200"}`}
+            >
+              <span className="flex items-center gap-1.5 text-xs font-semibold uppercase tracking-wide text-ink-700">
+                <Thermometer aria-hidden="true" className="size-4" />
+                Excursions
+              </span>
+              <span className="tabular mt-1 block text-2xl font-semibold text-ink-950">{formatCount(counts.openExcursions)}</span>
+              <span className="block text-xs text-ink-600">
+                open{audience === "facilities" ? " in your rooms and units" : ""} · {formatCount(counts.unacknowledgedExcursions)} awaiting acknowledgement
+              </span>
+              {audience === "facilities" && counts.allOpenExcursions !== counts.openExcursions ? (
+                <span className="block text-xs text-ink-600">{formatCount(counts.allOpenExcursions)} open across every location</span>
+              ) : null}
+            </Link>
+          ) : null}
         </div>
       </section>
 
@@ -99,7 +133,9 @@ export default async function OverviewPage() {
           {findingScope ? (
             <Card title="Closest to their limits">
               {closest.length === 0 ? (
-                <p className="text-sm text-ink-600">No open finding has a computed value against a limit.</p>
+                <p className="text-sm text-ink-600">
+                  {ownScope ? `None of the open findings of ${words.place} has a computed value against a limit.` : "No open finding has a computed value against a limit."}
+                </p>
               ) : (
                 <table className="w-full text-sm">
                   <thead>
@@ -171,7 +207,7 @@ export default async function OverviewPage() {
           {findingScope ? (
             <Card title="Register events">
               {findingEventsList.length === 0 ? (
-                <p className="text-sm text-ink-600">Nothing has happened in the register yet.</p>
+                <p className="text-sm text-ink-600">{ownScope ? `Nothing has happened yet to the findings of ${words.place}.` : "Nothing has happened in the register yet."}</p>
               ) : (
                 <ol className="space-y-3">
                   {findingEventsList.map((event) => (

@@ -46,16 +46,20 @@ export function AppShell({
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
         Skip to content
       </a>
-      <aside className="no-print hidden bg-accent-900 lg:sticky lg:top-0 lg:flex lg:h-screen lg:flex-col lg:justify-between lg:px-3 lg:py-5">
-        <div>
-          <div className="px-2.5 pb-6">
-            <Logo inverted />
+      {/* The aside stretches down the whole grid row, so its colour reaches the bottom of the longest
+          page; its contents stay in view (sticky) and scroll on their own in a short window. */}
+      <aside className="no-print hidden bg-accent-900 lg:block">
+        <div className="lg:sticky lg:top-0 lg:flex lg:h-screen lg:flex-col lg:justify-between lg:gap-6 lg:overflow-y-auto lg:px-3 lg:py-5">
+          <div>
+            <div className="px-2.5 pb-6">
+              <Logo inverted />
+            </div>
+            <nav aria-label="Main">
+              <NavLinks items={items} />
+            </nav>
           </div>
-          <nav aria-label="Main">
-            <NavLinks items={items} />
-          </nav>
+          <UserBlock user={user} signOut={signOut} />
         </div>
-        <UserBlock user={user} signOut={signOut} />
       </aside>
 
       <header className="no-print sticky top-0 z-30 flex h-14 items-center justify-between bg-accent-900 px-4 lg:hidden">
@@ -72,7 +76,7 @@ export function AppShell({
         </button>
       </header>
       {open ? (
-        <div id="mobile-nav" className="no-print fixed inset-x-0 top-14 z-20 space-y-4 bg-accent-900 px-3 pb-4 shadow-lg lg:hidden">
+        <div id="mobile-nav" className="no-print fixed inset-x-0 top-14 bottom-0 z-20 flex flex-col justify-between gap-4 overflow-y-auto overscroll-contain bg-accent-900 px-3 pt-2 pb-4 shadow-lg lg:hidden">
           <nav aria-label="Main">
             <NavLinks items={items} onNavigate={() => setOpen(false)} />
           </nav>

@@ -1,7 +1,7 @@
 import "server-only";
-import { and, count, desc, eq, inArray, isNotNull, isNull, max, ne, notInArray, sql } from "drizzle-orm";
+import { and, count, desc, eq, inArray, isNotNull, isNull, max, ne, notInArray, or, sql, type SQL } from "drizzle-orm";
 import { findingsVisibleTo } from "@/db/queries/findings";
-import type { Scope } from "@/lib/auth/permissions";
+import { scopeFor, type Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { getDb } from "@/db/client";
 import {
@@ -23,9 +23,16 @@ import {
 const OPEN_STATUSES = ["open", "acknowledged", "mitigating"] as const;
 
 export type OverviewCounts = {
+  /** Open findings per severity in the reader's scope of the register. */
   openFindings: Record<Severity, number>;
+  /** Excursions in the reader's scope: every location, the facilities contact's own, none for a researcher. */
   openExcursions: number;
   unacknowledgedExcursions: number;
+  /** Open excursions across every location (what facilities staff see beyond their own). */
+  allOpenExcursions: number;
+  /** Rooms the reader is the facilities contact for, and storage units they own. */
+  myRooms: number;
+  myUnits: number;
   sites: number;
   rooms: number;
   storageUnits: number;
@@ -48,10 +55,15 @@ export async function overviewCounts(user: SessionUser, scope: Scope | null): Pr
   const openFindings = Object.fromEntries(SEVERITIES.map((s) => [s, 0])) as Record<Severity, number>;
   for (const row of bySeverity) openFindings[row.severity] = row.n;
   const liveContainers = notInArray(containers.state, ["disposed"]);
+  const excursionScope = excursionsVisibleTo(user);
+  const allOpenExcursions = excursionScope === null ? 0 : await db.$count(excursions, isNull(excursions.endAt));
   return {
     openFindings,
-    openExcursions: await db.$count(excursions, isNull(excursions.endAt)),
-    unacknowledgedExcursions: await db.$count(excursions, isNull(excursions.acknowledgedAt)),
+    openExcursions: excursionScope === null ? 0 : excursionScope === undefined ? allOpenExcursions : await db.$count(excursions, and(isNull(excursions.endAt), excursionScope)),
+    unacknowledgedExcursions: excursionScope === null ? 0 : await db.$count(excursions, and(isNull(excursions.acknowledgedAt), excursionScope)),
+    allOpenExcursions,
+    myRooms: await db.$count(rooms, and(isNull(rooms.retiredAt), eq(rooms.facilitiesContactId, userId))),
+    myUnits: await db.$count(storageUnits, and(isNull(storageUnits.retiredAt), eq(storageUnits.ownerId, userId))),
     sites: await db.$count(sites, isNull(sites.retiredAt)),
     rooms: await db.$count(rooms, isNull(rooms.retiredAt)),
     storageUnits: await db.$count(storageUnits, isNull(storageUnits.retiredAt)),
@@ -61,6 +73,29 @@ export async function overviewCounts(user: SessionUser, scope: Scope | null): Pr
     sensors: await db.$count(sensors, eq(sensors.active, true)),
     queuedEmails: await db.$count(emailMessages, ne(emailMessages.status, "sent")),
   };
+}
+
+/**
+ * Which excursions the Overview counts for a reader: undefined for every location, a condition for
+ * facilities staff (the rooms they are the contact for, with their units, and the units they own),
+ * null for a role that does not read temperatures.
+ */
+function excursionsVisibleTo(user: SessionUser): SQL | undefined | null {
+  const scope = scopeFor(user.role, "temperatures.read");
+  if (!scope) return null;
+  if (user.role !== "facilities") return undefined;
+  const db = getDb();
+  const contactRooms = db.select({ id: rooms.id }).from(rooms).where(eq(rooms.facilitiesContactId, user.id));
+  return or(
+    inArray(excursions.roomId, contactRooms),
+    inArray(
+      excursions.storageUnitId,
+      db
+        .select({ id: storageUnits.id })
+        .from(storageUnits)
+        .where(or(eq(storageUnits.ownerId, user.id), inArray(storageUnits.roomId, contactRooms))),
+    ),
+  );
 }
 
 export function recentAuditEvents(limit = 8) {

@@ -1,12 +1,32 @@
 import Link from "next/link";
 import { createDataTableColumnHelper, type DataTableFilters } from "@/components/data-table";
+import { SEVERITY_STYLE } from "@/components/ui/severity";
+import type { Severity } from "@/db/enums";
 import type { ContainerListRow } from "@/db/queries/container-list";
 import { CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { formatNumber } from "@/lib/format/numbers";
 import type { CONTAINER_SORTABLE } from "@/lib/inventory/schemas";
 
 /** One row of `GET /api/v1/containers` (dates arrive as ISO strings). */
-export type ContainerRow = Omit<ContainerListRow, "expiresAt" | "updatedAt"> & { expiresAt: string | null; updatedAt: string };
+export type ContainerRow = Omit<ContainerListRow, "expiresAt" | "updatedAt"> & { expiresAt: string | null; updatedAt: string; openFindingSeverity: Severity | null };
+
+/** A small severity mark (icon and word): the worst open finding the container contributes to. */
+function FindingMark({ severity }: { severity: Severity | null }) {
+  if (!severity)
+    return (
+      <span className="text-ink-400" title="No open finding in your view">
+        —<span className="sr-only">No open finding in your view</span>
+      </span>
+    );
+  const style = SEVERITY_STYLE[severity];
+  const Icon = style.icon;
+  return (
+    <span className={`inline-flex items-center gap-1 text-xs font-semibold ${style.text}`} title={`Contributes to an open finding; the worst is ${style.label.toLowerCase()}`}>
+      <Icon aria-hidden="true" className="size-3.5" strokeWidth={2.25} />
+      {style.label}
+    </span>
+  );
+}
 
 export const CONTAINER_TABLE_SORTABLE = ["label", "substance", "amount", "state", "location", "owner", "updatedAt"] as const satisfies readonly (typeof CONTAINER_SORTABLE)[number][];
 
@@ -86,6 +106,12 @@ export function getContainerColumns() {
       ),
     }),
     column.accessor("ownerName", { id: "owner", header: "Owner", cell: ({ getValue }) => getValue() ?? "—" }),
+    column.display({
+      id: "findings",
+      header: "Open findings",
+      meta: { className: "whitespace-nowrap" },
+      cell: ({ row }) => <FindingMark severity={row.original.openFindingSeverity ?? null} />,
+    }),
     column.accessor("updatedAt", {
       id: "updatedAt",
       header: "Changed",

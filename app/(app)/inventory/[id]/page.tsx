@@ -18,6 +18,7 @@ import { updateContainerAction } from "../actions";
 import { ContainerForm } from "../container-form";
 import { ContainerStateButtons } from "./container-actions";
 import { MoveDialog } from "./move-dialog";
+import { PlaceFindings } from "@/app/(app)/locations/place-findings";
 
 export const metadata: Metadata = { title: "Container" };
 
@@ -120,6 +121,8 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </ol>
         </Card>
       </div>
+
+      <PlaceFindings user={user} place={{ kind: "container", containerId: container.id }} />
 
       <Card title="Safety data sheet">
         <SdsAttachment target={{ kind: "container", id: container.id }} {...containerSds(user, container.id)} />

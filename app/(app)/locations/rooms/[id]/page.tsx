@@ -16,6 +16,7 @@ import { idParam } from "@/lib/http/paging";
 import { RoomForm, UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
 import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
+import { PlaceFindings } from "../../place-findings";
 
 export const metadata: Metadata = { title: "Room" };
 
@@ -60,6 +61,7 @@ export default async function RoomPage({ params }: { params: Promise<{ id: strin
         ))}
       </dl>
 
+      <PlaceFindings user={user} place={{ kind: "room", roomId: room.id }} />
       <LocationTemperatureCard user={user} location={{ roomId: room.id }} />
 
       <Card title={`Storage units (${room.units.length})`}>

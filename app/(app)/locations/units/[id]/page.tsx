@@ -17,6 +17,7 @@ import { idParam } from "@/lib/http/paging";
 import { UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
 import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
+import { PlaceFindings } from "../../place-findings";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -59,6 +60,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
           </div>
         ))}
       </dl>
+      <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
       <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>

@@ -18,6 +18,7 @@ import { getSensor, sensorLocationOptions } from "@/lib/temperatures/sensors";
 import { ExcursionList } from "../../excursion-list";
 import { SensorEditForm } from "../../sensor-forms";
 import { setRangeText } from "@/components/charts/temperature-trace-data";
+import { PlaceFindings } from "@/app/(app)/locations/place-findings";
 
 export const metadata: Metadata = { title: "Sensor" };
 
@@ -91,6 +92,8 @@ export default async function SensorPage({ params, searchParams }: { params: Pro
           <TemperatureTraceChart key={`${series.fromMs}-${series.toMs}`} sensorId={sensor.id} initial={series} />
         </Card>
       </div>
+
+      <PlaceFindings user={user} place={sensor.storageUnitId != null ? { kind: "unit", storageUnitId: sensor.storageUnitId } : { kind: "room", roomId: sensor.roomId! }} />
 
       <Card title={`Excursions (${excursionRows.length})`}>
         <ExcursionList rows={excursionRows} mayAcknowledge={can(user.role, "excursions.acknowledge")} showSensor={false} showLocation chartLinks emptyText="No excursions recorded for this sensor." />
