@@ -61,7 +61,8 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
   const model = traceModel(finding.trace);
   const contributors = contributingContainers(finding);
   // The (T, Psat) of this finding's substance as the trace used it.
-  const used = substance ? vaporPressurePoints(model).find((p) => p.title.toLowerCase().includes(substance.name.toLowerCase())) ?? null : null;
+  const points = vaporPressurePoints(model);
+  const used = substance ? (points.find((p) => p.title.toLowerCase().includes(substance.name.toLowerCase())) ?? (points.length === 1 ? points[0] : null)) : null;
   const steps = FINDING_EVENT_INPUT_KINDS.filter((step) => can(user.role, ACTION_FOR_STEP[step]) && (!ALLOWED_FROM[step] || ALLOWED_FROM[step]!.includes(finding.status)));
   const people = activeUserOptions().filter((p) => p.role !== "auditor").map((p) => ({ id: p.id, name: p.name }));
   const assignee = finding.assigneeId ? people.find((p) => p.id === finding.assigneeId) : null;
