@@ -26,7 +26,7 @@ export function checkFindingCondition(
   );
   const candidate = snapshot ? assessLocation(snapshot, settings, { cache: createAssessmentCache() }).find((c) => c.fingerprint === finding.fingerprint) : undefined;
   const check: ConditionCheck = candidate
-    ? { holds: true, title: candidate.title, value: candidate.value, limitValue: candidate.limitValue, unit: candidate.unit }
+    ? { holds: true, title: candidate.title, value: candidate.value, limitValue: candidate.limitValue, ratio: candidate.ratio, unit: candidate.unit }
     : { holds: false };
   return { check, library, settings };
 }

@@ -9,7 +9,7 @@ import { formatNumber } from "@/lib/format/numbers";
 /** What the rules say now about one finding's condition. */
 export type ConditionCheck =
   | { holds: false }
-  | { holds: true; title: string; value: number | null; limitValue: number | null; unit: string | null };
+  | { holds: true; title: string; value: number | null; limitValue: number | null; ratio: number | null; unit: string | null };
 
 /** Every "still holds" answer starts so. */
 export const STILL_HOLDS_PREFIX = "The condition still holds:";
@@ -37,7 +37,8 @@ function stays(status: FindingStatus, riskAcceptedUntil: Date | null): string {
 export function conditionStillHoldsMessage(check: Extract<ConditionCheck, { holds: true }>, status: FindingStatus, riskAcceptedUntil: Date | null): string {
   const unit = check.unit ? ` ${check.unit}` : "";
   const numbers =
-    check.value != null && check.limitValue != null
+    // Only a value set against a limit (a ratio) reads as "x against a limit of y"; a temperature comparison's title says it.
+    check.value != null && check.limitValue != null && check.ratio != null
       ? ` (re-assessed now: ${formatNumber(check.value)}${unit} against a limit of ${formatNumber(check.limitValue)}${unit})`
       : "";
   return (
