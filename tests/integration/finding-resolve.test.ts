@@ -85,6 +85,7 @@ describe("resolving re-assesses at once", () => {
     const response = await call(eventsRoute.POST, { method: "POST", params: { id: String(before.id) }, body: { kind: "resolve", note: "Again." }, cookie: await sessionCookieFor(officer) });
     expect(response.status).toBe(201);
     expect(response.body.data.status).toBe("open");
+    expect(response.body.data.message).toMatch(/^The condition still holds: .*, so the finding stays open\./);
     expect(response.body.data.events.at(-1).note).toMatch(/^Not resolved\. The condition still holds: /);
   });
 
