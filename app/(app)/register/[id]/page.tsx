@@ -95,8 +95,9 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
           </span>
         }
       />
-      {/* Below lg the two columns dissolve (contents) and `order` puts the key figures and the
-          steps first; from lg the figures and the working sit left, the steps and history right. */}
+      {/* Below lg the two columns dissolve (contents) and `order` puts the key figures, the steps
+          and the history (where a saved step shows) before the working; from lg the figures and the
+          working sit left, the steps and the history right. */}
       <div className="flex flex-col gap-6 lg:grid lg:grid-cols-[minmax(0,1fr)_24rem] lg:items-start">
         <div className="contents lg:block lg:space-y-6">
           <section aria-labelledby="key-figures" className="order-1 rounded-lg border border-ink-200 bg-white p-4">
@@ -112,7 +113,7 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
               <Figure label="Containers" value={contributors.rows.length} note={contributors.rows.length === 1 ? "contributes" : "contribute"} />
             </dl>
           </section>
-          <div className="order-3 space-y-6">
+          <div className="order-4 space-y-6">
             <Caution />
             <Card title={`Contributing containers (${contributors.rows.length})`}>
               <ContributingContainersList list={contributors} />
@@ -150,7 +151,7 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
           <Card title="Work on it" className="order-2">
             <FindingSteps findingId={finding.id} steps={steps} people={people} />
           </Card>
-          <Card title="History" className="order-4">
+          <Card title="History" className="order-3">
             <ol className="space-y-3">
               {[...events].reverse().map((e) => (
                 <li key={e.id} className="text-sm">
