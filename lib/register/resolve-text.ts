@@ -4,7 +4,7 @@
  * apart.
  */
 import type { FindingStatus } from "@/db/enums";
-import { formatNumber } from "@/lib/format/numbers";
+import { formatTraceValue } from "./trace-steps";
 
 /** What the rules say now about one finding's condition. */
 export type ConditionCheck =
@@ -35,11 +35,10 @@ function stays(status: FindingStatus, riskAcceptedUntil: Date | null): string {
  * finding, and the two ways on.
  */
 export function conditionStillHoldsMessage(check: Extract<ConditionCheck, { holds: true }>, status: FindingStatus, riskAcceptedUntil: Date | null): string {
-  const unit = check.unit ? ` ${check.unit}` : "";
   const numbers =
     // Only a value set against a limit (a ratio) reads as "x against a limit of y"; a temperature comparison's title says it.
     check.value != null && check.limitValue != null && check.ratio != null
-      ? ` (re-assessed now: ${formatNumber(check.value)}${unit} against a limit of ${formatNumber(check.limitValue)}${unit})`
+      ? ` (re-assessed now: ${formatTraceValue(check.value, check.unit)} against a limit of ${formatTraceValue(check.limitValue, check.unit)})`
       : "";
   return (
     `${STILL_HOLDS_PREFIX} ${check.title}${numbers}, so the finding ${stays(status, riskAcceptedUntil)}. ` +

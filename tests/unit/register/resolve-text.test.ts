@@ -7,7 +7,7 @@ const check = { holds: true as const, title: "Diethyl ether in FR-9 could reach 
 describe("what a person is told when the condition still holds", () => {
   it("states the condition with the numbers re-assessed now and the way on", () => {
     expect(conditionStillHoldsMessage(check, "open", null)).toBe(
-      `${STILL_HOLDS_PREFIX} Diethyl ether in FR-9 could reach 4130 % LFL if the refrigerator fails (control lost, 25.0 °C) (re-assessed now: 4,130 % LFL against a limit of 100 % LFL), so the finding stays open. ` +
+      `${STILL_HOLDS_PREFIX} Diethyl ether in FR-9 could reach 4130 % LFL if the refrigerator fails (control lost, 25.0 °C) (re-assessed now: 4134.9 % LFL against a limit of 100 % LFL), so the finding stays open. ` +
         "Record what changed in Headroom first (move, use up or dispose of the container, or correct the location's data), then resolve it again; if it is to stay as it is, accept the risk with a justification and a review date.",
     );
   });

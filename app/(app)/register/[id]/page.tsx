@@ -156,7 +156,7 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
               {[...events].reverse().map((e) => (
                 <li key={e.id} className="text-sm">
                   <p className="font-medium text-ink-900">
-                    {EVENT_LABEL[e.kind] ?? e.kind}
+                    {e.kind === "comment" && e.data?.resolveRefused ? "Not resolved: the condition still holds" : (EVENT_LABEL[e.kind] ?? e.kind)}
                     {e.fromStatus && e.toStatus && e.fromStatus !== e.toStatus ? (
                       <span className="font-normal text-ink-600">
                         {" "}
