@@ -12,6 +12,8 @@ type Props = {
   lowerFlammableTemperatureC: number | null;
   ambientPressureKPa: number;
   markTempC?: { tempC: number; label: string } | null;
+  /** A point used by a calculation (a finding's T and Psat), drawn as a filled dot with its label. */
+  markPoint?: { tempC: number; pressureKPa: number; label: string } | null;
 };
 
 const ACCENT = "#0b5d6b";
@@ -23,7 +25,7 @@ const INK = "#56687a";
  * a line and the lower flammable temperature marked. Line styles (solid, dashed, dotted) and
  * labels carry the meaning, not colour alone.
  */
-export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowerFlammableTemperatureC, ambientPressureKPa, markTempC }: Props) {
+export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowerFlammableTemperatureC, ambientPressureKPa, markTempC, markPoint }: Props) {
   const data = points.map((p) => ({
     tempC: p.tempC,
     measured: p.extrapolated ? null : p.pressureKPa,
@@ -36,7 +38,7 @@ export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowe
   }
   const pressures = points.map((p) => p.pressureKPa).filter((v) => v > 0);
   const minKPa = Math.min(...pressures, lflPressureKPa ?? Infinity);
-  const maxKPa = Math.max(...pressures, ambientPressureKPa);
+  const maxKPa = Math.max(...pressures, ambientPressureKPa, markPoint?.pressureKPa ?? 0);
   const domain: [number, number] = [10 ** Math.floor(Math.log10(minKPa)), 10 ** Math.ceil(Math.log10(maxKPa))];
   const lftOnChart = lowerFlammableTemperatureC != null && lowerFlammableTemperatureC >= -40 && lowerFlammableTemperatureC <= 60;
   return (
@@ -76,6 +78,9 @@ export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowe
               <ReferenceDot x={lowerFlammableTemperatureC!} y={lflPressureKPa!} r={5} fill="#fff" stroke={LFL} strokeWidth={2} label={{ value: `LFT ${formatNumber(lowerFlammableTemperatureC, 3)} °C`, position: "top", fill: LFL, fontSize: 11 }} />
             ) : null}
             {markTempC ? <ReferenceLine x={markTempC.tempC} stroke={ACCENT} label={{ value: markTempC.label, position: "insideTopRight", fill: ACCENT, fontSize: 11 }} /> : null}
+            {markPoint ? (
+              <ReferenceDot x={markPoint.tempC} y={markPoint.pressureKPa} r={6} fill={ACCENT} stroke="#fff" strokeWidth={2} ifOverflow="extendDomain" label={{ value: markPoint.label, position: "left", fill: ACCENT, fontSize: 11 }} />
+            ) : null}
             <Line type="monotone" dataKey="measured" stroke={ACCENT} strokeWidth={2.25} dot={false} isAnimationActive={false} connectNulls={false} name="Psat" />
             <Line type="monotone" dataKey="extrapolated" stroke={ACCENT} strokeWidth={2} strokeDasharray="5 4" dot={false} isAnimationActive={false} connectNulls={false} name="Psat (extrapolated)" />
           </LineChart>
@@ -84,6 +89,7 @@ export function VaporPressureChart({ points, lflPressureKPa, lflVolPercent, lowe
       <figcaption className="mt-2 text-xs text-ink-600">
         Solid line: within the correlation&apos;s range. Dashed: extrapolated or estimated. Red dashed line: the LFL as a partial pressure at{" "}
         {formatNumber(ambientPressureKPa, 4)} kPa; where the curve crosses it is the lower flammable temperature (LFT).
+        {markPoint ? ` Filled dot: the point this calculation used, ${markPoint.label}.` : ""}
         {lowerFlammableTemperatureC != null && !lftOnChart
           ? ` The LFT, ${formatNumber(lowerFlammableTemperatureC, 3)} °C, is ${lowerFlammableTemperatureC < -40 ? "below" : "above"} the chart's range.`
           : ""}

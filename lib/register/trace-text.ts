@@ -84,14 +84,40 @@ function line(row: TraceRow, cite: (source: string) => string): string | null {
 export function traceText(trace: unknown, cite: (source: string) => string = (source) => source): string {
   const lines: string[] = [];
   for (const row of traceRows(trace)) {
-    if (SKIPPED_PATHS.has(row.path)) continue;
+    if (SKIPPED_PATHS.has(row.path) || row.path.startsWith("containers[")) continue;
     const text = line(row, cite);
     if (text === null) continue;
     const depth = depthOf(row.path);
     const indent = depth > 0 && !/parts\[\d+\]\.method$/.test(row.path) ? "  ".repeat(depth) : "  ".repeat(Math.max(0, depth - 1));
     lines.push(indent + text);
   }
+  lines.push(...containerLines(trace));
   return xmlSafeText(lines.join("\n"));
+}
+
+/**
+ * The contributing containers the rules record (FindingTrace.containers), one line each:
+ * "Contributing container: C-1000 — Diethyl ether, 2.5 L, opened".
+ */
+function containerLines(trace: unknown): string[] {
+  let value = trace;
+  if (typeof value === "string") {
+    try {
+      value = JSON.parse(value);
+    } catch {
+      return [];
+    }
+  }
+  if (typeof value !== "object" || value === null || Array.isArray(value)) return [];
+  const list = (value as { containers?: unknown }).containers;
+  if (!Array.isArray(list)) return [];
+  return list.flatMap((c) => {
+    if (typeof c !== "object" || c === null) return [];
+    const { label, content, amount, amountUnit, state } = c as Record<string, unknown>;
+    const amountText = typeof amount === "number" ? `${traceNumber(amount)}${typeof amountUnit === "string" ? ` ${amountUnit}` : ""}` : "";
+    const details = [content, amountText, typeof state === "string" ? state.replace("_", " ") : null].filter((part) => typeof part === "string" && part !== "");
+    return [`Contributing container: ${String(label ?? "")}${details.length ? ` — ${details.join(", ")}` : ""}`];
+  });
 }
 
 /**

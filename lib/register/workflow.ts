@@ -9,6 +9,8 @@ import { authorizeAction } from "@/lib/auth/guard";
 import type { Action } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
+import { reassessRooms } from "@/lib/assessment/service";
+import { checkFindingCondition, conditionStillHoldsMessage, RESOLVED_CONFIRMED_MESSAGE } from "./resolve-check";
 import { MAX_RISK_ACCEPTANCE_DAYS, type FindingEventInput } from "./schemas";
 
 type Kind = FindingEventInput["kind"];
@@ -51,12 +53,26 @@ const EVENT_KIND = {
   reopen: "reopened",
 } as const;
 
+/** The finding after a step, with what to tell the person who took it (set for a resolve). */
+export type FindingStepResult = Finding & { message?: string };
+
 /**
  * One workflow step on a finding, with its event and an audit record in one transaction. The step's
  * own permission is checked here (after the route's), and a researcher or facilities member can
  * only touch findings on what they own or look after.
+ *
+ * Resolving re-assesses at once. "Resolve" says the condition is gone, so in the same transaction
+ * the rules run again for the finding's location on the inventory, temperatures and settings as
+ * they are now, and the register is brought in line with them (reassessRooms):
+ * - the condition no longer holds: the finding is resolved with the person's note;
+ * - it still holds: the finding is not resolved. It keeps its status (open, acknowledged, being
+ *   mitigated, or risk accepted with its review date), its plan and its owner, so nothing the team
+ *   was doing is lost; the history records the attempt with the person's note and the reason, and
+ *   the person is told in plain words ("The condition still holds: … so the finding stays open")
+ *   and what the two ways on are: record the change that removes the condition, or accept the
+ *   risk. The returned `message` carries that text.
  */
-export function applyFindingStep(actor: SessionUser, findingId: number, input: FindingEventInput, nowMs = Date.now()): Finding {
+export function applyFindingStep(actor: SessionUser, findingId: number, input: FindingEventInput, nowMs = Date.now()): FindingStepResult {
   const { scope } = authorizeAction(actor, ACTION_FOR_STEP[input.kind]);
   const now = new Date(nowMs);
   return getDb().transaction((tx) => {
@@ -67,6 +83,9 @@ export function applyFindingStep(actor: SessionUser, findingId: number, input: F
       throw new ConflictError(`This finding is ${STATUS_LABEL[before.status]}; it cannot be ${input.kind === "reopen" ? "re-opened" : `moved on by “${input.kind.replace("_", " ")}”`} from there.`);
     }
     let toStatus: FindingStatus = before.status;
+    let eventKind: (typeof EVENT_KIND)[Kind] | "comment" = EVENT_KIND[input.kind];
+    let message: string | undefined;
+    let reassess: ReturnType<typeof checkFindingCondition> | null = null;
     let note: string | null = null;
     const changes: Partial<typeof findings.$inferInsert> = {};
     const data: Record<string, unknown> = {};
@@ -90,11 +109,22 @@ export function applyFindingStep(actor: SessionUser, findingId: number, input: F
         Object.assign(data, { assigneeId: person.id, assigneeName: person.name });
         break;
       }
-      case "resolve":
-        toStatus = "resolved";
-        note = input.note;
-        Object.assign(changes, { resolvedAt: now, riskAcceptedUntil: null });
+      case "resolve": {
+        reassess = checkFindingCondition(tx, before, nowMs);
+        const { check } = reassess;
+        if (check.holds) {
+          message = conditionStillHoldsMessage(check, before.status, before.riskAcceptedUntil);
+          eventKind = "comment";
+          note = `Not resolved. ${message}\nResolution note: ${input.note}`;
+          Object.assign(data, { resolveRefused: true, value: check.value, limit: check.limitValue, unit: check.unit });
+        } else {
+          message = RESOLVED_CONFIRMED_MESSAGE;
+          toStatus = "resolved";
+          note = input.note;
+          Object.assign(changes, { resolvedAt: now, riskAcceptedUntil: null, conditionHolds: false });
+        }
         break;
+      }
       case "accept_risk": {
         const until = input.reviewDate!;
         if (until <= nowMs) throw new ValidationError("The review date must be in the future.", { reviewDate: ["The review date must be in the future."] });
@@ -130,16 +160,22 @@ export function applyFindingStep(actor: SessionUser, findingId: number, input: F
       .returning()
       .get();
     tx.insert(findingEvents)
-      .values({ findingId: before.id, kind: EVENT_KIND[input.kind], fromStatus: before.status, toStatus, note, actorId: actor.id, data: Object.keys(data).length ? data : null, at: now })
+      .values({ findingId: before.id, kind: eventKind, fromStatus: before.status, toStatus, note, actorId: actor.id, data: Object.keys(data).length ? data : null, at: now })
       .run();
     recordAudit(tx, actor, {
-      action: EVENT_KIND[input.kind],
+      action: eventKind === EVENT_KIND[input.kind] ? eventKind : "resolve_refused",
       entityType: "finding",
       entityId: before.id,
       summary: `${before.title}: ${input.kind.replace("_", " ")}${before.status !== toStatus ? ` (${STATUS_LABEL[before.status]} → ${STATUS_LABEL[toStatus]})` : ""}${note ? ` — ${note}` : ""}`,
       before: auditSnapshot({ status: before.status, assigneeId: before.assigneeId, mitigationPlan: before.mitigationPlan, riskAcceptedUntil: before.riskAcceptedUntil }),
       after: auditSnapshot({ status: after.status, assigneeId: after.assigneeId, mitigationPlan: after.mitigationPlan, riskAcceptedUntil: after.riskAcceptedUntil }),
     });
+    if (reassess && before.roomId != null) {
+      // The rest of the location in line too (values, other findings), in this transaction.
+      reassessRooms(tx, [before.roomId], { nowMs, reason: `finding ${before.id} was marked resolved`, settings: reassess.settings, library: reassess.library });
+      const current = tx.select().from(findings).where(eq(findings.id, before.id)).get() ?? after;
+      return { ...current, message };
+    }
     return after;
   });
 }

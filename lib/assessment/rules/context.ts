@@ -19,6 +19,7 @@ import type {
   StoredContent,
   StoredLiquid,
   SubstanceSnapshot,
+  TraceContainer,
   UnitInfo,
 } from "./types";
 
@@ -370,6 +371,8 @@ export class AssessmentContext {
     trace: () => FindingTrace;
     containerIds: number[];
   }): void {
+    const build = input.trace;
+    const ids = input.containerIds;
     this.add(
       new Finding(
         findingFingerprint({ rule: input.rule, location: this.location, subject: input.subject, scenario: input.scenario, detail: input.detail }),
@@ -390,9 +393,40 @@ export class AssessmentContext {
         input.view?.tempC ?? null,
         input.view?.source ?? null,
         input.containerIds,
-        input.trace,
+        () => ({ ...build(), containers: this.traceContainers(ids) }),
       ),
     );
+  }
+
+  private containerMemo: Map<number, TraceContainer> | null = null;
+
+  /** The containers of these ids as the rules read them, in the order given. */
+  traceContainers(ids: readonly number[]): TraceContainer[] {
+    if (this.containerMemo === null) {
+      this.containerMemo = new Map();
+      for (const group of this.groups) {
+        for (const measured of group.containers) {
+          const { liquid } = measured;
+          this.containerMemo.set(liquid.containerId, {
+            containerId: liquid.containerId,
+            label: liquid.label,
+            content: group.name,
+            substanceId: group.substanceId,
+            mixtureId: group.mixtureId,
+            amount: liquid.amount,
+            amountUnit: liquid.amountUnit,
+            state: liquid.state,
+            volumeL: measured.volumeL,
+            massG: measured.massG,
+          });
+        }
+      }
+    }
+    const memo = this.containerMemo;
+    return [...new Set(ids)].flatMap((id) => {
+      const found = memo.get(id);
+      return found ? [found] : [];
+    });
   }
 
   results(): CandidateFinding[] {

@@ -183,7 +183,8 @@ function leChatelierPart(list: readonly Contribution[]): Trace | null {
   ).trace;
 }
 
-function saturationPart(ctx: AssessmentContext, substance: SubstanceSnapshot, view: ScenarioView): Trace {
+/** A substance's vapor pressure (the correlation with its coefficients, range and source) and saturated concentration at the worst case. */
+export function saturationPart(ctx: AssessmentContext, substance: SubstanceSnapshot, view: ScenarioView): Trace {
   return traceSaturatedConcentration({
     props: substance.props,
     tempC: view.tempC,
@@ -266,6 +267,8 @@ function largestContainerTrace(
       steps.push(...inventorySteps(list, molarVolumeL, volume.freeVolumeM3));
     }
   } else {
+    // Each component's own vapor pressure first, so Raoult's law can be followed from its Pᵢsat.
+    for (const component of vapor.components) parts.push(saturationPart(ctx, component.substance, view));
     const raoult = raoultPart(ctx, vapor, view.tempC);
     if (raoult) parts.push(raoult);
     steps.push(...mixtureSteps(vapor));

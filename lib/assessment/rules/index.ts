@@ -39,5 +39,6 @@ export type {
   StoredContent,
   StoredLiquid,
   SubstanceSnapshot,
+  TraceContainer,
   UnitInfo,
 } from "./types";

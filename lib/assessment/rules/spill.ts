@@ -29,7 +29,7 @@ import {
 } from "@/lib/hazard";
 import type { Severity } from "@/db/enums";
 import { findingTrace, largestByVolume, severityStep, worstCaseInput, type AssessmentContext, type ContentGroup, type MeasuredContainer, type ScenarioView } from "./context";
-import { lflSeverityStep, lflTemperatureWarnings, lflThresholdInputs } from "./enclosure";
+import { lflSeverityStep, lflTemperatureWarnings, lflThresholdInputs, saturationPart } from "./enclosure";
 import { capitalise, formatQuantity, formatSig, formatSignificant, formatTempC } from "./format";
 import { ruleLabel } from "./rule-ids";
 import { exposureSeverity, lflSeverity, severityRank } from "./severity";
@@ -377,7 +377,8 @@ function exposureFinding(
         ],
         steps,
         result: traceValue(`Ratio to the ${worst.label}`, "r", worst.ratio, ""),
-        parts: [parts.pool, ...parts.perComponent.flatMap((p) => [p.evaporation, p.short, p.long]), ...limitParts],
+        // The substances' own vapor pressures (correlation, coefficients, range, source) close the parts.
+        parts: [parts.pool, ...parts.perComponent.flatMap((p) => [p.evaporation, p.short, p.long]), ...limitParts, ...spills.map((s) => saturationPart(ctx, s.vapor.substance, view))],
         warnings:
           group.content.kind === "mixture"
             ? ["The mole fractions of the spilled mixture are held constant while it evaporates (screening)", ...group.content.mixture.warnings]
@@ -433,7 +434,7 @@ function lflFinding(
         inputs: [...spillInputs(ctx, group, container, items.map((item) => item.spill), view, areaM2), ...lflThresholdInputs(ctx)],
         steps: [lflSeverityStep(ctx, fraction, severity)],
         result: traceValue("Fraction of the LFL", "f", percent, "% LFL"),
-        parts: [parts.pool, ...parts.perComponent.flatMap((p) => [p.evaporation, p.long]), lflTrace],
+        parts: [parts.pool, ...parts.perComponent.flatMap((p) => [p.evaporation, p.long]), lflTrace, ...items.map((item) => saturationPart(ctx, item.spill.vapor.substance, view))],
         warnings: [...lflTemperatureWarnings(view.tempC), "The room-average concentration: near the pool it is higher, and vapor heavier than air collects low"],
       });
     },

@@ -279,6 +279,24 @@ export type FindingTrace = Trace & {
   readonly rule: RuleId;
   readonly scenario: Scenario;
   readonly parts: readonly Trace[];
+  /** Every container the finding concerns, as the assessment saw it (the finding page lists them). */
+  readonly containers?: readonly TraceContainer[];
+};
+
+/** One contributing container in a finding's trace: what the rules read of it. */
+export type TraceContainer = {
+  readonly containerId: number;
+  readonly label: string;
+  /** The substance's or mixture's name. */
+  readonly content: string;
+  readonly substanceId: number | null;
+  readonly mixtureId: number | null;
+  readonly amount: number;
+  readonly amountUnit: AmountUnit;
+  readonly state: ContainerState;
+  /** The amount in litres and grams with the liquid density; null where the density is missing. */
+  readonly volumeL: number | null;
+  readonly massG: number | null;
 };
 
 /** A finding's data, all plain properties (what `CandidateFinding.toPlain()` returns). */

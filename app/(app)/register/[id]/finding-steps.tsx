@@ -1,14 +1,15 @@
 "use client";
 import { getFormProps, getInputProps, getSelectProps, getTextareaProps, type FieldMetadata } from "@conform-to/react";
-import { useState } from "react";
+import { useCallback, useEffect, useState } from "react";
 import { z } from "zod";
 import { useServerForm } from "@/components/forms/use-server-form";
 import { Button } from "@/components/ui/button";
 import { describedBy, Field, inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { requiredId } from "@/lib/validation/fields";
+import { STILL_HOLDS_PREFIX } from "@/lib/register/resolve-text";
 import { FINDING_STEP_SCHEMAS } from "@/lib/register/schemas";
-import { findingStepAction } from "../actions";
+import { findingPageStepAction } from "./actions";
 
 type Step = keyof typeof FINDING_STEP_SCHEMAS;
 type Person = { id: number; name: string };
@@ -29,7 +30,7 @@ const FIELDS: Record<Step, { name: string; label: string; kind: "textarea" | "pe
     { name: "plan", label: "Mitigation plan", kind: "textarea", hint: "What will be done, e.g. move the bottle to the flammable-storage refrigerator." },
     { name: "assigneeId", label: "Owner of the mitigation", kind: "person" },
   ],
-  resolve: [{ name: "note", label: "Resolution note", kind: "textarea", hint: "What was done. If the condition still holds, the next assessment re-opens the finding." }],
+  resolve: [{ name: "note", label: "Resolution note", kind: "textarea", hint: "What was done. Headroom re-assesses the location when you save: if the condition still holds, the finding stays open and you are told why." }],
   accept_risk: [
     { name: "justification", label: "Justification", kind: "textarea", hint: "Why the risk is acceptable and what controls are in place." },
     { name: "reviewDate", label: "Review date", kind: "date", hint: "At most three years ahead; the finding re-opens for review then." },
@@ -39,13 +40,20 @@ const FIELDS: Record<Step, { name: string; label: string; kind: "textarea" | "pe
   reopen: [{ name: "note", label: "Reason", kind: "textarea" }],
 };
 
-function StepForm({ step, findingId, people }: { step: Step; findingId: number; people: Person[] }) {
+function StepForm({ step, findingId, people, onSaved }: { step: Step; findingId: number; people: Person[]; onSaved: (message: string) => void }) {
   const schema = FINDING_STEP_SCHEMAS[step].extend({ findingId: requiredId("finding") });
-  const { form, fields, pending, lastResult, dispatch } = useServerForm(schema as unknown as z.ZodObject, findingStepAction, { id: `finding-step-${step}`, defaultValue: { kind: step, findingId } });
+  const { form, fields, pending, lastResult, dispatch } = useServerForm(schema as unknown as z.ZodObject, findingPageStepAction, { id: `finding-step-${step}`, defaultValue: { kind: step, findingId } });
   const all = fields as unknown as Record<string, FieldMetadata<string>>;
+  // Saved: the form closes (its text goes with it) and the outcome shows above the steps; the
+  // page's history, refreshed by the action, shows the new event. After an error the form stays
+  // open with what was typed.
+  const saved = lastResult?.status === "success" ? (lastResult.message ?? "Saved.") : null;
+  useEffect(() => {
+    if (saved !== null) onSaved(saved);
+  }, [lastResult, saved, onSaved]);
   return (
     <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-4">
-      <FormMessage id={form.errorId} errors={form.errors} success={lastResult?.status === "success" ? lastResult.message : undefined} />
+      <FormMessage id={form.errorId} errors={form.errors} />
       <input type="hidden" name="kind" value={step} />
       <input type="hidden" name="findingId" value={findingId} />
       {FIELDS[step].map((config) => {
@@ -80,17 +88,40 @@ function StepForm({ step, findingId, people }: { step: Step; findingId: number; 
 /** The workflow steps this person may take on this finding now, one at a time. */
 export function FindingSteps({ findingId, steps, people }: { findingId: number; steps: Step[]; people: Person[] }) {
   const [open, setOpen] = useState<Step | null>(null);
-  if (steps.length === 0) return <p className="text-sm text-ink-600">There is nothing you can do on this finding in its present status.</p>;
+  const [outcome, setOutcome] = useState<string | null>(null);
+  const onSaved = useCallback((message: string) => {
+    setOutcome(message);
+    setOpen(null);
+  }, []);
+  const choose = (step: Step) => {
+    setOutcome(null);
+    setOpen(open === step ? null : step);
+  };
+  const stillHolds = outcome?.startsWith(STILL_HOLDS_PREFIX) ?? false;
   return (
     <div className="space-y-4">
-      <div className="flex flex-wrap gap-2" role="group" aria-label="Workflow steps">
-        {steps.map((step) => (
-          <Button key={step} variant={open === step ? "primary" : "secondary"} aria-pressed={open === step} onClick={() => setOpen(open === step ? null : step)}>
-            {STEP_LABEL[step]}
-          </Button>
-        ))}
-      </div>
-      {open ? <StepForm key={open} step={open} findingId={findingId} people={people} /> : null}
+      {outcome ? (
+        stillHolds ? (
+          <div role="alert" className="flex gap-2 rounded-md border border-sev-high/30 bg-sev-high-bg px-3 py-2.5 text-sm text-ink-900">
+            <span aria-hidden="true">⚠</span>
+            <p>{outcome}</p>
+          </div>
+        ) : (
+          <FormMessage success={outcome} />
+        )
+      ) : null}
+      {steps.length === 0 ? (
+        <p className="text-sm text-ink-600">There is nothing you can do on this finding in its present status.</p>
+      ) : (
+        <div className="flex flex-wrap gap-2" role="group" aria-label="Workflow steps">
+          {steps.map((step) => (
+            <Button key={step} variant={open === step ? "primary" : "secondary"} aria-pressed={open === step} onClick={() => choose(step)}>
+              {STEP_LABEL[step]}
+            </Button>
+          ))}
+        </div>
+      )}
+      {open ? <StepForm key={open} step={open} findingId={findingId} people={people} onSaved={onSaved} /> : null}
     </div>
   );
 }

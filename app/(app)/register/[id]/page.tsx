@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { VaporPressureChart } from "@/components/charts/vapor-pressure-chart";
-import { TraceView } from "@/components/trace-view";
+import { ContributingContainersList } from "@/components/register/contributing-containers";
+import { TraceWorking } from "@/components/register/trace/trace-working";
 import { Caution } from "@/components/ui/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SeverityBadge } from "@/components/ui/severity";
@@ -11,12 +12,14 @@ import { activeUserOptions } from "@/db/queries/options";
 import { getSubstance } from "@/db/queries/substances";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
-import { formatDateTime, formatNumber, formatTempC } from "@/lib/format/numbers";
+import { formatDateTime, formatTempC } from "@/lib/format/numbers";
 import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
 import { idParam } from "@/lib/http/paging";
+import { contributingContainers } from "@/lib/register/finding-containers";
 import { humaniseRule, SCENARIO_LABELS, STATUS_LABELS } from "@/lib/register/labels";
 import { RULE_LABELS } from "@/lib/register/rule-labels";
 import { FINDING_EVENT_INPUT_KINDS } from "@/lib/register/schemas";
+import { formatTraceValue, traceModel, vaporPressurePoints } from "@/lib/register/trace-steps";
 import { ACTION_FOR_STEP, ALLOWED_FROM } from "@/lib/register/workflow";
 import { vaporPressureCurve } from "@/lib/substances/vapor";
 import { FindingSteps } from "./finding-steps";
@@ -36,6 +39,17 @@ const EVENT_LABEL: Record<string, string> = {
   assigned: "Assigned",
 };
 
+/** A figure of the key-figures panel: a label over a large value, with an optional note. */
+function Figure({ label, value, note }: { label: string; value: React.ReactNode; note?: React.ReactNode }) {
+  return (
+    <div className="min-w-0">
+      <dt className="text-xs font-medium uppercase tracking-wide text-ink-600">{label}</dt>
+      <dd className="tabular mt-0.5 text-lg font-semibold text-ink-950">{value}</dd>
+      {note ? <dd className="text-xs text-ink-600">{note}</dd> : null}
+    </div>
+  );
+}
+
 export default async function FindingPage({ params }: { params: Promise<{ id: string }> }) {
   const { user, scope } = await requirePagePermission("findings.read");
   const id = idParam((await params).id);
@@ -44,18 +58,19 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
   const { finding, events } = found;
   const substance = finding.substanceId ? getSubstance(finding.substanceId) : null;
   const curve = substance ? vaporPressureCurve(substance) : [];
+  const model = traceModel(finding.trace);
+  const contributors = contributingContainers(finding);
+  // The (T, Psat) of this finding's substance as the trace used it.
+  const points = vaporPressurePoints(model);
+  const used = substance ? (points.find((p) => p.title.toLowerCase().includes(substance.name.toLowerCase())) ?? (points.length === 1 ? points[0] : null)) : null;
   const steps = FINDING_EVENT_INPUT_KINDS.filter((step) => can(user.role, ACTION_FOR_STEP[step]) && (!ALLOWED_FROM[step] || ALLOWED_FROM[step]!.includes(finding.status)));
   const people = activeUserOptions().filter((p) => p.role !== "auditor").map((p) => ({ id: p.id, name: p.name }));
   const assignee = finding.assigneeId ? people.find((p) => p.id === finding.assigneeId) : null;
   const location = finding.storageUnitId ? `/locations/units/${finding.storageUnitId}` : finding.roomId ? `/locations/rooms/${finding.roomId}` : null;
+  const unit = finding.unit ?? "";
+  const ratioText = finding.ratio == null ? "—" : `${formatTraceValue(finding.ratio * 100, "%")} of the limit`;
   const facts: [string, React.ReactNode][] = [
-    ["Status", STATUS_LABELS[finding.status]],
     ["Rule", RULE_LABELS[finding.rule] ?? humaniseRule(finding.rule)],
-    ["Scenario", SCENARIO_LABELS[finding.scenario]],
-    ["Computed value", finding.value == null ? "—" : `${formatNumber(finding.value, 4)} ${finding.unit ?? ""}`],
-    ["Limit", finding.limitValue == null ? "—" : `${formatNumber(finding.limitValue, 4)} ${finding.unit ?? ""}`],
-    ["Ratio to the limit", finding.ratio == null ? "—" : `${formatNumber(finding.ratio * 100)} %`],
-    ["Worst-case temperature", finding.worstCaseSource ?? formatTempC(finding.worstCaseTempC)],
     ["Location", location ? <Link href={location} className="text-accent-700 hover:underline">Open the location</Link> : "—"],
     ["Substance", substance ? <Link href={`/substances/${substance.id}`} className="text-accent-700 hover:underline">{substance.name}</Link> : "—"],
     ["First raised", formatDateTime(finding.firstRaisedAt)],
@@ -71,47 +86,77 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
           ← Register
         </Link>
       </p>
-      <PageHeader title={finding.title} description={<SeverityBadge severity={finding.severity} />} />
-      <Caution />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
-        <div className="space-y-6">
-          <Card title="What was found">
-            <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-[12rem_minmax(0,1fr)]">
-              {facts.map(([label, value]) => (
-                <div key={label} className="contents">
-                  <dt className="text-ink-600">{label}</dt>
-                  <dd className="tabular text-ink-900">{value}</dd>
-                </div>
-              ))}
+      <PageHeader
+        title={finding.title}
+        description={
+          <span className="flex flex-wrap items-center gap-2">
+            <SeverityBadge severity={finding.severity} />
+            <span>{STATUS_LABELS[finding.status]}</span>
+          </span>
+        }
+      />
+      {/* Below lg the two columns dissolve (contents) and `order` puts the key figures, the steps
+          and the history (where a saved step shows) before the working; from lg the figures and the
+          working sit left, the steps and the history right. */}
+      <div className="flex flex-col gap-6 lg:grid lg:grid-cols-[minmax(0,1fr)_24rem] lg:items-start">
+        <div className="contents lg:block lg:space-y-6">
+          <section aria-labelledby="key-figures" className="order-1 rounded-lg border border-ink-200 bg-white p-4">
+            <h2 id="key-figures" className="sr-only">
+              Key figures
+            </h2>
+            <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3">
+              <Figure label="Computed value" value={finding.value == null ? "—" : formatTraceValue(finding.value, unit)} />
+              <Figure label="Limit" value={finding.limitValue == null ? "—" : formatTraceValue(finding.limitValue, unit)} />
+              <Figure label="Ratio" value={ratioText} note={finding.ratio != null && finding.ratio > 1 ? "The limit is crossed." : undefined} />
+              <Figure label="Worst-case temperature" value={formatTempC(finding.worstCaseTempC)} note={finding.worstCaseSource ?? undefined} />
+              <Figure label="Scenario" value={<span className="text-base">{SCENARIO_LABELS[finding.scenario]}</span>} />
+              <Figure label="Containers" value={contributors.rows.length} note={contributors.rows.length === 1 ? "contributes" : "contribute"} />
             </dl>
-          </Card>
-          {substance && curve.length ? (
-            <Card title={`Vapor pressure of ${substance.name} and the worst-case temperature`}>
-              <VaporPressureChart
-                points={curve}
-                lflPressureKPa={substance.lflVolPercent != null ? (substance.lflVolPercent / 100) * STANDARD_ATMOSPHERE_KPA : null}
-                lflVolPercent={substance.lflVolPercent}
-                lowerFlammableTemperatureC={null}
-                ambientPressureKPa={STANDARD_ATMOSPHERE_KPA}
-                markTempC={finding.worstCaseTempC != null ? { tempC: finding.worstCaseTempC, label: `Worst case ${formatTempC(finding.worstCaseTempC)}` } : null}
-              />
+          </section>
+          <div className="order-4 space-y-6">
+            <Caution />
+            <Card title={`Contributing containers (${contributors.rows.length})`}>
+              <ContributingContainersList list={contributors} />
             </Card>
-          ) : null}
-          <Card title="Calculation trace">
-            <p className="mb-4 text-xs text-ink-600">Every input with its source, every formula with the numbers put in: redo it by hand.</p>
-            <TraceView trace={finding.trace} />
-          </Card>
+            {substance && curve.length ? (
+              <Card title={`Vapor pressure of ${substance.name} and the point used`}>
+                <VaporPressureChart
+                  points={curve}
+                  lflPressureKPa={substance.lflVolPercent != null ? (substance.lflVolPercent / 100) * STANDARD_ATMOSPHERE_KPA : null}
+                  lflVolPercent={substance.lflVolPercent}
+                  lowerFlammableTemperatureC={null}
+                  ambientPressureKPa={STANDARD_ATMOSPHERE_KPA}
+                  markTempC={!used && finding.worstCaseTempC != null ? { tempC: finding.worstCaseTempC, label: `Worst case ${formatTempC(finding.worstCaseTempC)}` } : null}
+                  markPoint={used ? { tempC: used.tempC, pressureKPa: used.pressureKPa, label: `${formatTempC(used.tempC)}, ${formatTraceValue(used.pressureKPa, "kPa")}` } : null}
+                />
+              </Card>
+            ) : null}
+            <Card title="The whole working">
+              <p className="mb-4 text-xs text-ink-600">Every input with its source, every formula with the numbers put in, every intermediate result: redo it by hand.</p>
+              <TraceWorking model={model} />
+            </Card>
+            <Card title="About this finding">
+              <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-[12rem_minmax(0,1fr)]">
+                {facts.map(([label, value]) => (
+                  <div key={label} className="contents">
+                    <dt className="text-ink-600">{label}</dt>
+                    <dd className="tabular text-ink-900">{value}</dd>
+                  </div>
+                ))}
+              </dl>
+            </Card>
+          </div>
         </div>
-        <div className="space-y-6">
-          <Card title="Work on it">
+        <div className="contents lg:sticky lg:top-4 lg:block lg:space-y-6">
+          <Card title="Work on it" className="order-2">
             <FindingSteps findingId={finding.id} steps={steps} people={people} />
           </Card>
-          <Card title="History">
+          <Card title="History" className="order-3">
             <ol className="space-y-3">
               {[...events].reverse().map((e) => (
                 <li key={e.id} className="text-sm">
                   <p className="font-medium text-ink-900">
-                    {EVENT_LABEL[e.kind] ?? e.kind}
+                    {e.kind === "comment" && e.data?.resolveRefused ? "Not resolved: the condition still holds" : (EVENT_LABEL[e.kind] ?? e.kind)}
                     {e.fromStatus && e.toStatus && e.fromStatus !== e.toStatus ? (
                       <span className="font-normal text-ink-600">
                         {" "}
