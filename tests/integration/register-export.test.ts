@@ -311,7 +311,9 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     const unit = locations.find((r) => r["Storage unit"].value === "FR-1")!;
     expect(unit["Unit internal volume (L)"].value).toBe(150);
     expect(unit["Worst case, in control (°C)"].value).toBe(8); // upper end of the set range
-    expect(unit["Worst-case source"].value).toBe("8.0 °C, upper end of the set range");
+    expect(unit["Worst-case source"].value).toBe(
+      "8.0 °C, upper end of the set range; the readings inside 1 excursion in the last 365 days are excluded (they count as control lost)",
+    );
     expect(unit["Control lost (°C)"].value).toBe(28); // the room's design maximum
     expect(String(unit["Control-lost source"].value)).toContain("as if the unit had failed");
 
@@ -449,7 +451,9 @@ describe("the Locations sheet's worst cases", () => {
     // The values themselves (from the readings and excursion inserted above):
     expect(book.room(hot)?.tempC).toBe(31);
     expect(book.room(hot)?.description).toContain("T-ROOM-B");
-    expect(book.unit(fridge).inControl?.tempC).toBe(12);
+    // The 9.5 °C reading lies inside the open excursion: in control keeps the set range's 8 °C;
+    // control lost is the higher of the room's 31 °C and the excursion's 12 °C peak.
+    expect(book.unit(fridge).inControl?.tempC).toBe(8);
     expect(book.unit(fridge).controlLost?.tempC).toBe(31);
     expect(book.unit(shelf).inControl?.tempC).toBe(31);
     expect(book.room(bare)).toBeNull();
