@@ -2,7 +2,7 @@
  * Stored excursions: detection after every ingest, closing, merging, acknowledgement, the alert
  * e-mails (who gets them, preferences, idempotency) and the worst-case temperature queries.
  */
-import { beforeAll, describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditEvents, emailMessages, excursions, rooms, sensors, sites, storageUnits, type User } from "@/db/schema";
@@ -223,10 +223,11 @@ describe("worst-case temperatures", () => {
 });
 
 describe("daily digest", () => {
-  it("queues one digest per person and day after 07:00 UTC, with the excursions of their locations, and none for those who switched excursions off", async () => {
+  it("queues one digest per person and day at 07:00 UTC, with the excursions of their locations, and none for those who switched excursions off", async () => {
     const { queueDailyDigests } = await import("@/lib/alerts/digest");
     expect(queueDailyDigests(Date.parse("2026-03-07T06:59:00Z"))).toBe(0);
-    queueDailyDigests(Date.parse("2026-03-07T08:10:00Z"));
+    expect(queueDailyDigests(Date.parse("2026-03-07T07:02:01Z"))).toBe(0); // more than two minutes late: not under the 07:00 label
+    queueDailyDigests(Date.parse("2026-03-07T07:00:30Z"));
     const digestOf = (user: User) => alertsTo(user).filter((m) => m.kind === "daily_digest");
     for (const user of [officer, digestOfficer, contact, owner]) {
       const [digest] = digestOf(user);
@@ -235,8 +236,45 @@ describe("daily digest", () => {
     }
     expect(digestOf(quietOfficer)).toHaveLength(0);
     expect(digestOf(researcher)).toHaveLength(0); // responsible for nothing
+    expect(queueDailyDigests(Date.parse("2026-03-07T07:01:00Z"))).toBe(0); // once a day
     expect(queueDailyDigests(Date.parse("2026-03-07T12:00:00Z"))).toBe(0);
     expect(digestOf(officer)).toHaveLength(1);
+  });
+
+  it("sends each digest at its hour by the timer: not on a start at 12:19, at 07:00 the next day, once; a restart at 07:01 catches up", async () => {
+    const { startDigestJob, stopDigestJob } = await import("@/lib/alerts/digest");
+    const sensorId = getDb().select().from(sensors).where(eq(sensors.externalId, "T-FR")).get()!.id;
+    // An open, unacknowledged excursion: every day's digest has something to say.
+    getDb()
+      .insert(excursions)
+      .values({ sensorId, storageUnitId: unitId, thresholdC: 8, startAt: new Date("2026-03-08T10:00:00Z"), peakTempC: 12.5, peakAt: new Date("2026-03-08T10:40:00Z") })
+      .run();
+    const digestsOf = (user: User) => alertsTo(user).filter((m) => m.kind === "daily_digest");
+    vi.useFakeTimers({ toFake: ["setTimeout", "clearTimeout", "setInterval", "clearInterval", "Date"] });
+    try {
+      vi.setSystemTime(new Date("2026-03-08T12:19:00Z"));
+      startDigestJob();
+      expect(digestsOf(officer).map((m) => m.subject)).toEqual(["Headroom daily digest, 2026-03-07 07:00 UTC"]);
+      await vi.advanceTimersByTimeAsync(Date.parse("2026-03-09T06:59:59Z") - Date.now());
+      expect(digestsOf(officer)).toHaveLength(1);
+      await vi.advanceTimersByTimeAsync(1_000); // 07:00:00
+      const sent = digestsOf(officer);
+      expect(sent.map((m) => m.subject)).toEqual(["Headroom daily digest, 2026-03-07 07:00 UTC", "Headroom daily digest, 2026-03-09 07:00 UTC"]);
+      expect(sent[1].text).toContain("open since 2026-03-08 10:00 UTC, not acknowledged, peak 12.5 °C");
+      await vi.advanceTimersByTimeAsync(6 * 3_600_000);
+      expect(digestsOf(officer)).toHaveLength(2);
+      stopDigestJob();
+      vi.setSystemTime(new Date("2026-03-10T07:01:00Z"));
+      startDigestJob();
+      startDigestJob(); // started twice: one timer, one digest
+      expect(digestsOf(officer).map((m) => m.subject).at(-1)).toBe("Headroom daily digest, 2026-03-10 07:00 UTC");
+      expect(digestsOf(officer)).toHaveLength(3);
+      await vi.advanceTimersByTimeAsync(10 * 60_000);
+      expect(digestsOf(officer)).toHaveLength(3);
+    } finally {
+      stopDigestJob();
+      vi.useRealTimers();
+    }
   });
 });
 
