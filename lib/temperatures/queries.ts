@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, gte, inArray, isNull, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { getDb, type DbOrTx } from "@/db/client";
 import { excursions, readings, rooms, sensors, settings, storageUnits, users } from "@/db/schema";
@@ -242,18 +242,41 @@ export type ExcursionFilter = {
   inRoomId?: number;
   storageUnitId?: number;
   open?: boolean;
+  /** Not acknowledged yet, ended or not. */
+  awaitingAcknowledgement?: boolean;
+  /** Acknowledged (true) or not (false). */
+  acknowledged?: boolean;
   limit?: number;
 };
 
-/** Excursions newest first, open ones first. */
-export function listExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): ExcursionRow[] {
-  const unitRoom = alias(rooms, "unit_room");
+function excursionConditions(filter: ExcursionFilter): SQL[] {
   const conditions: SQL[] = [];
   if (filter.sensorId != null) conditions.push(eq(excursions.sensorId, filter.sensorId));
   if (filter.roomId != null) conditions.push(eq(excursions.roomId, filter.roomId));
   if (filter.storageUnitId != null) conditions.push(eq(excursions.storageUnitId, filter.storageUnitId));
   if (filter.inRoomId != null) conditions.push(or(eq(excursions.roomId, filter.inRoomId), eq(storageUnits.roomId, filter.inRoomId))!);
   if (filter.open) conditions.push(isNull(excursions.endAt));
+  if (filter.awaitingAcknowledgement || filter.acknowledged === false) conditions.push(isNull(excursions.acknowledgedAt));
+  if (filter.acknowledged === true) conditions.push(isNotNull(excursions.acknowledgedAt));
+  return conditions;
+}
+
+/** How many excursions match (the list itself stops at its limit). */
+export function countExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): number {
+  const conditions = excursionConditions(filter);
+  const row = db
+    .select({ n: sql<number>`count(*)` })
+    .from(excursions)
+    .leftJoin(storageUnits, eq(storageUnits.id, excursions.storageUnitId))
+    .where(conditions.length ? and(...conditions) : undefined)
+    .get();
+  return row?.n ?? 0;
+}
+
+/** Excursions newest first, open ones first. */
+export function listExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): ExcursionRow[] {
+  const unitRoom = alias(rooms, "unit_room");
+  const conditions = excursionConditions(filter);
   const lastReadingAt = sql<number | null>`(select max(${readings.at}) from ${readings} where ${readings.sensorId} = ${excursions.sensorId})`;
   const rows = db
     .select({
