@@ -8,6 +8,7 @@ import { getDb } from "@/db/client";
 import { auditEvents, excursions, rooms, sensors, sites, storageUnits, type User } from "@/db/schema";
 import * as bulkRoute from "@/app/api/v1/excursions/acknowledge/route";
 import * as listRoute from "@/app/api/v1/excursions/route";
+import * as auditRoute from "@/app/api/v1/audit-events/route";
 import { ingestReadings } from "@/lib/temperatures/ingest";
 import { countExcursions, worstCaseForUnit } from "@/lib/temperatures/queries";
 import { readingSeries } from "@/lib/temperatures/series";
@@ -103,5 +104,24 @@ describe("excursions awaiting acknowledgement", () => {
     expect(again.body.data[1]).toEqual({ excursionId: third.id, ok: true });
     expect(stored()[2].acknowledgeComment).toBeNull(); // the note is optional
     expect(countExcursions({ awaitingAcknowledgement: true })).toBe(0);
+  });
+});
+
+describe("the audit log of those acknowledgements", () => {
+  it("filters excursions and says what changed in words: the person by name, no ids, no JSON", async () => {
+    const cookie = await sessionCookieFor(makeUser("auditor"));
+    const response = await call(auditRoute.GET, { path: "/api/v1/audit-events?entityType=excursion&sort=at&dir=asc", cookie });
+    expect(response.status).toBe(200);
+    expect(response.body.total).toBe(3);
+    const [first] = response.body.data;
+    expect(first.action).toBe("acknowledge");
+    const changes = first.changes as { label: string; before: string; after: string }[];
+    expect(changes.map((c) => c.label)).toEqual(["Acknowledged at", "Acknowledged by", "Acknowledgement note"]);
+    expect(changes[0].before).toBe("—");
+    expect(changes[0].after).toMatch(/^\d{4}-\d\d-\d\d \d\d:\d\d UTC$/);
+    expect(changes[1].after).toBe(facilities.name);
+    expect(changes[2].after).toBe("Compressor replaced 2026-05-04; stock checked.");
+    const bad = await call(auditRoute.GET, { path: "/api/v1/audit-events?entityType=spaceship", cookie });
+    expect(bad.status).toBe(400);
   });
 });
