@@ -50,12 +50,6 @@ export function highestReading(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: num
   return best;
 }
 
-function openExcursionPeaks(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number): WorstCaseCandidate[] {
-  return excursionsInWindow(db, sensorRefs, sinceMs)
-    .filter((e) => e.excursion.endMs === null)
-    .map((e) => e.candidate);
-}
-
 type WindowExcursion = { sensorId: number; excursion: UnitExcursion; candidate: WorstCaseCandidate };
 
 /** The excursions of these sensors that lasted into the window (ended since `sinceMs`, or open), oldest first. */
@@ -83,15 +77,34 @@ function excursionsInWindow(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number
     });
 }
 
+/**
+ * One peak instant everywhere: a highest reading that is an excursion's peak (same sensor, same
+ * temperature) takes that excursion's stored peak_at — its first reading at the peak — rather than
+ * a later reading at the same temperature.
+ */
+function atExcursionPeak<C extends Extract<WorstCaseCandidate, { kind: "reading" }>>(reading: C | null, windowExcursions: readonly WindowExcursion[]): C | null {
+  if (!reading) return null;
+  const peak = windowExcursions.filter((e) => e.excursion.sensor === reading.sensor && e.excursion.peakTempC === reading.tempC).at(-1);
+  return peak ? { ...reading, atMs: peak.excursion.peakAtMs } : reading;
+}
+
+/** A sensor group's highest reading (at its excursion's peak instant when it is one) and its open excursions' peaks. */
+function sensorGroupCandidates(db: DbOrTx, refs: SensorRef[], windowExcursions: readonly WindowExcursion[], sinceMs: number): WorstCaseCandidate[] {
+  if (refs.length === 0) return [];
+  const found: WorstCaseCandidate[] = [];
+  const highest = atExcursionPeak(highestReading(db, refs, sinceMs), windowExcursions);
+  if (highest) found.push(highest);
+  for (const e of windowExcursions) if (e.excursion.endMs === null) found.push(e.candidate);
+  return found;
+}
+
 function roomCandidates(db: DbOrTx, roomId: number, sinceMs: number): WorstCaseCandidate[] | null {
   const room = db.select({ designMaxTempC: rooms.designMaxTempC }).from(rooms).where(eq(rooms.id, roomId)).get();
   if (!room) return null;
   const refs = sensorsAt(db, eq(sensors.roomId, roomId));
   const candidates: WorstCaseCandidate[] = [];
   if (room.designMaxTempC != null) candidates.push({ kind: "design", tempC: room.designMaxTempC });
-  const highest = highestReading(db, refs, sinceMs);
-  if (highest) candidates.push(highest);
-  candidates.push(...openExcursionPeaks(db, refs, sinceMs));
+  candidates.push(...sensorGroupCandidates(db, refs, excursionsInWindow(db, refs, sinceMs), sinceMs));
   return candidates;
 }
 
@@ -137,11 +150,7 @@ export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx 
 /** A unit's worst case from its set range, its own sensors (with their excursions in the window) and its room's candidates. */
 function unitWorstCase(db: DbOrTx, setMaxC: number | null, refs: SensorRef[], unitExcursions: WindowExcursion[], room: WorstCaseCandidate[], sinceMs: number, days: number): LocationWorstCase {
   if (setMaxC == null) {
-    const own: WorstCaseCandidate[] = [];
-    const highest = highestReading(db, refs, sinceMs);
-    if (highest) own.push(highest);
-    for (const e of unitExcursions) if (e.excursion.endMs === null) own.push(e.candidate);
-    return { inControl: selectWorstCase([...own, ...room]), controlLost: null, controlled: false };
+    return { inControl: selectWorstCase([...sensorGroupCandidates(db, refs, unitExcursions, sinceMs), ...room]), controlLost: null, controlled: false };
   }
   const { inControl, controlLost } = controlledUnitWorstCase({
     setMaxC,
@@ -180,15 +189,7 @@ export function worstCasesForRooms(
     const ids = new Set(refs.map((r) => r.id));
     return windowExcursions.filter((e) => ids.has(e.sensorId));
   };
-  const sensorCandidates = (refs: SensorRef[]): WorstCaseCandidate[] => {
-    if (refs.length === 0) return [];
-    const found: WorstCaseCandidate[] = [];
-    const highest = highestReading(db, refs, sinceMs);
-    if (highest) found.push(highest);
-    // In the order openExcursionPeaks gives them for these sensors alone.
-    for (const e of excursionsOf(refs)) if (e.excursion.endMs === null) found.push(e.candidate);
-    return found;
-  };
+  const sensorCandidates = (refs: SensorRef[]): WorstCaseCandidate[] => sensorGroupCandidates(db, refs, excursionsOf(refs), sinceMs);
   const roomCandidatesById = new Map<number, WorstCaseCandidate[]>();
   for (const row of roomRows) {
     const candidates: WorstCaseCandidate[] = [];

@@ -58,6 +58,13 @@ describe("one peak instant", () => {
     );
     // In control: the 4.5 °C after the failure and every reading outside the three excursions; the set range's 8 °C is higher.
     expect(worst.inControl!.tempC).toBe(8);
+    // Without a set range the unit sits at room temperature and its highest reading counts: at the peak's instant, not the later tie.
+    getDb().update(storageUnits).set({ setMaxC: null, setMinC: null }).where(eq(storageUnits.id, unitId)).run();
+    try {
+      expect(worstCaseForUnit(unitId, T0 + 4000 * MIN).inControl!.description).toBe("21.7 °C, reading of 2026-05-02 00:00 UTC from sensor FSR-A-LOG");
+    } finally {
+      getDb().update(storageUnits).set({ setMinC: 2, setMaxC: 8 }).where(eq(storageUnits.id, unitId)).run();
+    }
   });
 });
 
