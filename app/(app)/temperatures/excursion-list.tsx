@@ -78,49 +78,49 @@ export function ExcursionList({
                 />
               ) : null}
               <div className="min-w-0 space-y-1">
-              <p id={summaryId} className="flex flex-wrap items-center gap-x-2 gap-y-1">
-                {open ? (
-                  <span className="inline-flex items-center gap-1 rounded border border-sev-high/40 bg-white px-1.5 py-0.5 text-xs font-semibold text-sev-high">
-                    <TriangleAlert aria-hidden="true" className="size-3.5" strokeWidth={2.25} />
-                    Open
-                  </span>
-                ) : (
-                  <span className="inline-flex items-center gap-1 rounded border border-ink-200 bg-white px-1.5 py-0.5 text-xs font-medium text-ink-700">
-                    <CircleCheck aria-hidden="true" className="size-3.5" />
-                    Ended
-                  </span>
-                )}
-                <span className="font-semibold text-ink-950">Peak {formatTempC(row.peakTempC)}</span>
-                <span className="text-ink-700">
-                  above {formatTempC(row.thresholdC)} for {formatDurationMin(row.durationMin)}
-                  {open ? " so far" : ""}
-                </span>
-                {showSensor ? (
+                <p id={summaryId} className="flex flex-wrap items-center gap-x-2 gap-y-1">
+                  {open ? (
+                    <span className="inline-flex items-center gap-1 rounded border border-sev-high/40 bg-white px-1.5 py-0.5 text-xs font-semibold text-sev-high">
+                      <TriangleAlert aria-hidden="true" className="size-3.5" strokeWidth={2.25} />
+                      Open
+                    </span>
+                  ) : (
+                    <span className="inline-flex items-center gap-1 rounded border border-ink-200 bg-white px-1.5 py-0.5 text-xs font-medium text-ink-700">
+                      <CircleCheck aria-hidden="true" className="size-3.5" />
+                      Ended
+                    </span>
+                  )}
+                  <span className="font-semibold text-ink-950">Peak {formatTempC(row.peakTempC)}</span>
                   <span className="text-ink-700">
-                    · sensor{" "}
-                    <Link href={`/temperatures/sensors/${row.sensorId}`} className="font-mono text-accent-800 hover:underline">
-                      {row.sensorExternalId}
-                    </Link>
+                    above {formatTempC(row.thresholdC)} for {formatDurationMin(row.durationMin)}
+                    {open ? " so far" : ""}
                   </span>
-                ) : null}
-                {showLocation ? (
-                  <span className="text-ink-700">
-                    · <Location row={row} />
-                  </span>
-                ) : null}
-              </p>
-              <p className="text-xs text-ink-600">
-                Started {formatDateTime(row.startAt)} · {open ? "still above the threshold at the latest reading" : `ended ${formatDateTime(row.endAt)}`} · peak at {formatDateTime(row.peakAt)}
-                {chartLinks ? (
-                  <>
-                    {" "}
-                    ·{" "}
-                    <Link href={excursionWindowHref(row, nowMs)} className="whitespace-nowrap font-medium text-accent-800 hover:underline">
-                      Show on the chart
-                    </Link>
-                  </>
-                ) : null}
-              </p>
+                  {showSensor ? (
+                    <span className="text-ink-700">
+                      · sensor{" "}
+                      <Link href={`/temperatures/sensors/${row.sensorId}`} className="font-mono text-accent-800 hover:underline">
+                        {row.sensorExternalId}
+                      </Link>
+                    </span>
+                  ) : null}
+                  {showLocation ? (
+                    <span className="text-ink-700">
+                      · <Location row={row} />
+                    </span>
+                  ) : null}
+                </p>
+                <p className="text-xs text-ink-600">
+                  Started {formatDateTime(row.startAt)} · {open ? "still above the threshold at the latest reading" : `ended ${formatDateTime(row.endAt)}`} · peak at {formatDateTime(row.peakAt)}
+                  {chartLinks ? (
+                    <>
+                      {" "}
+                      ·{" "}
+                      <Link href={excursionWindowHref(row, nowMs)} className="whitespace-nowrap font-medium text-accent-800 hover:underline">
+                        Show on the chart
+                      </Link>
+                    </>
+                  ) : null}
+                </p>
               </div>
             </div>
             <div className="text-sm">
