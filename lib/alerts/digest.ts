@@ -7,7 +7,7 @@ import { appUrl } from "@/lib/config";
 import { log } from "@/lib/log";
 import { enqueueEmail } from "@/lib/mail/outbox";
 
-/** The digest goes out once a day, at or after this hour (UTC). */
+/** The digest goes out once a day, at this hour (UTC). */
 export const DIGEST_HOUR_UTC = 7;
 const DAY_MS = 86_400_000;
 
@@ -123,14 +123,40 @@ function wantsDigest(user: User): boolean {
 }
 
 /**
+ * The digest is queued at its hour, never hours later under that hour's label: a process that was
+ * down at 07:00 UTC and starts later leaves that day's digest out (tomorrow's lists every open,
+ * unacknowledged excursion again) rather than sending a "07:00 UTC" digest at noon.
+ */
+export const DIGEST_LATE_LIMIT_MS = 2 * 60_000;
+
+/** The digest hour of the UTC day of `nowMs` (ms). */
+export function digestSlotOf(nowMs: number): number {
+  const now = new Date(nowMs);
+  return Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate(), DIGEST_HOUR_UTC);
+}
+
+/** Whether `nowMs` falls within DIGEST_LATE_LIMIT_MS after a digest hour. */
+export function isDigestDue(nowMs: number): boolean {
+  const slotMs = digestSlotOf(nowMs);
+  return nowMs >= slotMs && nowMs - slotMs <= DIGEST_LATE_LIMIT_MS;
+}
+
+/** Milliseconds from `nowMs` to the next digest hour (today's if it is still ahead, else tomorrow's). */
+export function msUntilNextDigest(nowMs: number): number {
+  const today = digestSlotOf(nowMs);
+  return (nowMs < today ? today : today + DAY_MS) - nowMs;
+}
+
+/**
  * Queues today's digest for everyone who wants one and has something to read, once per person and
- * day (the idempotency key is the person and the date). Does nothing before DIGEST_HOUR_UTC.
+ * day (the idempotency key is the person and the date). Does nothing outside the minutes just after
+ * DIGEST_HOUR_UTC (see DIGEST_LATE_LIMIT_MS).
  */
 export function queueDailyDigests(nowMs = Date.now(), db: DbOrTx = getDb()): number {
+  if (!isDigestDue(nowMs)) return 0;
   const now = new Date(nowMs);
-  if (now.getUTCHours() < DIGEST_HOUR_UTC) return 0;
   const day = now.toISOString().slice(0, 10);
-  const untilMs = Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate(), DIGEST_HOUR_UTC);
+  const untilMs = digestSlotOf(nowMs);
   const window = { sinceMs: untilMs - DAY_MS, untilMs };
   let queued = 0;
   for (const user of db.select().from(users).where(eq(users.active, true)).all()) {
@@ -148,19 +174,45 @@ export function queueDailyDigests(nowMs = Date.now(), db: DbOrTx = getDb()): num
   return queued;
 }
 
-const DIGEST_CHECK_INTERVAL_MS = 10 * 60_000;
 const globalDigest = globalThis as unknown as { headroomDigestTimer?: NodeJS.Timeout };
 
+/**
+ * Runs the digest at its hour: a timer set for the next DIGEST_HOUR_UTC, set again after each run.
+ * On start it runs at once only when the hour has just passed (a restart at 07:01), so a process
+ * started at noon sends nothing until tomorrow's hour.
+ */
 export function startDigestJob(): void {
   if (globalDigest.headroomDigestTimer) return;
   const run = () => {
     try {
-      queueDailyDigests();
+      const nowMs = Date.now();
+      if (isDigestDue(nowMs)) queueDailyDigests(nowMs);
+      else if (msUntilNextDigest(nowMs) > 60_000) {
+        log.warn({ day: new Date(nowMs).toISOString().slice(0, 10) }, "daily digest skipped: its hour had passed more than two minutes before the timer ran");
+      }
     } catch (error) {
-      log.error({ err: error }, "daily digest failed; it is tried again at the next check");
+      log.error({ err: error }, "daily digest failed; it is tried again at the next digest hour");
     }
+    schedule();
   };
-  globalDigest.headroomDigestTimer = setInterval(run, DIGEST_CHECK_INTERVAL_MS);
-  globalDigest.headroomDigestTimer.unref?.();
-  run();
+  const schedule = () => {
+    // A timer never fires early by more than a rounding; the run checks the hour itself.
+    globalDigest.headroomDigestTimer = setTimeout(run, msUntilNextDigest(Date.now()));
+    globalDigest.headroomDigestTimer.unref?.();
+  };
+  const nowMs = Date.now();
+  if (isDigestDue(nowMs)) {
+    try {
+      queueDailyDigests(nowMs);
+    } catch (error) {
+      log.error({ err: error }, "daily digest failed; it is tried again at the next digest hour");
+    }
+  }
+  schedule();
+}
+
+/** Stops the digest timer (tests, shutdown). */
+export function stopDigestJob(): void {
+  if (globalDigest.headroomDigestTimer) clearTimeout(globalDigest.headroomDigestTimer);
+  globalDigest.headroomDigestTimer = undefined;
 }

@@ -46,7 +46,7 @@ export const METHODS: MethodStatement[] = [
     item: "Mackay–Matsugu evaporation",
     statement:
       "Mass-transfer alternative for the pool: k_m = 0.0292 · U^0.78 · X^(−0.11) · Sc^(−0.67) (k_m and U in m/h, X the pool diameter in m, Sc the Schmidt number); evaporation N = k_m · A · Psat · M / (R · T).",
-    source: "Mackay & Matsugu (1973), Can. J. Chem. Eng., as usually quoted; the coefficients are recalled from memory and should be checked against the paper",
+    source: "D. Mackay and R. S. Matsugu, “Evaporation rates of liquid hydrocarbon spills on land and water”, Can. J. Chem. Eng. (1973); the correlation in the form commonly quoted in process-safety texts (common practice)",
   },
   {
     item: "Well-mixed room model",
@@ -75,7 +75,7 @@ export function assumptions(lookBackDays: number): MethodStatement[] {
   return [
     {
       item: "Worst-case temperature",
-      statement: `For each room and storage unit: the highest of its design maximum (for a unit with a set range, the upper end of the range), the highest reading of its sensors in the look-back window and the peak of any open excursion. The source of the value is given beside it.`,
+      statement: `For each room and storage unit: the highest of its design maximum, the highest reading of its sensors in the look-back window and the peak of any open excursion. For a unit with a set range, "in control" is the upper end of the range and its sensors' highest reading outside its excursions (an excursion is the unit out of control). The source of the value is given beside it.`,
       source: "Headroom's definition",
     },
     {
@@ -85,7 +85,7 @@ export function assumptions(lookBackDays: number): MethodStatement[] {
     },
     {
       item: "Control lost",
-      statement: "A temperature-controlled unit (refrigerator, freezer) is also assessed at its room's worst case, as if it had failed and warmed up to the room; never below its own worst case.",
+      statement: "A temperature-controlled unit (refrigerator, freezer) is also assessed with control lost: at the higher of its room's worst case (as if it had failed and warmed up to the room) and the highest peak of its excursions in the look-back window; never below its in-control worst case.",
       source: "Headroom's definition",
     },
     {

@@ -27,6 +27,8 @@ import { assumptions, CAUTIONS, METHODS, SUMMARY_CAUTION, type MethodStatement }
 import { safeText, TEXT_NUM_FMT } from "./safe-text";
 import { DATETIME_NUM_FMT, ExportCancelledError, HEADER_STYLE, Pace, sharedTextOf, TableSheet, TEXT_STYLE, type Column, type SharedText } from "./table-sheet";
 import { traceText } from "@/lib/register/trace-text";
+import { ruleLabel, type RuleId } from "@/lib/assessment/rules/rule-ids";
+import { EXPOSURE_LIMIT_KINDS } from "@/db/enums";
 import { installNativeZipCrc } from "./zip-crc";
 
 /**
@@ -96,6 +98,15 @@ export const SCENARIO_LABELS: Record<Scenario, string> = {
 
 const label = <K extends string>(labels: Record<K, string>, code: string | null | undefined) => (code == null ? null : (labels[code as K] ?? code));
 
+/** A number to `significant` figures, still a number (the register shows 3). */
+export function toSignificant(value: number | null | undefined, significant = 3): number | null {
+  if (value == null || !Number.isFinite(value)) return null;
+  return value === 0 ? 0 : Number(value.toPrecision(significant));
+}
+
+/** Ratios are stored as fractions (36.4 = 3,640 %): Excel's % format shows them as the register does. */
+export const RATIO_NUM_FMT = "#,##0%";
+
 // -------------------------------------------------------------------------------------------------
 // Columns
 // -------------------------------------------------------------------------------------------------
@@ -104,7 +115,7 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Finding ID", width: 10, kind: "number", value: (r) => r.id },
   { header: "Severity", width: 10, kind: "text", value: (r) => label(SEVERITY_LABELS, r.severity) },
   { header: "Status", width: 14, kind: "text", value: (r) => label(STATUS_LABELS, r.status) },
-  { header: "Rule", width: 22, kind: "text", value: (r) => r.rule },
+  { header: "Rule", width: 40, kind: "text", value: (r) => ruleLabel(r.rule as RuleId) },
   { header: "Scenario", width: 16, kind: "text", value: (r) => label(SCENARIO_LABELS, r.scenario) },
   { header: "Title", width: 60, kind: "text", unique: true, value: (r) => r.title },
   { header: "Site", width: 20, kind: "text", value: (r) => r.siteName },
@@ -113,9 +124,9 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Container", width: 16, kind: "text", unique: true, value: (r) => r.containerLabel },
   { header: "Substance or mixture", width: 26, kind: "text", value: (r) => r.substanceName ?? r.mixtureName },
   { header: "CAS number", width: 12, kind: "text", value: (r) => r.cas },
-  { header: "Value", width: 12, kind: "number", value: (r) => r.value },
-  { header: "Limit", width: 12, kind: "number", value: (r) => r.limitValue },
-  { header: "Ratio (value ÷ limit)", width: 12, kind: "number", value: (r) => r.ratio },
+  { header: "Value", width: 12, kind: "number", value: (r) => toSignificant(r.value) },
+  { header: "Limit", width: 12, kind: "number", value: (r) => toSignificant(r.limitValue) },
+  { header: "Value ÷ limit (%)", width: 12, kind: "number", numFmt: RATIO_NUM_FMT, value: (r) => toSignificant(r.ratio) },
   { header: "Value unit", width: 10, kind: "text", value: (r) => r.unit },
   { header: "Worst case (°C)", width: 12, kind: "number", numFmt: "0.0", value: (r) => r.worstCaseTempC },
   { header: "Worst-case source", width: 50, kind: "text", value: (r) => r.worstCaseSource },
@@ -238,8 +249,58 @@ type SubstanceSheetRow = {
   substance: SubstanceExportRow;
   correlation: Record<string, unknown> | null;
   furtherCorrelations: string | null;
-  limit: SubstanceExportRow["exposureLimits"][number] | null;
+  /** Per kind, the most protective limit (lowest, compared in ppm); the others go to "Further exposure limits". */
+  limits: Partial<Record<ExposureLimitKind, ExposureLimitRow>>;
+  furtherLimits: string | null;
 };
+
+type ExposureLimitRow = SubstanceExportRow["exposureLimits"][number];
+type ExposureLimitKind = ExposureLimitRow["kind"];
+
+const LIMIT_KIND_HEADERS: Record<ExposureLimitKind, string> = { TWA: "TWA", STEL: "STEL", ceiling: "Ceiling", IDLH: "IDLH" };
+const limitUnit = (unit: string | null | undefined) => (unit === "mg/m3" ? "mg/m³" : (unit ?? null));
+
+/**
+ * A limit in ppm to compare limits given in different units: ppm = mg/m³ × 24.45 / M, the molar
+ * volume of an ideal gas at 25 °C and 101.325 kPa (the NIOSH Pocket Guide's conversion).
+ */
+function limitPpm(limit: ExposureLimitRow, molarMassGPerMol: number): number {
+  return limit.unit === "ppm" ? limit.value : (limit.value * 24.45) / molarMassGPerMol;
+}
+
+function describeLimit(limit: ExposureLimitRow): string {
+  return `${LIMIT_KIND_HEADERS[limit.kind]} ${limit.body} ${toSignificant(limit.value)} ${limitUnit(limit.unit)}${limit.note ? ` ${limit.note}` : ""} (${limit.source})`;
+}
+
+/** One row per substance: for each kind the lowest limit in its columns, the rest listed in one cell. */
+export function substanceLimits(substance: Pick<SubstanceExportRow, "exposureLimits" | "molarMassGPerMol">): Pick<SubstanceSheetRow, "limits" | "furtherLimits"> {
+  const limits: SubstanceSheetRow["limits"] = {};
+  const further: string[] = [];
+  for (const kind of EXPOSURE_LIMIT_KINDS) {
+    const ofKind = substance.exposureLimits
+      .filter((l) => l.kind === kind)
+      .sort((a, b) => limitPpm(a, substance.molarMassGPerMol) - limitPpm(b, substance.molarMassGPerMol));
+    if (ofKind.length === 0) continue;
+    limits[kind] = ofKind[0];
+    further.push(...ofKind.slice(1).map(describeLimit));
+  }
+  return { limits, furtherLimits: further.length ? further.join("; ") : null };
+}
+
+const limitColumns = (kind: ExposureLimitKind): Column<SubstanceSheetRow>[] => [
+  { header: `${LIMIT_KIND_HEADERS[kind]}`, width: 9, kind: "number", value: (r) => toSignificant(r.limits[kind]?.value) },
+  { header: `${LIMIT_KIND_HEADERS[kind]} unit`, width: 8, kind: "text", value: (r) => limitUnit(r.limits[kind]?.unit) },
+  { header: `${LIMIT_KIND_HEADERS[kind]} issuing body`, width: 11, kind: "text", value: (r) => r.limits[kind]?.body ?? null },
+  {
+    header: `${LIMIT_KIND_HEADERS[kind]} source`,
+    width: 34,
+    kind: "text",
+    value: (r) => {
+      const limit = r.limits[kind];
+      return limit ? `${limit.source}${limit.note ? ` (${limit.note})` : ""}` : null;
+    },
+  },
+];
 
 const num = (v: unknown) => (typeof v === "number" ? v : null);
 const source = (r: SubstanceSheetRow, key: string) => r.substance.sources[key] ?? null;
@@ -290,12 +351,8 @@ const SUBSTANCE_COLUMNS: Column<SubstanceSheetRow>[] = [
   { header: "Equation valid to (°C)", width: 10, kind: "number", value: (r) => num(r.correlation?.tMaxC) },
   { header: "Equation source", width: 40, kind: "text", value: (r) => (r.correlation?.source as string | undefined) ?? null },
   { header: "Further vapor-pressure equations", width: 40, kind: "text", value: (r) => r.furtherCorrelations },
-  { header: "Exposure limit kind", width: 10, kind: "text", value: (r) => r.limit?.kind },
-  { header: "Exposure limit value", width: 10, kind: "number", value: (r) => r.limit?.value },
-  { header: "Exposure limit unit", width: 9, kind: "text", value: (r) => (r.limit?.unit === "mg/m3" ? "mg/m³" : r.limit?.unit) },
-  { header: "Issuing body", width: 12, kind: "text", value: (r) => r.limit?.body },
-  { header: "Exposure limit source", width: 40, kind: "text", value: (r) => r.limit?.source },
-  { header: "Exposure limit note", width: 20, kind: "text", value: (r) => r.limit?.note },
+  ...EXPOSURE_LIMIT_KINDS.flatMap(limitColumns),
+  { header: "Further exposure limits", width: 60, kind: "text", value: (r) => r.furtherLimits },
 ];
 
 type MethodSheetRow = MethodStatement & { section: string; value?: number | null; unit?: string | null };
@@ -546,9 +603,7 @@ async function writeSubstances(ctx: Context): Promise<number> {
   for (const substance of list) {
     const [first, ...further] = (substance.correlations ?? []) as Record<string, unknown>[];
     const base = { substance, correlation: first ?? null, furtherCorrelations: further.length ? further.map(correlationSummary).join(" | ") : null };
-    if (substance.exposureLimits.length === 0) sheet.add({ ...base, limit: null });
-    // One row per exposure limit, the substance's values repeated, so the sheet filters cleanly.
-    for (const limit of substance.exposureLimits) sheet.add({ ...base, limit });
+    sheet.add({ ...base, ...substanceLimits(substance) });
   }
   await sheet.close();
   return list.length;

@@ -6,7 +6,8 @@ import { queueExcursionAlerts, type ExcursionAlertEvent } from "@/lib/alerts/exc
 import { auditSnapshot } from "@/lib/audit/diff";
 import { recordAudit } from "@/lib/audit/record";
 import type { SessionUser } from "@/lib/auth/session";
-import { ConflictError, NotFoundError } from "@/lib/errors";
+import { scopeFor } from "@/lib/auth/permissions";
+import { ConflictError, DomainError, ForbiddenError, NotFoundError } from "@/lib/errors";
 import { createExcursionDetector, type DetectedExcursion, type ExcursionRule } from "./excursions";
 
 export type SensorExcursionRule = ExcursionRule & { minDurationMin: number; roomId: number | null; storageUnitId: number | null; externalId: string };
@@ -186,28 +187,69 @@ function refreshSensor(tx: DbOrTx, sensorId: number, rule: SensorExcursionRule, 
 
 /** Facilities, safety officers and admins acknowledge an excursion with a comment; audited. */
 export function acknowledgeExcursion(actor: SessionUser, excursionId: number, comment: string): Excursion {
-  return getDb().transaction((tx) => {
-    const before = tx.select().from(excursions).where(eq(excursions.id, excursionId)).get();
-    if (!before) throw new NotFoundError("No such excursion.");
-    if (before.acknowledgedAt) {
-      const by = before.acknowledgedById == null ? null : tx.select({ name: users.name }).from(users).where(eq(users.id, before.acknowledgedById)).get();
-      throw new ConflictError(`This excursion was already acknowledged${by ? ` by ${by.name}` : ""} on ${before.acknowledgedAt.toISOString().slice(0, 16).replace("T", " ")} UTC.`);
-    }
-    const after = tx
-      .update(excursions)
-      .set({ acknowledgedAt: new Date(), acknowledgedById: actor.id, acknowledgeComment: comment, updatedAt: new Date() })
-      .where(and(eq(excursions.id, excursionId), isNull(excursions.acknowledgedAt)))
-      .returning()
-      .get();
-    const sensor = tx.select({ externalId: sensors.externalId }).from(sensors).where(eq(sensors.id, before.sensorId)).get();
-    recordAudit(tx, actor, {
-      action: "acknowledge",
-      entityType: "excursion",
-      entityId: excursionId,
-      summary: `Acknowledged the excursion on sensor ${sensor?.externalId ?? before.sensorId} from ${before.startAt.toISOString().slice(0, 16).replace("T", " ")} UTC: ${comment}`,
-      before: auditSnapshot(before),
-      after: auditSnapshot(after),
-    });
-    return after;
+  return getDb().transaction((tx) => acknowledgeInTx(tx, actor, excursionId, comment));
+}
+
+const isoMinute = (at: Date) => at.toISOString().slice(0, 16).replace("T", " ");
+
+/** May this person acknowledge this excursion? The permission matrix's scope; "own" means a location they answer for. */
+function mayAcknowledge(tx: DbOrTx, actor: SessionUser, excursion: Excursion): boolean {
+  const scope = scopeFor(actor.role, "excursions.acknowledge");
+  if (scope === "all") return true;
+  if (scope !== "own") return false;
+  const roomId =
+    excursion.roomId ??
+    (excursion.storageUnitId == null ? null : (tx.select({ roomId: storageUnits.roomId }).from(storageUnits).where(eq(storageUnits.id, excursion.storageUnitId)).get()?.roomId ?? null));
+  const ownsUnit =
+    excursion.storageUnitId != null &&
+    tx.select({ id: storageUnits.id }).from(storageUnits).where(and(eq(storageUnits.id, excursion.storageUnitId), eq(storageUnits.ownerId, actor.id))).get() != null;
+  const contact = roomId != null && tx.select({ id: rooms.id }).from(rooms).where(and(eq(rooms.id, roomId), eq(rooms.facilitiesContactId, actor.id))).get() != null;
+  return ownsUnit || contact;
+}
+
+function acknowledgeInTx(tx: DbOrTx, actor: SessionUser, excursionId: number, comment: string | null): Excursion {
+  const before = tx.select().from(excursions).where(eq(excursions.id, excursionId)).get();
+  if (!before) throw new NotFoundError("No such excursion.");
+  if (!mayAcknowledge(tx, actor, before)) throw new ForbiddenError("You may not acknowledge this excursion.");
+  if (before.acknowledgedAt) {
+    const by = before.acknowledgedById == null ? null : tx.select({ name: users.name }).from(users).where(eq(users.id, before.acknowledgedById)).get();
+    throw new ConflictError(`This excursion was already acknowledged${by ? ` by ${by.name}` : ""} on ${isoMinute(before.acknowledgedAt)} UTC.`);
+  }
+  const after = tx
+    .update(excursions)
+    .set({ acknowledgedAt: new Date(), acknowledgedById: actor.id, acknowledgeComment: comment, updatedAt: new Date() })
+    .where(and(eq(excursions.id, excursionId), isNull(excursions.acknowledgedAt)))
+    .returning()
+    .get();
+  const sensor = tx.select({ externalId: sensors.externalId }).from(sensors).where(eq(sensors.id, before.sensorId)).get();
+  recordAudit(tx, actor, {
+    action: "acknowledge",
+    entityType: "excursion",
+    entityId: excursionId,
+    summary: `Acknowledged the excursion on sensor ${sensor?.externalId ?? before.sensorId} from ${isoMinute(before.startAt)} UTC${comment ? `: ${comment}` : ""}`,
+    before: auditSnapshot(before),
+    after: auditSnapshot(after),
   });
+  return after;
+}
+
+export type AcknowledgeOutcome = { excursionId: number; ok: boolean; error?: string };
+
+/**
+ * Several excursions acknowledged at once with one note, in one transaction. Each is checked on
+ * its own (it exists, this person may acknowledge it, nobody has yet); one that cannot be
+ * acknowledged is reported with the reason and the others are still acknowledged.
+ */
+export function acknowledgeExcursions(actor: SessionUser, excursionIds: readonly number[], note: string | null): AcknowledgeOutcome[] {
+  return getDb().transaction((tx) =>
+    [...new Set(excursionIds)].map((excursionId) => {
+      try {
+        acknowledgeInTx(tx, actor, excursionId, note);
+        return { excursionId, ok: true };
+      } catch (error) {
+        if (error instanceof DomainError) return { excursionId, ok: false, error: error.message };
+        throw error;
+      }
+    }),
+  );
 }

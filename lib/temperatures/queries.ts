@@ -1,9 +1,9 @@
 import "server-only";
-import { and, asc, desc, eq, gte, inArray, isNull, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { getDb, type DbOrTx } from "@/db/client";
 import { excursions, readings, rooms, sensors, settings, storageUnits, users } from "@/db/schema";
-import { controlLostWorstCase, DEFAULT_LOOK_BACK_DAYS, selectWorstCase, type WorstCase, type WorstCaseCandidate } from "./worst-case";
+import { controlledUnitWorstCase, DEFAULT_LOOK_BACK_DAYS, selectWorstCase, type UnitExcursion, type WorstCase, type WorstCaseCandidate } from "./worst-case";
 
 export const LOOK_BACK_SETTING = "worstCaseLookBackDays";
 
@@ -22,41 +22,80 @@ function sensorsAt(db: DbOrTx, where: SQL): SensorRef[] {
 
 /**
  * The highest reading of these sensors since `sinceMs` (the later one on a tie). One query per
- * sensor down the (sensor, temperature, time) index: it stops at the first reading inside the window.
+ * sensor down the (sensor, temperature, time) index: it stops at the first reading inside the window
+ * — with `outsideExcursions`, at the first one outside every excursion of its sensor (a controlled
+ * unit in control: those readings count as control lost).
  */
-export function highestReading(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number): WorstCaseCandidate | null {
-  let best: WorstCaseCandidate | null = null;
+export function highestReading(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number, outsideExcursions = false): Extract<WorstCaseCandidate, { kind: "reading" }> | null {
+  let best: Extract<WorstCaseCandidate, { kind: "reading" }> | null = null;
   for (const ref of sensorRefs) {
+    const conditions: SQL[] = [eq(readings.sensorId, ref.id), gte(readings.at, new Date(sinceMs))];
+    if (outsideExcursions) {
+      conditions.push(
+        sql`not exists (select 1 from ${excursions} where ${excursions.sensorId} = ${readings.sensorId} and ${excursions.startAt} <= ${readings.at} and (${excursions.endAt} is null or ${excursions.endAt} > ${readings.at}))`,
+      );
+    }
     const row = db
       .select({ atMs: sql<number>`${readings.at}`, tempC: readings.tempC })
       .from(readings)
-      .where(and(eq(readings.sensorId, ref.id), gte(readings.at, new Date(sinceMs))))
+      .where(and(...conditions))
       .orderBy(desc(readings.tempC), desc(readings.at))
       .limit(1)
       .get();
     if (!row) continue;
-    if (!best || row.tempC > best.tempC || (row.tempC === best.tempC && best.kind === "reading" && row.atMs > best.atMs)) {
+    if (!best || row.tempC > best.tempC || (row.tempC === best.tempC && row.atMs > best.atMs)) {
       best = { kind: "reading", tempC: row.tempC, atMs: row.atMs, sensor: ref.externalId };
     }
   }
   return best;
 }
 
-function openExcursionPeaks(db: DbOrTx, sensorRefs: SensorRef[]): WorstCaseCandidate[] {
-  return openExcursionPeaksBySensor(db, sensorRefs).map((p) => p.candidate);
+type WindowExcursion = { sensorId: number; excursion: UnitExcursion; candidate: WorstCaseCandidate };
+
+/** The excursions of these sensors that lasted into the window (ended since `sinceMs`, or open), oldest first. */
+function excursionsInWindow(db: DbOrTx, sensorRefs: SensorRef[], sinceMs: number): WindowExcursion[] {
+  if (sensorRefs.length === 0) return [];
+  const names = new Map(sensorRefs.map((s) => [s.id, s.externalId]));
+  return db
+    .select({
+      sensorId: excursions.sensorId,
+      startAtMs: sql<number>`${excursions.startAt}`,
+      endAtMs: sql<number | null>`${excursions.endAt}`,
+      peakTempC: excursions.peakTempC,
+      peakAtMs: sql<number>`${excursions.peakAt}`,
+    })
+    .from(excursions)
+    .where(and(inArray(excursions.sensorId, sensorRefs.map((s) => s.id)), or(isNull(excursions.endAt), gte(excursions.endAt, new Date(sinceMs)))))
+    .orderBy(asc(excursions.startAt), asc(excursions.id))
+    .all()
+    .map((row) => {
+      const sensor = names.get(row.sensorId) ?? String(row.sensorId);
+      const excursion: UnitExcursion = { sensor, startMs: row.startAtMs, endMs: row.endAtMs, peakTempC: row.peakTempC, peakAtMs: row.peakAtMs };
+      const candidate: WorstCaseCandidate =
+        row.endAtMs === null ? { kind: "excursion", tempC: row.peakTempC, atMs: row.peakAtMs, sensor } : { kind: "excursion", tempC: row.peakTempC, atMs: row.peakAtMs, sensor, ended: true };
+      return { sensorId: row.sensorId, excursion, candidate };
+    });
 }
 
-function openExcursionPeaksBySensor(db: DbOrTx, sensorRefs: SensorRef[]): { sensorId: number; candidate: WorstCaseCandidate }[] {
-  if (sensorRefs.length === 0) return [];
-  return db
-    .select({ sensorId: excursions.sensorId, peakTempC: excursions.peakTempC, peakAtMs: sql<number>`${excursions.peakAt}` })
-    .from(excursions)
-    .where(and(inArray(excursions.sensorId, sensorRefs.map((s) => s.id)), isNull(excursions.endAt)))
-    .all()
-    .map((row) => ({
-      sensorId: row.sensorId,
-      candidate: { kind: "excursion" as const, tempC: row.peakTempC, atMs: row.peakAtMs, sensor: sensorRefs.find((s) => s.id === row.sensorId)?.externalId ?? String(row.sensorId) },
-    }));
+/**
+ * One peak instant everywhere: a highest reading that is an excursion's peak (same sensor, same
+ * temperature) takes that excursion's stored peak_at — its first reading at the peak — rather than
+ * a later reading at the same temperature.
+ */
+function atExcursionPeak<C extends Extract<WorstCaseCandidate, { kind: "reading" }>>(reading: C | null, windowExcursions: readonly WindowExcursion[]): C | null {
+  if (!reading) return null;
+  const peak = windowExcursions.filter((e) => e.excursion.sensor === reading.sensor && e.excursion.peakTempC === reading.tempC).at(-1);
+  return peak ? { ...reading, atMs: peak.excursion.peakAtMs } : reading;
+}
+
+/** A sensor group's highest reading (at its excursion's peak instant when it is one) and its open excursions' peaks. */
+function sensorGroupCandidates(db: DbOrTx, refs: SensorRef[], windowExcursions: readonly WindowExcursion[], sinceMs: number): WorstCaseCandidate[] {
+  if (refs.length === 0) return [];
+  const found: WorstCaseCandidate[] = [];
+  const highest = atExcursionPeak(highestReading(db, refs, sinceMs), windowExcursions);
+  if (highest) found.push(highest);
+  for (const e of windowExcursions) if (e.excursion.endMs === null) found.push(e.candidate);
+  return found;
 }
 
 function roomCandidates(db: DbOrTx, roomId: number, sinceMs: number): WorstCaseCandidate[] | null {
@@ -65,9 +104,7 @@ function roomCandidates(db: DbOrTx, roomId: number, sinceMs: number): WorstCaseC
   const refs = sensorsAt(db, eq(sensors.roomId, roomId));
   const candidates: WorstCaseCandidate[] = [];
   if (room.designMaxTempC != null) candidates.push({ kind: "design", tempC: room.designMaxTempC });
-  const highest = highestReading(db, refs, sinceMs);
-  if (highest) candidates.push(highest);
-  candidates.push(...openExcursionPeaks(db, refs));
+  candidates.push(...sensorGroupCandidates(db, refs, excursionsInWindow(db, refs, sinceMs), sinceMs));
   return candidates;
 }
 
@@ -96,32 +133,33 @@ export type LocationWorstCase = {
 
 /**
  * A storage unit's worst case. A unit with a set range is assessed in control (upper end of its set
- * range, its sensors' highest reading, open excursion peaks) and "control lost" at its room's worst
- * case; a unit without one (shelving, a cabinet) sits at room temperature, so its room's candidates
- * count with its own.
+ * range, its sensors' highest reading outside their excursions) and "control lost" (the higher of
+ * its room's worst case and its highest excursion peak); a unit without one (shelving, a cabinet)
+ * sits at room temperature, so its room's candidates count with its own (and open excursion peaks).
  */
 export function worstCaseForUnit(unitId: number, nowMs = Date.now(), db: DbOrTx = getDb(), roomWorst?: { roomId: number; candidates: WorstCaseCandidate[] }): LocationWorstCase {
-  const unit = db.select({ roomId: storageUnits.roomId, setMaxC: storageUnits.setMaxC }).from(storageUnits).where(eq(storageUnits.id, unitId)).get();
+  const unit = db.select({ id: storageUnits.id, roomId: storageUnits.roomId, setMaxC: storageUnits.setMaxC }).from(storageUnits).where(eq(storageUnits.id, unitId)).get();
   if (!unit) return { inControl: null, controlLost: null, controlled: false };
-  const sinceMs = nowMs - lookBackDays(db) * 86_400_000;
+  const days = lookBackDays(db);
+  const sinceMs = nowMs - days * 86_400_000;
   const refs = sensorsAt(db, eq(sensors.storageUnitId, unitId));
-  const sensorCandidates: WorstCaseCandidate[] = [];
-  const highest = highestReading(db, refs, sinceMs);
-  if (highest) sensorCandidates.push(highest);
-  sensorCandidates.push(...openExcursionPeaks(db, refs));
   const room = roomWorst && roomWorst.roomId === unit.roomId ? roomWorst.candidates : (roomCandidates(db, unit.roomId, sinceMs) ?? []);
-  return unitWorstCase(unit.setMaxC, sensorCandidates, room);
+  return unitWorstCase(db, unit.setMaxC, refs, excursionsInWindow(db, refs, sinceMs), room, sinceMs, days);
 }
 
-/** A unit's worst case from its set range, its own sensors' candidates and its room's candidates. */
-function unitWorstCase(setMaxC: number | null, sensorCandidates: WorstCaseCandidate[], room: WorstCaseCandidate[]): LocationWorstCase {
-  const own: WorstCaseCandidate[] = [];
-  const controlled = setMaxC != null;
-  if (controlled) own.push({ kind: "design", tempC: setMaxC, label: "upper end of the set range" });
-  own.push(...sensorCandidates);
-  if (!controlled) return { inControl: selectWorstCase([...own, ...room]), controlLost: null, controlled };
-  const inControl = selectWorstCase(own);
-  return { inControl, controlLost: controlLostWorstCase(inControl, selectWorstCase(room)), controlled };
+/** A unit's worst case from its set range, its own sensors (with their excursions in the window) and its room's candidates. */
+function unitWorstCase(db: DbOrTx, setMaxC: number | null, refs: SensorRef[], unitExcursions: WindowExcursion[], room: WorstCaseCandidate[], sinceMs: number, days: number): LocationWorstCase {
+  if (setMaxC == null) {
+    return { inControl: selectWorstCase([...sensorGroupCandidates(db, refs, unitExcursions, sinceMs), ...room]), controlLost: null, controlled: false };
+  }
+  const { inControl, controlLost } = controlledUnitWorstCase({
+    setMaxC,
+    highestOutside: highestReading(db, refs, sinceMs, unitExcursions.length > 0),
+    excursions: unitExcursions.map((e) => e.excursion),
+    room: selectWorstCase(room),
+    lookBackDays: days,
+  });
+  return { inControl, controlLost, controlled: true };
 }
 
 /**
@@ -135,7 +173,8 @@ export function worstCasesForRooms(
   roomIds: number[],
   nowMs = Date.now(),
 ): { room(roomId: number): WorstCaseCandidate[]; unit(unit: { id: number; roomId: number; setMaxC: number | null }): LocationWorstCase } {
-  const sinceMs = nowMs - lookBackDays(db) * 86_400_000;
+  const days = lookBackDays(db);
+  const sinceMs = nowMs - days * 86_400_000;
   const roomRows = roomIds.length ? db.select({ id: rooms.id, designMaxTempC: rooms.designMaxTempC }).from(rooms).where(inArray(rooms.id, roomIds)).all() : [];
   const sensorRows = roomIds.length
     ? db
@@ -145,17 +184,12 @@ export function worstCasesForRooms(
         .where(or(inArray(sensors.roomId, roomIds), inArray(storageUnits.roomId, roomIds)))
         .all()
     : [];
-  const peaks = openExcursionPeaksBySensor(db, sensorRows);
-  const sensorCandidates = (refs: SensorRef[]): WorstCaseCandidate[] => {
-    if (refs.length === 0) return [];
-    const found: WorstCaseCandidate[] = [];
-    const highest = highestReading(db, refs, sinceMs);
-    if (highest) found.push(highest);
-    // In the order openExcursionPeaks gives them for these sensors alone.
+  const windowExcursions = excursionsInWindow(db, sensorRows, sinceMs);
+  const excursionsOf = (refs: SensorRef[]): WindowExcursion[] => {
     const ids = new Set(refs.map((r) => r.id));
-    for (const peak of peaks) if (ids.has(peak.sensorId)) found.push(peak.candidate);
-    return found;
+    return windowExcursions.filter((e) => ids.has(e.sensorId));
   };
+  const sensorCandidates = (refs: SensorRef[]): WorstCaseCandidate[] => sensorGroupCandidates(db, refs, excursionsOf(refs), sinceMs);
   const roomCandidatesById = new Map<number, WorstCaseCandidate[]>();
   for (const row of roomRows) {
     const candidates: WorstCaseCandidate[] = [];
@@ -173,7 +207,10 @@ export function worstCasesForRooms(
   const roomOf = (roomId: number) => roomCandidatesById.get(roomId) ?? roomCandidates(db, roomId, sinceMs) ?? [];
   return {
     room: roomOf,
-    unit: (unit) => unitWorstCase(unit.setMaxC, sensorCandidates(unitSensors.get(unit.id) ?? []), roomOf(unit.roomId)),
+    unit: (unit) => {
+      const refs = unitSensors.get(unit.id) ?? [];
+      return unitWorstCase(db, unit.setMaxC, refs, excursionsOf(refs), roomOf(unit.roomId), sinceMs, days);
+    },
   };
 }
 
@@ -206,18 +243,41 @@ export type ExcursionFilter = {
   inRoomId?: number;
   storageUnitId?: number;
   open?: boolean;
+  /** Not acknowledged yet, ended or not. */
+  awaitingAcknowledgement?: boolean;
+  /** Acknowledged (true) or not (false). */
+  acknowledged?: boolean;
   limit?: number;
 };
 
-/** Excursions newest first, open ones first. */
-export function listExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): ExcursionRow[] {
-  const unitRoom = alias(rooms, "unit_room");
+function excursionConditions(filter: ExcursionFilter): SQL[] {
   const conditions: SQL[] = [];
   if (filter.sensorId != null) conditions.push(eq(excursions.sensorId, filter.sensorId));
   if (filter.roomId != null) conditions.push(eq(excursions.roomId, filter.roomId));
   if (filter.storageUnitId != null) conditions.push(eq(excursions.storageUnitId, filter.storageUnitId));
   if (filter.inRoomId != null) conditions.push(or(eq(excursions.roomId, filter.inRoomId), eq(storageUnits.roomId, filter.inRoomId))!);
   if (filter.open) conditions.push(isNull(excursions.endAt));
+  if (filter.awaitingAcknowledgement || filter.acknowledged === false) conditions.push(isNull(excursions.acknowledgedAt));
+  if (filter.acknowledged === true) conditions.push(isNotNull(excursions.acknowledgedAt));
+  return conditions;
+}
+
+/** How many excursions match (the list itself stops at its limit). */
+export function countExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): number {
+  const conditions = excursionConditions(filter);
+  const row = db
+    .select({ n: sql<number>`count(*)` })
+    .from(excursions)
+    .leftJoin(storageUnits, eq(storageUnits.id, excursions.storageUnitId))
+    .where(conditions.length ? and(...conditions) : undefined)
+    .get();
+  return row?.n ?? 0;
+}
+
+/** Excursions newest first, open ones first. */
+export function listExcursions(filter: ExcursionFilter = {}, db: DbOrTx = getDb()): ExcursionRow[] {
+  const unitRoom = alias(rooms, "unit_room");
+  const conditions = excursionConditions(filter);
   const lastReadingAt = sql<number | null>`(select max(${readings.at}) from ${readings} where ${readings.sensorId} = ${excursions.sensorId})`;
   const rows = db
     .select({

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { listQuerySchema } from "@/lib/http/list-query";
-import { optionalId, requiredText, yesNo } from "@/lib/validation/fields";
+import { optionalId, optionalText, requiredId, requiredText, yesNo } from "@/lib/validation/fields";
 import { parseOffsetInstant } from "./plausible";
 
 const deviceId = () => requiredText("Device id", 100).regex(/^[\x21-\x7E]+$/, "A device id uses printable characters without spaces.");
@@ -122,6 +122,7 @@ export const excursionListQuerySchema = z.object({
   inRoomId: optionalId("room"),
   storageUnitId: optionalId("storage unit"),
   open: z.enum(["true", "false"], { error: "open is true or false." }).optional(),
+  awaitingAcknowledgement: z.enum(["true", "false"], { error: "awaitingAcknowledgement is true or false." }).optional(),
   limit: z.coerce.number({ error: "limit is a whole number from 1 to 1000." }).int("limit is a whole number from 1 to 1000.").min(1, "limit is a whole number from 1 to 1000.").max(1000, "limit is a whole number from 1 to 1000.").optional(),
 });
 
@@ -129,3 +130,22 @@ export const excursionListQuerySchema = z.object({
 export const excursionAcknowledgeFormSchema = excursionAcknowledgeSchema.extend({
   excursionId: z.coerce.number({ error: "Choose an excursion." }).int("Choose an excursion.").positive("Choose an excursion."),
 });
+
+/** Excursions to acknowledge together: one id or a list (a form sends one id per ticked box). */
+const excursionIdList = z.preprocess(
+  (value) => (value == null || value === "" ? [] : Array.isArray(value) ? value : [value]),
+  z
+    .array(requiredId("excursion"), { error: "Give the excursions as a list of ids." })
+    .min(1, "Tick at least one excursion.")
+    .max(500, "Acknowledge at most 500 excursions at once."),
+);
+
+/** `POST /api/v1/excursions/acknowledge`: several excursions, one optional note. */
+export const excursionsAcknowledgeSchema = z.object({
+  excursionIds: excursionIdList,
+  note: optionalText("Note", 2000),
+});
+export type ExcursionsAcknowledgeInput = z.output<typeof excursionsAcknowledgeSchema>;
+
+/** The page's form: the ticked excursions and one note for all of them. */
+export const excursionsAcknowledgeFormSchema = excursionsAcknowledgeSchema;

@@ -195,6 +195,13 @@ export function readingSeries(sensorId: number, window: { fromMs?: number; toMs?
     .orderBy(asc(excursions.startAt))
     .all();
 
+  // One peak instant everywhere: where the window's highest reading is an excursion's stored peak,
+  // the summary names that excursion's peak_at (its first reading at that temperature), not a later tie.
+  const peakExcursion = overlapping
+    .filter((e) => stats.maxC != null && e.peakTempC === stats.maxC && e.peakAt.getTime() >= fromMs && e.peakAt.getTime() <= toMs)
+    .at(-1);
+  if (peakExcursion) stats.maxAtMs = peakExcursion.peakAt.getTime();
+
   return {
     sensor,
     location,

@@ -83,7 +83,7 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   expect(workbook.worksheets.map((s) => s.name)).toEqual(["Summary", "Findings", "Finding traces", "Trace sources", "Inventory", "Locations", "Excursions", "Substances", "Methods and cautions"]);
   const sheet = workbook.getWorksheet("Findings")!;
   const headers = (sheet.getRow(1).values as unknown[]).slice(1);
-  for (const header of ["Severity", "Status", "Rule", "Value", "Limit", "Ratio (value ÷ limit)", "Value unit", "Worst case (°C)", "Worst-case source"]) expect(headers).toContain(header);
+  for (const header of ["Severity", "Status", "Rule", "Value", "Limit", "Value ÷ limit (%)", "Value unit", "Worst case (°C)", "Worst-case source"]) expect(headers).toContain(header);
   const col = (name: string) => headers.indexOf(name) + 1;
   // One finding's numbers against the API's.
   const api = await getJson<{ data: { id: number; value: number; limit: number; ratio: number; worstCaseTempC: number }[] }>(page, "/api/v1/findings?rule=enclosure-lfl&status=all&pageSize=1");
@@ -92,9 +92,12 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   sheet.eachRow((row, n) => {
     if (n === 1 || row.getCell(col("Finding ID")).value !== expected.id) return;
     found = true;
-    expect(row.getCell(col("Value")).value).toBeCloseTo(expected.value, 6);
-    expect(row.getCell(col("Limit")).value).toBeCloseTo(expected.limit, 6);
-    expect(row.getCell(col("Ratio (value ÷ limit)")).value).toBeCloseTo(expected.ratio, 6);
+    // Three significant figures, as the register shows them; the ratio with a percent format.
+    const sf3 = (v: number) => Number(v.toPrecision(3));
+    expect(row.getCell(col("Value")).value).toBe(sf3(expected.value));
+    expect(row.getCell(col("Limit")).value).toBe(sf3(expected.limit));
+    expect(row.getCell(col("Value ÷ limit (%)")).value).toBe(sf3(expected.ratio));
+    expect(row.getCell(col("Value ÷ limit (%)")).numFmt).toBe("#,##0%");
     expect(row.getCell(col("Worst case (°C)")).value).toBeCloseTo(expected.worstCaseTempC, 6);
   });
   expect(found).toBe(true);

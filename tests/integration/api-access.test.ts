@@ -80,6 +80,7 @@ const ROUTES: Entry[] = [
   { file: "sensors/[id]/csv-uploads/[token]/import/route.ts", method: "POST", path: "/api/v1/sensors/999/csv-uploads/0123456789abcdef0123456789abcdef/import", action: "readings.upload", params: { id: "999", token: "0123456789abcdef0123456789abcdef" }, body: {} },
   { file: "excursions/route.ts", method: "GET", path: "/api/v1/excursions", action: "temperatures.read" },
   { file: "excursions/[id]/acknowledge/route.ts", method: "POST", path: "/api/v1/excursions/999/acknowledge", action: "excursions.acknowledge", params: { id: "999" }, body: {} },
+  { file: "excursions/acknowledge/route.ts", method: "POST", path: "/api/v1/excursions/acknowledge", action: "excursions.acknowledge", body: {} },
   { file: "findings/route.ts", method: "GET", path: "/api/v1/findings", action: "findings.read" },
   { file: "findings/[id]/route.ts", method: "GET", path: "/api/v1/findings/999", action: "findings.read", params: { id: "999" } },
   { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },

@@ -107,22 +107,27 @@ describe("re-assessing rooms whose inputs have not changed", () => {
 });
 
 describe("a refrigerator that fails", () => {
-  it("raises its in-control findings at the excursion's peak as the readings arrive", () => {
+  it("keeps its in-control findings out of the excursion and raises its control-lost findings to the peak as the readings arrive", () => {
     const xr1 = unitId("XR-1");
     const sensor = getDb().select().from(sensors).where(eq(sensors.storageUnitId, xr1)).get()!;
-    const inControl = () => getDb().select().from(findings).where(and(eq(findings.storageUnitId, xr1), eq(findings.scenario, "in_control"), eq(findings.rule, "enclosure-lfl"))).all();
-    const before = new Map(inControl().map((f) => [f.fingerprint, f.worstCaseTempC]));
+    const ofScenario = (scenario: "in_control" | "control_lost") =>
+      getDb().select().from(findings).where(and(eq(findings.storageUnitId, xr1), eq(findings.scenario, scenario), eq(findings.rule, "enclosure-lfl"))).all();
+    const before = new Map(ofScenario("in_control").map((f) => [f.fingerprint, f.worstCaseTempC]));
     // After the demo's readings (which run up to now): the server's clock is set four hours on.
     const start = Date.now() + 60_000;
-    const batch = Array.from({ length: 24 }, (_, i) => ({ sensor: sensor.externalId, at: new Date(start + i * 10 * 60_000).toISOString(), tempC: Math.min(24, 5 + i * 1.5) }));
+    const batch = Array.from({ length: 24 }, (_, i) => ({ sensor: sensor.externalId, at: new Date(start + i * 10 * 60_000).toISOString(), tempC: Math.min(34, 5 + i * 1.5) }));
     const result = ingestReadings(batch, { nowMs: start + 24 * 10 * 60_000 });
     expect(result.excursions.opened).toBe(1);
-    const after = inControl();
-    expect(after.length).toBeGreaterThan(0);
-    for (const f of after) {
-      expect(f.worstCaseTempC).toBe(24);
-      expect(f.worstCaseSource).toMatch(new RegExp(`sensor ${sensor.externalId}`));
-      expect(f.worstCaseTempC!).toBeGreaterThan(before.get(f.fingerprint) ?? -Infinity);
+    const inControl = ofScenario("in_control");
+    for (const f of inControl) {
+      expect(f.worstCaseTempC).toBe(before.get(f.fingerprint));
+      expect(f.worstCaseSource).toMatch(/excluded: they count as control lost|are excluded \(they count as control lost\)/);
+    }
+    const lost = ofScenario("control_lost");
+    expect(lost.length).toBeGreaterThan(0);
+    for (const f of lost) {
+      expect(f.worstCaseTempC).toBe(34); // the open excursion's peak, above the room's worst case
+      expect(f.worstCaseSource).toMatch(new RegExp(`^34.0 °C, peak of the open excursion on sensor ${sensor.externalId}`));
     }
   });
 });

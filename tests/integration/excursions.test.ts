@@ -2,7 +2,7 @@
  * Stored excursions: detection after every ingest, closing, merging, acknowledgement, the alert
  * e-mails (who gets them, preferences, idempotency) and the worst-case temperature queries.
  */
-import { beforeAll, describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditEvents, emailMessages, excursions, rooms, sensors, sites, storageUnits, type User } from "@/db/schema";
@@ -167,12 +167,52 @@ describe("worst-case temperatures", () => {
     expect(room.description).toBe("33.0 °C, reading of 2026-03-06 17:10 UTC from sensor T-AMB");
   });
 
-  it("assesses a refrigerator in control at its highest reading and control lost at the room's worst case", () => {
+  it("assesses a refrigerator in control at its highest reading outside its excursions and control lost at the room's worst case", () => {
     const unit = worstCaseForUnit(unitId, now);
     expect(unit.controlled).toBe(true);
-    expect(unit.inControl!.description).toBe("17.0 °C, reading of 2026-03-06 19:40 UTC from sensor T-FR");
-    expect(unit.controlLost!.tempC).toBe(33);
+    // 17.0 °C (19:40) and 10 °C fell inside the two excursions; the 10-minute door spike to 11 °C was no excursion.
+    expect(unit.inControl!.tempC).toBe(11);
+    expect(unit.inControl!.description).toBe(
+      "11.0 °C, highest reading in the last 365 days outside 2 excursions (excluded: they count as control lost), 2026-03-06 17:15 UTC from sensor T-FR",
+    );
+    expect(unit.controlLost!.tempC).toBe(33); // the room's 33 °C is above both peaks (17 °C, 10 °C)
     expect(unit.controlLost!.description).toMatch(/room's worst case, as if the unit had failed/);
+  });
+
+  it("after an acknowledged, ended excursion: in control leaves its readings out, control lost takes its peak", async () => {
+    const db = getDb();
+    const coolRoom = db.insert(rooms).values({ siteId: db.select().from(sites).get()!.id, code: "T-2", name: "Test store", designMaxTempC: 20 }).returning().get();
+    const fsr = db
+      .insert(storageUnits)
+      .values({ roomId: coolRoom.id, code: "FSR-T", name: "Test flammable-storage refrigerator", kind: "flammable_storage_refrigerator", setMinC: 2, setMaxC: 8, excursionThresholdC: 8, excursionMinDurationMin: 30 })
+      .returning()
+      .get();
+    db.insert(sensors).values({ externalId: "T-FSR", name: "Store fridge logger", storageUnitId: fsr.id }).run();
+    // Thirty days before T0 (outside the digest's day): 4–7.9 °C, a 35-minute failure peaking at 21.7 °C, back to 4 °C.
+    ingestReadings(series("T-FSR", -30 * 1440, [4, 4.2, 7.9, 5, 9, 14, 18.5, 21.7, 20.2, 15, 9, 5, 4.1]));
+    const [weekend] = getDb().select().from(excursions).where(eq(excursions.storageUnitId, fsr.id)).all();
+    expect(weekend).toMatchObject({ peakTempC: 21.7 });
+    expect(weekend.endAt!.toISOString()).toBe(at(-30 * 1440 + 55));
+    const cookie = await sessionCookieFor(contact);
+    const ack = await call(acknowledgeRoute.POST, { method: "POST", params: { id: String(weekend.id) }, body: { comment: "Compressor replaced." }, cookie });
+    expect(ack.status).toBe(200);
+
+    const unit = worstCaseForUnit(fsr.id, now);
+    expect(unit.inControl!.tempC).toBe(8); // the set range's upper end is above the 7.9 °C reading outside the excursion
+    expect(unit.inControl!.description).toBe(
+      "8.0 °C, upper end of the set range; the readings inside 1 excursion in the last 365 days are excluded (they count as control lost)",
+    );
+    expect(unit.controlLost!.tempC).toBe(21.7);
+    expect(unit.controlLost!.description).toBe(
+      "21.7 °C, peak of the excursion on sensor T-FSR (2026-02-04 17:35 UTC, ended), the highest of the unit's excursions in the last 365 days; above the room's worst case of 20.0 °C",
+    );
+    // A set range below the reading: the 7.9 °C reading outside the excursion is in control, 21.7 °C never is.
+    db.update(storageUnits).set({ setMaxC: 6 }).where(eq(storageUnits.id, fsr.id)).run();
+    const lower = worstCaseForUnit(fsr.id, now);
+    expect(lower.inControl!.description).toBe(
+      "7.9 °C, highest reading in the last 365 days outside 1 excursion (excluded: they count as control lost), 2026-02-04 17:10 UTC from sensor T-FSR",
+    );
+    db.update(storageUnits).set({ setMaxC: 8 }).where(eq(storageUnits.id, fsr.id)).run();
   });
 
   it("drops readings older than the look-back window and falls back to the upper end of the set range", () => {
@@ -183,10 +223,11 @@ describe("worst-case temperatures", () => {
 });
 
 describe("daily digest", () => {
-  it("queues one digest per person and day after 07:00 UTC, with the excursions of their locations, and none for those who switched excursions off", async () => {
+  it("queues one digest per person and day at 07:00 UTC, with the excursions of their locations, and none for those who switched excursions off", async () => {
     const { queueDailyDigests } = await import("@/lib/alerts/digest");
     expect(queueDailyDigests(Date.parse("2026-03-07T06:59:00Z"))).toBe(0);
-    queueDailyDigests(Date.parse("2026-03-07T08:10:00Z"));
+    expect(queueDailyDigests(Date.parse("2026-03-07T07:02:01Z"))).toBe(0); // more than two minutes late: not under the 07:00 label
+    queueDailyDigests(Date.parse("2026-03-07T07:00:30Z"));
     const digestOf = (user: User) => alertsTo(user).filter((m) => m.kind === "daily_digest");
     for (const user of [officer, digestOfficer, contact, owner]) {
       const [digest] = digestOf(user);
@@ -195,8 +236,45 @@ describe("daily digest", () => {
     }
     expect(digestOf(quietOfficer)).toHaveLength(0);
     expect(digestOf(researcher)).toHaveLength(0); // responsible for nothing
+    expect(queueDailyDigests(Date.parse("2026-03-07T07:01:00Z"))).toBe(0); // once a day
     expect(queueDailyDigests(Date.parse("2026-03-07T12:00:00Z"))).toBe(0);
     expect(digestOf(officer)).toHaveLength(1);
+  });
+
+  it("sends each digest at its hour by the timer: not on a start at 12:19, at 07:00 the next day, once; a restart at 07:01 catches up", async () => {
+    const { startDigestJob, stopDigestJob } = await import("@/lib/alerts/digest");
+    const sensorId = getDb().select().from(sensors).where(eq(sensors.externalId, "T-FR")).get()!.id;
+    // An open, unacknowledged excursion: every day's digest has something to say.
+    getDb()
+      .insert(excursions)
+      .values({ sensorId, storageUnitId: unitId, thresholdC: 8, startAt: new Date("2026-03-08T10:00:00Z"), peakTempC: 12.5, peakAt: new Date("2026-03-08T10:40:00Z") })
+      .run();
+    const digestsOf = (user: User) => alertsTo(user).filter((m) => m.kind === "daily_digest");
+    vi.useFakeTimers({ toFake: ["setTimeout", "clearTimeout", "setInterval", "clearInterval", "Date"] });
+    try {
+      vi.setSystemTime(new Date("2026-03-08T12:19:00Z"));
+      startDigestJob();
+      expect(digestsOf(officer).map((m) => m.subject)).toEqual(["Headroom daily digest, 2026-03-07 07:00 UTC"]);
+      await vi.advanceTimersByTimeAsync(Date.parse("2026-03-09T06:59:59Z") - Date.now());
+      expect(digestsOf(officer)).toHaveLength(1);
+      await vi.advanceTimersByTimeAsync(1_000); // 07:00:00
+      const sent = digestsOf(officer);
+      expect(sent.map((m) => m.subject)).toEqual(["Headroom daily digest, 2026-03-07 07:00 UTC", "Headroom daily digest, 2026-03-09 07:00 UTC"]);
+      expect(sent[1].text).toContain("open since 2026-03-08 10:00 UTC, not acknowledged, peak 12.5 °C");
+      await vi.advanceTimersByTimeAsync(6 * 3_600_000);
+      expect(digestsOf(officer)).toHaveLength(2);
+      stopDigestJob();
+      vi.setSystemTime(new Date("2026-03-10T07:01:00Z"));
+      startDigestJob();
+      startDigestJob(); // started twice: one timer, one digest
+      expect(digestsOf(officer).map((m) => m.subject).at(-1)).toBe("Headroom daily digest, 2026-03-10 07:00 UTC");
+      expect(digestsOf(officer)).toHaveLength(3);
+      await vi.advanceTimersByTimeAsync(10 * 60_000);
+      expect(digestsOf(officer)).toHaveLength(3);
+    } finally {
+      stopDigestJob();
+      vi.useRealTimers();
+    }
   });
 });
 

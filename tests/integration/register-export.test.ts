@@ -85,7 +85,15 @@ beforeAll(() => {
     })
     .returning()
     .get().id;
-  db.insert(exposureLimits).values({ substanceId, kind: "TWA", value: 400, unit: "ppm", body: "TESTBODY", source: "invented limit source" }).run();
+  db.insert(exposureLimits)
+    .values([
+      { substanceId, kind: "TWA", value: 400, unit: "ppm", body: "TESTBODY", source: "invented limit source" },
+      // 1,200 mg/m³ × 24.45 / 74.12 g/mol = 396 ppm: the lower TWA, so it takes the TWA columns.
+      { substanceId, kind: "TWA", value: 1200, unit: "mg/m3", body: "OTHERBODY", source: "invented second source" },
+      { substanceId, kind: "STEL", value: 500, unit: "ppm", body: "TESTBODY", source: "invented STEL source", note: "15 min" },
+      { substanceId, kind: "IDLH", value: 1900, unit: "ppm", body: "TESTBODY", source: "invented IDLH source", note: "[10%LEL]" },
+    ])
+    .run();
   const containerId = db
     .insert(containers)
     .values({
@@ -117,9 +125,9 @@ beforeAll(() => {
       storageUnitId: unitId,
       containerId,
       substanceId,
-      value: 210,
+      value: 209.83741526,
       limitValue: 100,
-      ratio: 2.1,
+      ratio: 2.0983741526,
       unit: "% LFL",
       worstCaseTempC: 28,
       worstCaseSource: "28.0 °C, design maximum (the room's worst case, as if the unit had failed)",
@@ -229,14 +237,14 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     }
     expect(headers(workbook.getWorksheet("Findings")!)).toEqual([
       "Finding ID", "Severity", "Status", "Rule", "Scenario", "Title", "Site", "Room", "Storage unit", "Container",
-      "Substance or mixture", "CAS number", "Value", "Limit", "Ratio (value ÷ limit)", "Value unit", "Worst case (°C)",
+      "Substance or mixture", "CAS number", "Value", "Limit", "Value ÷ limit (%)", "Value unit", "Worst case (°C)",
       "Worst-case source", "First raised (UTC)", "Last evaluated (UTC)", "Resolved (UTC)", "Assignee", "Mitigation plan",
       "Risk accepted until (UTC)", "Fingerprint",
     ]);
     expect(headers(workbook.getWorksheet("Inventory")!)).toEqual(expect.arrayContaining(["Container", "Amount", "Amount unit", "Received (UTC)"]));
     expect(headers(workbook.getWorksheet("Locations")!)).toEqual(expect.arrayContaining(["Room volume (m³)", "Unit internal volume (L)", "Worst case, in control (°C)", "Control lost (°C)"]));
     expect(headers(workbook.getWorksheet("Excursions")!)).toEqual(expect.arrayContaining(["Threshold (°C)", "Start (UTC)", "Duration (min)", "Peak (°C)"]));
-    expect(headers(workbook.getWorksheet("Substances")!)).toEqual(expect.arrayContaining(["Molar mass M (g/mol)", "Molar mass source", "LFL (% vol)", "Exposure limit value"]));
+    expect(headers(workbook.getWorksheet("Substances")!)).toEqual(expect.arrayContaining(["Molar mass M (g/mol)", "Molar mass source", "LFL (% vol)", "TWA", "TWA unit", "TWA issuing body", "TWA source", "STEL", "Ceiling", "IDLH", "Further exposure limits"]));
     const filter = workbook.getWorksheet("Findings")!.autoFilter as unknown as string;
     expect(String(typeof filter === "string" ? filter : JSON.stringify(filter))).toMatch(/A1/);
   });
@@ -244,10 +252,13 @@ describe("GET /api/v1/exports/register.xlsx", () => {
   it("writes one finding's numbers as numbers and its times as dates", () => {
     const row = rowsOf(workbook.getWorksheet("Findings")!).find((r) => r["Finding ID"].value === findingId)!;
     expect(row).toBeDefined();
-    for (const [key, expected] of [["Value", 210], ["Limit", 100], ["Ratio (value ÷ limit)", 2.1], ["Worst case (°C)", 28]] as const) {
+    // Stored 209.83741526 % LFL and a ratio of 2.0983741526: three significant figures, still numbers.
+    for (const [key, expected] of [["Value", 210], ["Limit", 100], ["Value ÷ limit (%)", 2.1], ["Worst case (°C)", 28]] as const) {
       expect(row[key].type).toBe(ExcelJS.ValueType.Number);
       expect(row[key].value).toBe(expected);
     }
+    expect(row["Value ÷ limit (%)"].numFmt).toBe("#,##0%"); // Excel shows 2.1 as 210 %
+    expect(row["Rule"].value).toBe("Vapor in a closed unit or unventilated room as a fraction of the LFL");
     expect(row["Value unit"].value).toBe("% LFL");
     expect(row["Severity"].value).toBe("Critical");
     expect(row["Status"].value).toBe("Mitigating");
@@ -311,7 +322,9 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     const unit = locations.find((r) => r["Storage unit"].value === "FR-1")!;
     expect(unit["Unit internal volume (L)"].value).toBe(150);
     expect(unit["Worst case, in control (°C)"].value).toBe(8); // upper end of the set range
-    expect(unit["Worst-case source"].value).toBe("8.0 °C, upper end of the set range");
+    expect(unit["Worst-case source"].value).toBe(
+      "8.0 °C, upper end of the set range; the readings inside 1 excursion in the last 365 days are excluded (they count as control lost)",
+    );
     expect(unit["Control lost (°C)"].value).toBe(28); // the room's design maximum
     expect(String(unit["Control-lost source"].value)).toContain("as if the unit had failed");
 
@@ -330,8 +343,18 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     expect(substance["Flash point source"].value).toBe("invented: flash point source");
     expect(substance["A (or C1)"].value).toBe(6.1);
     expect(substance["Vapor-pressure equation"].value).toBe("Antoine: log10(P/kPa) = A − B/(t/°C + C)");
-    expect(substance["Exposure limit value"].value).toBe(400);
-    expect(substance["Issuing body"].value).toBe("TESTBODY");
+    // One row per substance, its limits in columns: the lower TWA (1,200 mg/m³ ≈ 396 ppm) in the TWA columns, the other listed.
+    expect(rowsOf(workbook.getWorksheet("Substances")!)).toHaveLength(1);
+    expect(substance["TWA"].value).toBe(1200);
+    expect(substance["TWA unit"].value).toBe("mg/m³");
+    expect(substance["TWA issuing body"].value).toBe("OTHERBODY");
+    expect(substance["TWA source"].value).toBe("invented second source");
+    expect(substance["STEL"].value).toBe(500);
+    expect(substance["STEL source"].value).toBe("invented STEL source (15 min)");
+    expect(substance["Ceiling"].value).toBeNull();
+    expect(substance["IDLH"].value).toBe(1900);
+    expect(substance["IDLH unit"].value).toBe("ppm");
+    expect(substance["Further exposure limits"].value).toBe("TWA TESTBODY 400 ppm (invented limit source)");
   });
 
   it("states the counts, the caution and the methods", () => {
@@ -449,7 +472,9 @@ describe("the Locations sheet's worst cases", () => {
     // The values themselves (from the readings and excursion inserted above):
     expect(book.room(hot)?.tempC).toBe(31);
     expect(book.room(hot)?.description).toContain("T-ROOM-B");
-    expect(book.unit(fridge).inControl?.tempC).toBe(12);
+    // The 9.5 °C reading lies inside the open excursion: in control keeps the set range's 8 °C;
+    // control lost is the higher of the room's 31 °C and the excursion's 12 °C peak.
+    expect(book.unit(fridge).inControl?.tempC).toBe(8);
     expect(book.unit(fridge).controlLost?.tempC).toBe(31);
     expect(book.unit(shelf).inControl?.tempC).toBe(31);
     expect(book.room(bare)).toBeNull();

@@ -3,8 +3,8 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { formAction } from "@/lib/auth/form-action";
 import { DomainError, ValidationError } from "@/lib/errors";
-import { acknowledgeExcursion } from "@/lib/temperatures/excursion-store";
-import { excursionAcknowledgeFormSchema, sensorCreateFormSchema, sensorEditFormSchema, splitLocation } from "@/lib/temperatures/schemas";
+import { acknowledgeExcursion, acknowledgeExcursions } from "@/lib/temperatures/excursion-store";
+import { excursionAcknowledgeFormSchema, excursionsAcknowledgeFormSchema, sensorCreateFormSchema, sensorEditFormSchema, splitLocation } from "@/lib/temperatures/schemas";
 import { createSensor, updateSensor } from "@/lib/temperatures/sensors";
 
 /** The forms pick the location in one field; the service names roomId or storageUnitId. */
@@ -41,4 +41,18 @@ export const acknowledgeExcursionAction = formAction({ action: "excursions.ackno
   revalidatePath("/temperatures", "layout");
   revalidatePath("/locations", "layout");
   return `Acknowledged the excursion that started ${excursion.startAt.toISOString().slice(0, 16).replace("T", " ")} UTC.`;
+});
+
+export const acknowledgeExcursionsAction = formAction({ action: "excursions.acknowledge", schema: excursionsAcknowledgeFormSchema }, async ({ user, input }) => {
+  const outcomes = acknowledgeExcursions(user, input.excursionIds, input.note ?? null);
+  revalidatePath("/temperatures", "layout");
+  revalidatePath("/locations", "layout");
+  revalidatePath("/");
+  const done = outcomes.filter((o) => o.ok).length;
+  const refused = outcomes.filter((o) => !o.ok);
+  const doneText = `Acknowledged ${done} excursion${done === 1 ? "" : "s"}.`;
+  if (refused.length === 0) return doneText;
+  const reasons = [...new Set(refused.map((o) => o.error))].join(" ");
+  if (done === 0) throw new ValidationError(`None of the ticked excursions was acknowledged: ${reasons}`);
+  return `${doneText} ${refused.length} could not be: ${reasons}`;
 });

@@ -44,10 +44,13 @@ export function ExcursionList({
   showSensor = true,
   showLocation = true,
   chartLinks = false,
+  selectFormId,
   emptyText = "No excursions recorded.",
 }: {
   rows: ExcursionRow[];
   mayAcknowledge: boolean;
+  /** Each excursion not yet acknowledged gets a checkbox belonging to this form (acknowledge several at once). */
+  selectFormId?: string;
   showSensor?: boolean;
   showLocation?: boolean;
   chartLinks?: boolean;
@@ -63,50 +66,62 @@ export function ExcursionList({
         const summaryId = `excursion-${row.id}-summary`;
         return (
           <li key={row.id} className={`grid gap-3 px-4 py-3 md:grid-cols-[minmax(0,1fr)_minmax(16rem,22rem)] ${open ? "border-l-4 border-sev-high bg-sev-high-bg/60 pl-3" : ""}`}>
-            <div className="tabular space-y-1 text-sm">
-              <p id={summaryId} className="flex flex-wrap items-center gap-x-2 gap-y-1">
-                {open ? (
-                  <span className="inline-flex items-center gap-1 rounded border border-sev-high/40 bg-white px-1.5 py-0.5 text-xs font-semibold text-sev-high">
-                    <TriangleAlert aria-hidden="true" className="size-3.5" strokeWidth={2.25} />
-                    Open
-                  </span>
-                ) : (
-                  <span className="inline-flex items-center gap-1 rounded border border-ink-200 bg-white px-1.5 py-0.5 text-xs font-medium text-ink-700">
-                    <CircleCheck aria-hidden="true" className="size-3.5" />
-                    Ended
-                  </span>
-                )}
-                <span className="font-semibold text-ink-950">Peak {formatTempC(row.peakTempC)}</span>
-                <span className="text-ink-700">
-                  above {formatTempC(row.thresholdC)} for {formatDurationMin(row.durationMin)}
-                  {open ? " so far" : ""}
-                </span>
-                {showSensor ? (
+            <div className="tabular flex gap-3 text-sm">
+              {selectFormId && mayAcknowledge && !row.acknowledgedAt ? (
+                <input
+                  type="checkbox"
+                  name="excursionIds"
+                  value={row.id}
+                  form={selectFormId}
+                  aria-label={`Select the excursion on sensor ${row.sensorExternalId} that started ${formatDateTime(row.startAt)}`}
+                  className="mt-1 size-4 shrink-0 accent-accent-700"
+                />
+              ) : null}
+              <div className="min-w-0 space-y-1">
+                <p id={summaryId} className="flex flex-wrap items-center gap-x-2 gap-y-1">
+                  {open ? (
+                    <span className="inline-flex items-center gap-1 rounded border border-sev-high/40 bg-white px-1.5 py-0.5 text-xs font-semibold text-sev-high">
+                      <TriangleAlert aria-hidden="true" className="size-3.5" strokeWidth={2.25} />
+                      Open
+                    </span>
+                  ) : (
+                    <span className="inline-flex items-center gap-1 rounded border border-ink-200 bg-white px-1.5 py-0.5 text-xs font-medium text-ink-700">
+                      <CircleCheck aria-hidden="true" className="size-3.5" />
+                      Ended
+                    </span>
+                  )}
+                  <span className="font-semibold text-ink-950">Peak {formatTempC(row.peakTempC)}</span>
                   <span className="text-ink-700">
-                    · sensor{" "}
-                    <Link href={`/temperatures/sensors/${row.sensorId}`} className="font-mono text-accent-800 hover:underline">
-                      {row.sensorExternalId}
-                    </Link>
+                    above {formatTempC(row.thresholdC)} for {formatDurationMin(row.durationMin)}
+                    {open ? " so far" : ""}
                   </span>
-                ) : null}
-                {showLocation ? (
-                  <span className="text-ink-700">
-                    · <Location row={row} />
-                  </span>
-                ) : null}
-              </p>
-              <p className="text-xs text-ink-600">
-                Started {formatDateTime(row.startAt)} · {open ? "still above the threshold at the latest reading" : `ended ${formatDateTime(row.endAt)}`} · peak at {formatDateTime(row.peakAt)}
-                {chartLinks ? (
-                  <>
-                    {" "}
-                    ·{" "}
-                    <Link href={excursionWindowHref(row, nowMs)} className="whitespace-nowrap font-medium text-accent-800 hover:underline">
-                      Show on the chart
-                    </Link>
-                  </>
-                ) : null}
-              </p>
+                  {showSensor ? (
+                    <span className="text-ink-700">
+                      · sensor{" "}
+                      <Link href={`/temperatures/sensors/${row.sensorId}`} className="font-mono text-accent-800 hover:underline">
+                        {row.sensorExternalId}
+                      </Link>
+                    </span>
+                  ) : null}
+                  {showLocation ? (
+                    <span className="text-ink-700">
+                      · <Location row={row} />
+                    </span>
+                  ) : null}
+                </p>
+                <p className="text-xs text-ink-600">
+                  Started {formatDateTime(row.startAt)} · {open ? "still above the threshold at the latest reading" : `ended ${formatDateTime(row.endAt)}`} · peak at {formatDateTime(row.peakAt)}
+                  {chartLinks ? (
+                    <>
+                      {" "}
+                      ·{" "}
+                      <Link href={excursionWindowHref(row, nowMs)} className="whitespace-nowrap font-medium text-accent-800 hover:underline">
+                        Show on the chart
+                      </Link>
+                    </>
+                  ) : null}
+                </p>
+              </div>
             </div>
             <div className="text-sm">
               {row.acknowledgedAt ? (

@@ -86,8 +86,16 @@ export function LocationTemperatureCard({ user, location }: { user: SessionUser;
   if (onUnit) {
     const unit = worstCaseForUnit(location.storageUnitId);
     if (unit.controlled) {
-      blocks.push({ title: "In control", note: `The unit working: the upper end of its set range, its sensors' highest reading in the last ${days} days and any open excursion.`, worstCase: unit.inControl });
-      blocks.push({ title: "Control lost (room's worst case)", note: "As if the unit had failed and warmed up to its room.", worstCase: unit.controlLost });
+      blocks.push({
+        title: "In control",
+        note: `The unit working: the upper end of its set range and its sensors' highest reading in the last ${days} days outside its excursions (those count as control lost).`,
+        worstCase: unit.inControl,
+      });
+      blocks.push({
+        title: "Control lost",
+        note: `The higher of its room's worst case (as if the unit had failed and warmed up to the room) and the highest peak of its excursions in the last ${days} days.`,
+        worstCase: unit.controlLost,
+      });
     } else {
       blocks.push({ title: "Worst case", note: `Not temperature-controlled, so at room temperature: the room's values and the unit's own readings in the last ${days} days.`, worstCase: unit.inControl });
     }

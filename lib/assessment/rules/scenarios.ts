@@ -1,7 +1,9 @@
 /**
  * The scenarios of a location with their worst-case temperatures: a room at its worst case (and
- * a spill there); a temperature-controlled unit in control and with control lost (warmed to its
- * room); a unit without control at its own worst case, or its room's when it has none.
+ * a spill there); a temperature-controlled unit in control (its set range and its readings outside
+ * its excursions) and with control lost (the higher of its room's worst case and its highest
+ * excursion peak: an excursion is the unit out of control, so it is assessed here and only here);
+ * a unit without control at its own worst case, or its room's when it has none.
  */
 import type { WorstCase } from "@/lib/temperatures/worst-case";
 import { isTemperatureControlled, unitNoun, type AssessmentContext, type ScenarioView } from "./context";

@@ -53,6 +53,7 @@ const WRITES: Entry[] = [
   { file: "sensors/[id]/csv-uploads/[token]/preview/route.ts", method: "POST", auth: "cookie" },
   { file: "sensors/[id]/csv-uploads/[token]/import/route.ts", method: "POST", auth: "cookie" },
   { file: "excursions/[id]/acknowledge/route.ts", method: "POST", auth: "cookie" },
+  { file: "excursions/acknowledge/route.ts", method: "POST", auth: "cookie" },
   { file: "findings/[id]/events/route.ts", method: "POST", auth: "cookie" },
   { file: "findings/events/route.ts", method: "POST", auth: "cookie" },
   { file: "assessments/preview/route.ts", method: "POST", auth: "cookie" },

@@ -1,5 +1,6 @@
 "use client";
 import { createDataTableColumnHelper, DataTable, type DataTableFilters } from "@/components/data-table";
+import { AUDIT_ACTION_LABELS, AUDIT_ENTITY_LABELS, auditActionLabel, auditEntityLabel, type AuditChange } from "@/lib/audit/format";
 
 type AuditRow = {
   id: number;
@@ -9,38 +10,21 @@ type AuditRow = {
   entityType: string;
   entityId: string | null;
   summary: string;
-  before: Record<string, unknown> | null;
-  after: Record<string, unknown> | null;
-};
-
-const RECORD_LABELS: Record<string, string> = {
-  container: "Container",
-  room: "Room",
-  storage_unit: "Storage unit",
-  site: "Site",
-  substance: "Substance",
-  mixture: "Mixture",
-  user: "Person",
-  installation: "Installation",
+  changes: AuditChange[];
 };
 
 const filters: DataTableFilters = {
   search: { label: "Search", placeholder: "Words in the summary, a label, an e-mail" },
   selects: [
-    { param: "entityType", label: "Record", allLabel: "All records", options: Object.entries(RECORD_LABELS).map(([value, label]) => ({ value, label })) },
+    { param: "entityType", label: "Record", allLabel: "All records", options: Object.entries(AUDIT_ENTITY_LABELS).map(([value, label]) => ({ value, label })) },
     {
       param: "action",
       label: "Action",
       allLabel: "All actions",
-      options: ["create", "update", "move", "retire", "restore", "import", "invite", "change_role", "deactivate", "sign_in"].map((a) => ({ value: a, label: a.replace("_", " ") })),
+      options: Object.entries(AUDIT_ACTION_LABELS).map(([value, label]) => ({ value, label })),
     },
   ],
 };
-
-function show(value: unknown): string {
-  if (value === null || value === undefined || value === "") return "—";
-  return typeof value === "object" ? JSON.stringify(value) : String(value);
-}
 
 const column = createDataTableColumnHelper<AuditRow>();
 const columns = column.columns([
@@ -48,37 +32,38 @@ const columns = column.columns([
     id: "at",
     header: "When (UTC)",
     meta: { className: "whitespace-nowrap tabular text-xs" },
-    cell: ({ getValue }) => getValue().slice(0, 19).replace("T", " "),
+    cell: ({ getValue }) => getValue().slice(0, 16).replace("T", " "),
   }),
   column.accessor("actorLabel", { id: "actor", header: "Who", meta: { className: "whitespace-nowrap text-xs" } }),
-  column.accessor((row) => `${RECORD_LABELS[row.entityType] ?? row.entityType}${row.entityId ? ` #${row.entityId}` : ""}`, {
+  column.accessor((row) => `${auditEntityLabel(row.entityType)}${row.entityId ? ` #${row.entityId}` : ""}`, {
     id: "record",
     header: "Record",
     meta: { className: "whitespace-nowrap text-xs" },
+  }),
+  column.accessor("action", {
+    id: "action",
+    header: "Action",
+    meta: { className: "whitespace-nowrap text-xs" },
+    cell: ({ getValue }) => auditActionLabel(getValue()),
   }),
   column.accessor("summary", {
     id: "summary",
     header: "What happened",
     meta: { className: "min-w-72" },
-    cell: ({ row }) => {
-      const after = row.original.after ?? {};
-      const before = row.original.before ?? {};
-      const keys = row.original.action === "create" || row.original.action === "import" ? [] : Object.keys(after);
-      return (
-        <div>
-          <p>{row.original.summary}</p>
-          {keys.length ? (
-            <ul className="mt-1 space-y-0.5 text-xs text-ink-600">
-              {keys.map((key) => (
-                <li key={key} className="[overflow-wrap:anywhere]">
-                  {key}: <span className="line-through">{show(before[key])}</span> → <span className="text-ink-900">{show(after[key])}</span>
-                </li>
-              ))}
-            </ul>
-          ) : null}
-        </div>
-      );
-    },
+    cell: ({ row }) => (
+      <div>
+        <p>{row.original.summary}</p>
+        {row.original.changes.length ? (
+          <ul className="mt-1 space-y-0.5 text-xs text-ink-600">
+            {row.original.changes.map((change) => (
+              <li key={change.field} className="[overflow-wrap:anywhere]">
+                {change.label}: <span className="line-through">{change.before}</span> → <span className="text-ink-900">{change.after}</span>
+              </li>
+            ))}
+          </ul>
+        ) : null}
+      </div>
+    ),
   }),
 ]);
 

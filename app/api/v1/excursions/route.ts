@@ -3,7 +3,7 @@ import { route } from "@/lib/http/route";
 import { listExcursions } from "@/lib/temperatures/queries";
 import { excursionListQuerySchema } from "@/lib/temperatures/schemas";
 
-/** Excursions, open ones first then newest first; filter by sensor, room, room with its units, unit or open. */
+/** Excursions, open ones first then newest first; filter by sensor, room, room with its units, unit, open or awaiting acknowledgement. */
 export const GET = route({ action: "temperatures.read", schema: excursionListQuerySchema }, ({ input }) => {
   const data = listExcursions({
     sensorId: input.sensorId ?? undefined,
@@ -11,6 +11,7 @@ export const GET = route({ action: "temperatures.read", schema: excursionListQue
     inRoomId: input.inRoomId ?? undefined,
     storageUnitId: input.storageUnitId ?? undefined,
     open: input.open === "true" ? true : undefined,
+    awaitingAcknowledgement: input.awaitingAcknowledgement === "true" ? true : undefined,
     limit: input.limit,
   });
   return NextResponse.json({ data });
