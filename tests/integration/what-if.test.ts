@@ -151,14 +151,15 @@ describe("POST /api/v1/assessments/preview: a move", () => {
     expect(data.cleared[0]).toMatchObject({ severity: "critical", canOpen: true });
     // FSR-1 already holds n-hexane (the demo's four 0.5 L bottles): the move keeps its findings as they are.
     expect(data.verdict).toBe("already_flagged");
+    // In control leaves out the readings inside FSR-1's failure weekend (8.4 °C); control lost takes its peak.
     expect(data.current.map((f: Current) => `${f.title} → ${f.outcome}`)).toEqual([
       "N-hexane in FSR-1 could reach 2170 % LFL if the refrigerator fails (control lost, 27.0 °C) → unchanged",
-      "N-hexane in FSR-1 could reach 1720 % LFL at its worst case in control (21.7 °C) → unchanged",
+      "N-hexane in FSR-1 could reach 921 % LFL at its worst case in control (8.4 °C) → unchanged",
       "Open containers in FSR-1 could reach 5980 % LFL together if the refrigerator fails (control lost, 27.0 °C) → unchanged",
-      "Open containers in FSR-1 could reach 5460 % LFL together at its worst case in control (21.7 °C) → unchanged",
-      "N-hexane in FSR-1 is above its flash point of −22.0 °C at its worst case in control (21.7 °C) → unchanged",
-      "N-hexane in FSR-1 is above its flash point of −22.0 °C if the refrigerator fails (control lost, 27.0 °C) → unchanged",
+      "Open containers in FSR-1 could reach 4490 % LFL together at its worst case in control (8.4 °C) → unchanged",
       "A 0.5 L spill of n-hexane in room 2.115 could reach 57.3 % of the NIOSH TWA at its highest (spill, 27.0 °C) → unchanged",
+      "N-hexane in FSR-1 is above its flash point of −22.0 °C at its worst case in control (8.4 °C) → unchanged",
+      "N-hexane in FSR-1 is above its flash point of −22.0 °C if the refrigerator fails (control lost, 27.0 °C) → unchanged",
     ]);
     expect(data.verdictSentence).toBe(
       "Already high here: n-hexane in FSR-1 could reach 2170 % LFL if the refrigerator fails (control lost, 27.0 °C). Moving it here keeps it so. 6 other open findings here concern n-hexane too. Moving it out clears 5 findings at FR-1, the worst critical.",
