@@ -38,7 +38,8 @@ test("a safety officer works a critical finding to resolution by moving the ethe
 
   await expect(page.getByRole("heading", { level: 1 })).toContainText("is stored in FR-1, whose interior has ignition sources");
   await expect(page.getByText("Critical").first()).toBeVisible();
-  await expect(page.getByRole("heading", { name: "Calculation trace" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Contributing containers (2)" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "The whole working" })).toBeVisible();
   await expect(page.getByText("Step 1").first()).toBeVisible();
   await expect(page.getByLabel("Caution").first()).toBeVisible();
   const findingUrl = page.url();
