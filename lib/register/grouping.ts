@@ -44,7 +44,7 @@ export function compareWorstFirst(a: GroupableFinding, b: GroupableFinding): num
     if (b.ratio === null) return -1;
     return b.ratio - a.ratio;
   }
-  if (a.value !== null && b.value !== null && a.value !== b.value && a.unit !== "% O2") return b.value - a.value;
+  if (a.value !== null && b.value !== null && a.value !== b.value && a.unit !== "% O₂") return b.value - a.value;
   return a.id - b.id;
 }
 

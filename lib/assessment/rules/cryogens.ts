@@ -185,7 +185,7 @@ export function cryogenRules(ctx: AssessmentContext, view: ScenarioView | null):
     value: o2.oxygenPercent,
     limitValue: limit,
     ratio: limit / o2.oxygenPercent,
-    unit: "% O2",
+    unit: "% O₂",
     view,
     containerIds: [...releases.flatMap((r) => r.containerIds), ...dryIceIds],
     trace: () =>

@@ -24,8 +24,8 @@ function plain(magnitude: number, significant: number): string {
   const rounded = Number(magnitude.toPrecision(significant));
   const decimals = Math.max(0, significant - 1 - Math.floor(Math.log10(rounded)));
   const text = stripZeros(rounded.toFixed(decimals));
-  if (rounded < 10_000) return text;
-  // Thousands separators from five digits up: 12,300 (four-digit numbers stay 2060).
+  if (rounded < 1_000) return text;
+  // Thousands separators from four digits up, as in the app's tables: 2,060 and 12,300.
   const dot = text.indexOf(".");
   const whole = dot < 0 ? text : text.slice(0, dot);
   let grouped = "";

@@ -321,7 +321,7 @@ export type PlainCandidateFinding = {
    * Null for temperature comparisons and missing data.
    */
   readonly ratio: number | null;
-  /** Unit of value and limitValue: "% LFL", "ppm", "% O2", "L", "°C", "index". */
+  /** Unit of value and limitValue: "% LFL", "ppm", "% O₂", "L", "°C", "index". */
   readonly unit: string | null;
   readonly worstCaseTempC: number | null;
   readonly worstCaseSource: string | null;

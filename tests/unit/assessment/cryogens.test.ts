@@ -12,7 +12,7 @@ describe("oxygen-depletion and co2-exposure", () => {
     expect(relativeDeviation(oxygen?.value as number, 18.488)).toBeLessThan(2e-4);
     expect(oxygen?.limitValue).toBe(19.5);
     expect(oxygen?.ratio).toBeCloseTo(19.5 / (oxygen?.value as number), 12);
-    expect(oxygen?.unit).toBe("% O2");
+    expect(oxygen?.unit).toBe("% O₂");
     expect(oxygen?.fingerprint).toBe("oxygen-depletion|room:7|cryogen-inventory|room_worst_case");
     expect(oxygen?.containerIds).toEqual([3]);
     expect(oxygen?.title).toBe("Oxygen in room 2.115 could fall to 18.5 % if its cryogens were all released (room worst case)");

@@ -38,7 +38,7 @@ describe("enclosure-lfl: closed units", () => {
     expect(finding.ratio).toBeCloseTo((finding.value as number) / 100, 12);
     expect(finding.worstCaseTempC).toBe(20);
     expect(finding.worstCaseSource).toBe("20.0 °C, upper end of the set range");
-    expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3400 % LFL at its worst case in control (20.0 °C)");
+    expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3,400 % LFL at its worst case in control (20.0 °C)");
     const bound = finding.trace.parts.find((part) => part.method === "Closed-enclosure bound");
     expect(bound?.steps.at(-1)?.description).toBe("The smaller of the two (saturation-limited)");
   });

@@ -3,7 +3,7 @@ import { formatPercent, formatQuantity, formatSignificant, formatTempC } from "@
 
 describe("numbers in titles", () => {
   it("three significant figures, ×10ⁿ from 10⁵ up and below 10⁻³, a true minus sign", () => {
-    expect(formatSignificant(2060.263)).toBe("2060");
+    expect(formatSignificant(2060.263)).toBe("2,060");
     expect(formatSignificant(209.7)).toBe("210");
     expect(formatSignificant(46.0)).toBe("46");
     expect(formatSignificant(48.77)).toBe("48.8");

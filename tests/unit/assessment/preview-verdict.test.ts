@@ -2,12 +2,12 @@ import { describe, expect, it } from "vitest";
 import { previewVerdict, titleInSentence, verdictSentence, type VerdictFacts } from "@/lib/assessment/preview-verdict";
 
 const base: VerdictFacts = { mode: "store", unitCode: "FR-1", contentName: "diethyl ether", raised: [], current: [], otherStandingCount: 0, cleared: [], sourceUnitCode: null };
-const etherCritical = { severity: "critical" as const, title: "Diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C)", outcome: "unchanged" as const };
+const etherCritical = { severity: "critical" as const, title: "Diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C)", outcome: "unchanged" as const };
 
 describe("titleInSentence", () => {
   it("lower-cases only the library name the title capitalised", () => {
-    expect(titleInSentence("Diethyl ether in FR-1 could reach 2210 % LFL.", ["diethyl ether"])).toBe("diethyl ether in FR-1 could reach 2210 % LFL");
-    expect(titleInSentence("Open containers in FR-1 could reach 5280 % LFL together", ["acetone"])).toBe("open containers in FR-1 could reach 5280 % LFL together");
+    expect(titleInSentence("Diethyl ether in FR-1 could reach 2,210 % LFL.", ["diethyl ether"])).toBe("diethyl ether in FR-1 could reach 2,210 % LFL");
+    expect(titleInSentence("Open containers in FR-1 could reach 5,280 % LFL together", ["acetone"])).toBe("open containers in FR-1 could reach 5,280 % LFL together");
     expect(titleInSentence("N,N-dimethylformamide in FC-4 is above its flash point", ["N,N-dimethylformamide"])).toBe("N,N-dimethylformamide in FC-4 is above its flash point");
     expect(titleInSentence("IA+IB liquids in FC-1 total 120 L", ["acetone"])).toBe("IA+IB liquids in FC-1 total 120 L");
   });
@@ -18,10 +18,10 @@ describe("the verdict and its sentence", () => {
     const facts = { ...base, current: [etherCritical, { severity: "moderate" as const, title: "Diethyl ether in FR-1 is above its flash point of −45.0 °C", outcome: "unchanged" as const }] };
     expect(previewVerdict(facts)).toBe("already_flagged");
     expect(verdictSentence(facts)).toBe(
-      "Already critical here: diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so. 1 other open finding here concerns diethyl ether too.",
+      "Already critical here: diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so. 1 other open finding here concerns diethyl ether too.",
     );
     expect(verdictSentence({ ...facts, mode: "edit", current: [etherCritical] })).toBe(
-      "Already critical here: diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C). Saving these changes keeps it so.",
+      "Already critical here: diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C). Saving these changes keeps it so.",
     );
   });
 

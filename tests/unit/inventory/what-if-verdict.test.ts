@@ -6,11 +6,11 @@ import { outcomeNote, verdictSeverity, WhatIfVerdict, type PreviewData } from "@
 const flagged: PreviewData = {
   findings: [],
   current: [
-    { id: 49, severity: "critical", status: "open", title: "Diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C)", ratio: 46.3, outcome: "unchanged", canOpen: true },
+    { id: 49, severity: "critical", status: "open", title: "Diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C)", ratio: 46.3, outcome: "unchanged", canOpen: true },
     { id: 52, severity: "moderate", status: "risk_accepted", title: "Diethyl ether in FR-1 is above its flash point of −45.0 °C", ratio: null, outcome: "unchanged", canOpen: false },
   ],
   verdict: "already_flagged",
-  verdictSentence: "Already critical here: diethyl ether in FR-1 could reach 4630 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so.",
+  verdictSentence: "Already critical here: diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so.",
   cleared: [],
 };
 

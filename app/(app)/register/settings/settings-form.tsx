@@ -24,7 +24,7 @@ const SOURCE_HINT = "Where these values come from. Say so when you change one: i
 
 const FIELDS: { legend: string; fields: FieldSpec[] }[] = [
   {
-    legend: "Flammable vapour (share of the LFL)",
+    legend: "Flammable vapor (share of the LFL)",
     fields: [
       ...(["moderate", "high", "critical"] as const).map(
         (level): FieldSpec => ({
