@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { describedBy, Field, inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
+import { DateInput } from "@/components/forms/date-input";
 
 export type FieldConfig =
   | { name: string; label: string; kind: "text" | "number" | "date"; hint?: string; span?: 1 | 2 | 3 }
@@ -17,7 +18,7 @@ export type FieldSection = { legend?: string; fields: FieldConfig[] };
 
 type Action = (previous: FormState | undefined, formData: FormData) => Promise<FormState>;
 
-const SPAN = { 1: "", 2: "sm:col-span-2", 3: "sm:col-span-3" } as const;
+const SPAN = { 1: "", 2: "sm:col-span-2", 3: "sm:col-span-2 lg:col-span-3" } as const;
 
 function Control({ field, config }: { field: FieldMetadata<unknown>; config: FieldConfig }) {
   const aria = describedBy(field.id, config.hint, field.errors);
@@ -55,6 +56,7 @@ function Control({ field, config }: { field: FieldMetadata<unknown>; config: Fie
     );
   }
   const props = getInputProps(field as FieldMetadata<string>, { type: config.kind, ariaAttributes: true });
+  if (config.kind === "date") return <DateInput {...props} key={props.key} className={inputClass} aria-describedby={aria} />;
   return <input {...props} key={props.key} step={config.kind === "number" ? "any" : undefined} className={inputClass} aria-describedby={aria} />;
 }
 
@@ -96,7 +98,7 @@ export function ConfigForm<S extends z.ZodObject>({
         <input key={name} type="hidden" name={name} value={value} />
       ))}
       {sections.map((section, index) => (
-        <fieldset key={section.legend ?? index} className="grid gap-4 sm:grid-cols-3">
+        <fieldset key={section.legend ?? index} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
           {section.legend ? <legend className="mb-2 text-sm font-semibold text-ink-900">{section.legend}</legend> : null}
           {section.fields.map((config) => {
             const field = fieldFor(config.name);

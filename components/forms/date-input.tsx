@@ -11,9 +11,9 @@ export const ISO_DATE_PATTERN = "\\d{4}-\\d{2}-\\d{2}";
  * beside ISO dates everywhere else. The calendar button opens the browser's own date picker
  * (a hidden native input) and writes its choice back as yyyy-mm-dd. Without JavaScript it is a
  * plain text field the server checks. Pass the same props as to an <input> (Conform's
- * getInputProps included); its type is always text.
+ * getInputProps included, whatever type they carry); it is always a text field.
  */
-export function DateInput({ className, ...props }: Omit<InputHTMLAttributes<HTMLInputElement>, "type">) {
+export function DateInput({ className, ...props }: InputHTMLAttributes<HTMLInputElement>) {
   const textRef = useRef<HTMLInputElement>(null);
   const pickerRef = useRef<HTMLInputElement>(null);
 

@@ -69,6 +69,22 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   await page.goto(findingUrl);
   await expect(page.getByText("Resolved by re-assessment").first()).toBeVisible();
   await expect(page.getByText(/moved from .*FR-1.* to .*FSR-1/).first()).toBeVisible();
+
+  // A whole location acknowledged in one step: the solvent store B-014's own findings.
+  await page.goto("/register?view=locations");
+  const store = page.getByRole("checkbox", { name: /^Select the \d+ findings in B-014$/ });
+  const inStore = Number((await store.getAttribute("aria-label"))!.match(/\d+/)![0]);
+  expect(inStore).toBeGreaterThan(1);
+  await store.check();
+  const actOn = page.getByRole("region", { name: "Act on the selected findings" });
+  await expect(actOn.getByText(`${inStore} findings selected`)).toBeVisible();
+  await actOn.getByLabel("Step").selectOption({ label: "Acknowledge" });
+  await actOn.getByLabel("Note (optional)").fill("Walked through B-014 with facilities: ventilation running, spill kit in place.");
+  await actOn.getByRole("button", { name: `Apply to ${inStore}` }).click();
+  await expect(actOn.getByText(`${inStore} of ${inStore} findings acknowledged.`)).toBeVisible();
+  const room = (await getJson<{ data: { id: number; code: string }[] }>(page, "/api/v1/rooms?q=B-014")).data.find((r) => r.code === "B-014")!;
+  const stillOpen = await getJson<{ data: { storageUnitId: number | null }[] }>(page, `/api/v1/findings?roomId=${room.id}&status=open&pageSize=100`);
+  expect(stillOpen.data.filter((f) => f.storageUnitId === null)).toEqual([]);
   await new Shell(page).signOut();
 
   // The auditor's workbook.

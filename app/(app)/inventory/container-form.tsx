@@ -10,6 +10,7 @@ import type { FormState } from "@/lib/auth/form-action";
 import { AMOUNT_UNITS, CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { containerCreateSchema, containerEditFormSchema } from "@/lib/inventory/schemas";
 import { WhatIfPanel } from "./what-if-panel";
+import { DateInput } from "@/components/forms/date-input";
 
 type UnitOption = { id: number; code: string; name: string; roomCode: string; roomName: string; siteName: string };
 type Person = { id: number; name: string };
@@ -78,6 +79,7 @@ export function ContainerForm({
   const f = fields as unknown as Record<string, Parameters<typeof getInputProps>[0] & { errors?: string[]; id: string }>;
   const input = (name: string, type: "text" | "number" | "date" = "text") => {
     const props = getInputProps(f[name], { type, ariaAttributes: true });
+    if (type === "date") return <DateInput {...props} key={props.key} className={inputClass} aria-describedby={describedBy(f[name].id, undefined, f[name].errors)} />;
     return <input {...props} key={props.key} step={type === "number" ? "any" : undefined} className={inputClass} aria-describedby={describedBy(f[name].id, undefined, f[name].errors)} />;
   };
   const select = (name: string, options: [string, string][], placeholder?: string) => {

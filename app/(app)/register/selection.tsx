@@ -5,6 +5,7 @@ import { Field, inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { MAX_BULK_FINDINGS, type BULK_EVENT_KINDS } from "@/lib/register/schemas";
 import { bulkFindingStepAction } from "./actions";
+import { DateInput } from "@/components/forms/date-input";
 
 type BulkKind = (typeof BULK_EVENT_KINDS)[number];
 
@@ -149,7 +150,7 @@ export function BulkBar({ kinds, people }: { kinds: readonly BulkKind[]; people:
             </div>
             <div className="w-44">
               <Field id={`${id}-review`} label="Review date" errors={fieldErrors("reviewDate")}>
-                <input id={`${id}-review`} name="reviewDate" type="date" className={inputClass} />
+                <DateInput id={`${id}-review`} name="reviewDate" className={inputClass} />
               </Field>
             </div>
           </>

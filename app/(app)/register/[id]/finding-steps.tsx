@@ -10,6 +10,7 @@ import { requiredId } from "@/lib/validation/fields";
 import { STILL_HOLDS_PREFIX } from "@/lib/register/resolve-text";
 import { FINDING_STEP_SCHEMAS } from "@/lib/register/schemas";
 import { findingPageStepAction } from "./actions";
+import { DateInput } from "@/components/forms/date-input";
 
 type Step = keyof typeof FINDING_STEP_SCHEMAS;
 type Person = { id: number; name: string };
@@ -73,7 +74,7 @@ function StepForm({ step, findingId, people, onSaved }: { step: Step; findingId:
                 ))}
               </select>
             ) : (
-              <input {...getInputProps(field, { type: "date", ariaAttributes: true })} key={field.key} className={inputClass} aria-describedby={aria} />
+              <DateInput {...getInputProps(field, { type: "date", ariaAttributes: true })} key={field.key} className={inputClass} aria-describedby={aria} />
             )}
           </Field>
         );
