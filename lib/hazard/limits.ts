@@ -16,7 +16,7 @@ export type ExposureLimit = {
   source?: string;
   /**
    * Temperature at which an mg/m³ limit is stated; 25 °C for US and ACGIH limits (the 24.45 L/mol
-   * convention). The EU states its values at 20 °C (recalled from memory, not verified).
+   * convention). Take another list's reference conditions from the list itself.
    */
   referenceTempC?: number;
 };
