@@ -107,7 +107,7 @@ export function assumptions(lookBackDays: number): MethodStatement[] {
     {
       item: "Traces",
       statement:
-        "Each finding's calculation is one cell of the Finding traces sheet, a line per input (with its value, unit and source), per step (the formula, then the formula with the numbers put in), per result and per warning; a nested calculation is indented under its \"Part\" line. Numbers in the trace are rounded to six significant figures; the finding's value, limit, ratio and worst-case temperature are full-precision numbers on the Findings sheet. A long source is cited as [S…] and written out once on the Trace sources sheet. Select a trace cell and read it in the formula bar, or make its row taller.",
+        "Each finding's calculation is one cell of the Finding traces sheet, a line per input (with its value, unit and source), per step (the formula, then the formula with the numbers put in), per result and per warning; a nested calculation is indented under its \"Part\" line. Numbers in the trace are rounded to six significant figures; on the Findings sheet the value, limit and ratio are rounded to three, as the register shows them, and stay numbers. A long source is cited as [S…] and written out once on the Trace sources sheet. Select a trace cell and read it in the formula bar, or make its row taller.",
       source: "Headroom's definition",
     },
     {
