@@ -8,6 +8,7 @@ import { kickReassessments } from "@/lib/assessment/jobs";
 import { startOutboxJob } from "@/lib/mail/deliver";
 import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
+import { applySubstanceLibraryEdition } from "@/lib/substances/library-edition";
 
 /** Background work of the server process, started once from instrumentation.ts. */
 export function startJobs(): void {
@@ -17,6 +18,12 @@ export function startJobs(): void {
   // A re-assessment that was running when the process stopped starts again from the beginning
   // (each batch is a transaction of its own, so running it twice is harmless).
   getDb().update(jobs).set({ status: "queued", progress: 0 }).where(eq(jobs.status, "running")).run();
+  // A new edition of the substance library reaches the substances nobody edited (and queues a re-assessment).
+  try {
+    applySubstanceLibraryEdition(getDb());
+  } catch (error) {
+    log.error({ err: error }, "the substance library could not be brought up to its edition");
+  }
   const timer = setInterval(kickReassessments, 30_000);
   timer.unref?.();
   kickReassessments();
