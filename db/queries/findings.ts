@@ -10,7 +10,9 @@ import type { Scope } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 
 /**
- * Which findings a user may see. "own" means: a researcher's own containers (or units they own);
+ * Which findings a user may see. "own" means: for a researcher, the findings their containers
+ * contribute to (the one a finding records, and every other by `contributedBy`: a small bottle
+ * beside a neighbour's large one adds to the same vapor) and those of the units they own; for
  * facilities staff, the rooms they are the contact for and the units they own.
  */
 export function findingsVisibleTo(user: SessionUser, scope: Scope): SQL | undefined {
@@ -20,6 +22,7 @@ export function findingsVisibleTo(user: SessionUser, scope: Scope): SQL | undefi
     return or(
       inArray(findings.containerId, db.select({ id: containers.id }).from(containers).where(eq(containers.ownerId, user.id))),
       inArray(findings.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.ownerId, user.id))),
+      contributedBy(rawSql`c.owner_id = ${user.id}`),
     );
   }
   return or(

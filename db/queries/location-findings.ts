@@ -11,9 +11,9 @@ import { splitByScope, worstSeverity, type OpenFindingRow, type OpenFindingsHere
  * `findings` (room and unit, unit, container) and reads only that place's rows.
  *
  * Which findings a reader may open follows the register's scopes (db/queries/findings.ts
- * `findingsVisibleTo`): "all" sees every finding; with "own", a researcher sees the findings of
- * their containers and of the units they own, facilities staff those of the rooms they are the
- * contact for and of the units they own. The rest are counted, never described, so that a panel
+ * `findingsVisibleTo`): "all" sees every finding; with "own", a researcher sees the findings their
+ * containers contribute to and those of the units they own, facilities staff those of the rooms
+ * they are the contact for and of the units they own. The rest are counted, never described, so that a panel
  * never reads as "nothing here" when there is something the reader's role does not list.
  */
 
@@ -22,11 +22,29 @@ function scopeParams(user: Pick<SessionUser, "id" | "role">, scope: Scope) {
   return { mode: scope === "all" ? "all" : user.role === "researcher" ? "researcher" : "contact", userId: user.id };
 }
 
+// The findings the reader's own live containers contribute to: the same rule as contributedBy in
+// db/queries/findings.ts, on the alias f.
+const CONTRIBUTED_BY_OWN = `exists (
+    select 1 from containers c
+    join storage_units cu on cu.id = c.storage_unit_id
+    left join substances cs on cs.id = c.substance_id
+    where c.owner_id = @userId and c.state not in ('empty', 'disposed') and (
+      f.container_id = c.id
+      or ((f.storage_unit_id = c.storage_unit_id or (f.storage_unit_id is null and f.room_id = cu.room_id)) and (
+        f.substance_id = c.substance_id
+        or f.mixture_id = c.mixture_id
+        or (f.rule = 'enclosure-lfl' and f.substance_id is null and f.mixture_id is null and c.state in ('opened', 'in_use'))
+        or f.rule = 'quantity-limit'
+        or (f.rule in ('oxygen-depletion', 'co2-exposure') and cs.physical_state in ('cryogen', 'solid'))
+      ))
+    ))`;
+
 // The same rule as findingsVisibleTo, as a column: 1 when the reader may open the finding.
 const VISIBLE = `case @mode
     when 'all' then 1
     when 'researcher' then (f.container_id in (select id from containers where owner_id = @userId)
-                            or f.storage_unit_id in (select id from storage_units where owner_id = @userId))
+                            or f.storage_unit_id in (select id from storage_units where owner_id = @userId)
+                            or ${CONTRIBUTED_BY_OWN})
     else (f.room_id in (select id from rooms where facilities_contact_id = @userId)
           or f.storage_unit_id in (select id from storage_units where owner_id = @userId))
   end`;
@@ -138,8 +156,8 @@ export function worstOpenSeverityByContainer(user: SessionUser, scope: Scope | n
 
 /**
  * Open findings (open, acknowledged, mitigating) that a researcher's live containers contribute to
- * but that the register records on someone else's container, so the researcher's own scope does
- * not list them: the findings of the same contents in the same unit, and the room's own findings
+ * but that the researcher's own scope does not list (none while the scope follows contributedBy;
+ * the Overview says so should the two ever part): the findings of the same contents in the same unit, and the room's own findings
  * of them. Counted per severity for the Overview, never described. CROSS JOIN keeps SQLite's
  * join order: the reader's few containers outside, each finding reached by its index (left to
  * choose, the planner may walk every open finding instead).

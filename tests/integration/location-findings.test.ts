@@ -102,12 +102,16 @@ describe("a room's open findings", () => {
     expect(elsewhere.hidden).toEqual({ count: 1, worst: "high" });
   });
 
-  it("list for a researcher only the findings of their own containers and units", () => {
+  it("list for a researcher the findings their containers contribute to and those of their units", () => {
+    // The owner's small ether bottle adds to the fridge's and the room's ether findings (recorded on
+    // the neighbour's large bottle) and to the room's quantity; their ketone is on the shelf.
     const here = openFindingsInRoom(owner, "own", roomId);
-    expect(titles(here)).toEqual(["shelfKetone"]);
-    expect(here.hidden).toEqual({ count: 4, worst: "critical" });
+    expect(titles(here)).toEqual(["fridgeEther", "roomSpill", "accepted", "shelfKetone", "roomQuantity"]);
+    expect(here.hidden).toEqual({ count: 0, worst: null });
     // The neighbour owns the shelf and the large bottle.
-    expect(titles(openFindingsInRoom(neighbour, "own", roomId))).toEqual(["fridgeEther", "roomSpill", "shelfKetone"]);
+    expect(titles(openFindingsInRoom(neighbour, "own", roomId))).toEqual(["fridgeEther", "roomSpill", "accepted", "shelfKetone", "roomQuantity"]);
+    // Nobody's container in the other room but the owner's: the neighbour sees nothing there and is told so.
+    expect(openFindingsInRoom(neighbour, "own", otherRoomId).hidden).toEqual({ count: 1, worst: "high" });
   });
 });
 
@@ -131,10 +135,13 @@ describe("the findings a container contributes to", () => {
     expect(openFindingsOfContainer(officer, "all", emptyEther)!.items).toEqual([]);
   });
 
-  it("count what a researcher's own scope does not list, without describing it", () => {
+  it("are in the scope of the container's owner, and counted, not described, for another researcher", () => {
     const mine = openFindingsOfContainer(owner, "own", smallEther)!;
-    expect(mine.items).toEqual([]);
-    expect(mine.hidden).toEqual({ count: 3, worst: "critical" });
+    expect(titles(mine)).toEqual(["fridgeEther", "roomSpill", "accepted"]);
+    expect(mine.hidden).toEqual({ count: 0, worst: null });
+    const stranger = openFindingsOfContainer(makeUser("researcher"), "own", smallEther)!;
+    expect(stranger.items).toEqual([]);
+    expect(stranger.hidden).toEqual({ count: 3, worst: "critical" });
   });
 
   it("answer null for a container that does not exist", () => {
@@ -146,9 +153,11 @@ describe("the inventory's marker", () => {
   it("is the worst open finding a container contributes to; for others' containers only what the reader may open", () => {
     const all = worstOpenSeverityByContainer(officer, "all", [smallEther, acetone, emptyEther, elsewhereEther]);
     expect(Object.fromEntries(all)).toEqual({ [smallEther]: "critical", [acetone]: "moderate", [elsewhereEther]: "high" });
-    // The owner's own small bottle counts the fridge's critical finding; the neighbour's large one does not show to them.
+    // The owner's own small bottle counts the fridge's critical finding; the neighbour's large one
+    // shows it too, since the owner's bottle adds to it; a stranger's view of it shows nothing.
     const mine = worstOpenSeverityByContainer(owner, "own", [smallEther, largeEther, acetone]);
-    expect(Object.fromEntries(mine)).toEqual({ [smallEther]: "critical", [acetone]: "moderate" });
+    expect(Object.fromEntries(mine)).toEqual({ [smallEther]: "critical", [largeEther]: "critical", [acetone]: "moderate" });
+    expect(worstOpenSeverityByContainer(makeUser("researcher"), "own", [largeEther]).size).toBe(0);
     expect(worstOpenSeverityByContainer(owner, null, [smallEther]).size).toBe(0);
   });
 });
@@ -165,8 +174,8 @@ describe("the container list", () => {
       ["PNL-SMALL", "critical"],
     ]);
     const everyone = await call(containersRoute.GET, { path: "/api/v1/containers?sort=label&dir=asc&q=PNL-LARGE", cookie });
-    // The neighbour's bottle: its findings are not in this reader's view.
-    expect(everyone.body.data.map((row: { label: string; openFindingSeverity: string | null }) => [row.label, row.openFindingSeverity])).toEqual([["PNL-LARGE", null]]);
+    // The neighbour's bottle: its findings are in this reader's view, since their small bottle adds to them.
+    expect(everyone.body.data.map((row: { label: string; openFindingSeverity: string | null }) => [row.label, row.openFindingSeverity])).toEqual([["PNL-LARGE", "critical"]]);
   });
 });
 
@@ -202,10 +211,11 @@ describe("query plans", () => {
 });
 
 describe("the Overview's counts in each reader's scope", () => {
-  it("count for a researcher only their own containers' findings, and no excursions", async () => {
+  it("count for a researcher the findings their containers contribute to, and no excursions", async () => {
     const counts = await overviewCounts(owner, "own");
-    // Their ketone bottle (moderate) and their bottle on SH-2 (high); the resolved finding is not counted.
-    expect(counts.openFindings).toEqual({ critical: 0, high: 1, moderate: 1, low: 0 });
+    // The fridge's ether (critical), the room's spill (high), the ketone (moderate), the room's
+    // quantity (low) and their bottle on SH-2 (high); risk accepted and resolved are not counted.
+    expect(counts.openFindings).toEqual({ critical: 1, high: 2, moderate: 1, low: 1 });
     expect(counts).toMatchObject({ openExcursions: 0, unacknowledgedExcursions: 0, allOpenExcursions: 0, myContainers: 4, myUnits: 0, myRooms: 0 });
   });
 
@@ -224,9 +234,9 @@ describe("the Overview's counts in each reader's scope", () => {
     expect(counts).toMatchObject({ openExcursions: 1, unacknowledgedExcursions: 1, allOpenExcursions: 2, myRooms: 1, myUnits: 0 });
   });
 
-  it("count what a researcher's containers add to on other people's containers, without listing it", () => {
-    // The fridge's critical ether finding and the room's spill finding name the neighbour's large bottle.
-    expect(openFindingsContributedElsewhere(owner)).toEqual({ count: 2, worst: "critical" });
+  it("leave nothing a researcher's containers add to outside their scope", () => {
+    // The fridge's ether and the room's spill name the neighbour's large bottle, and are in the owner's scope.
+    expect(openFindingsContributedElsewhere(owner)).toEqual({ count: 0, worst: null });
     expect(openFindingsContributedElsewhere(neighbour)).toEqual({ count: 0, worst: null });
   });
 });
