@@ -65,44 +65,65 @@ function validateOxygenSettings(baselineOxygenPercent: number, deficiencyThresho
  * the gas displacing an equal volume of air: O₂ = O₂,air × (1 − V_gas/V_room)
  * (Univ. of Oxford Safety Office S4/03 App. 1, after BCGA GN11; the linear form is more
  * conservative than full-mixing dilution, O₂·e^(−V_gas/V_room)).
+ *
+ * The displacement form describes a release smaller than the room. When the gas released is as
+ * large as the room or larger, it would give zero or less: a room is not gas-tight, and the gas
+ * pushes out what is already there, mixed with it, so the room average follows the well-mixed
+ * dilution O₂ = O₂,air × e^(−V_gas/V_room) (common practice for a purge by dilution). Near the
+ * floor, where cold gas pools, it can be lower still; the trace says so.
  */
 export function oxygenAfterRelease(input: {
   gasVolumeM3: number;
   roomVolumeM3: number;
   baselineOxygenPercent?: number;
   deficiencyThresholdPercent?: number;
-}): OxygenResult {
+}): OxygenResult & { exceedsRoomVolume: boolean } {
   assertNonNegative(input.gasVolumeM3, 'gasVolumeM3');
   assertPositive(input.roomVolumeM3, 'roomVolumeM3');
   const baseline = input.baselineOxygenPercent ?? NORMAL_AIR_OXYGEN_PERCENT;
   const threshold = input.deficiencyThresholdPercent ?? OXYGEN_DEFICIENCY_PERCENT;
   validateOxygenSettings(baseline, threshold);
-  const displacedFraction = Math.min(1, input.gasVolumeM3 / input.roomVolumeM3);
-  const oxygenPercent = baseline * (1 - displacedFraction);
+  const volumeRatio = input.gasVolumeM3 / input.roomVolumeM3;
+  const exceedsRoomVolume = volumeRatio >= 1;
+  const oxygenPercent = exceedsRoomVolume ? baseline * Math.exp(-volumeRatio) : baseline * (1 - volumeRatio);
   const result = traceValue('Oxygen after the release', 'O₂', oxygenPercent, '% by volume');
+  const step = exceedsRoomVolume
+    ? traceStep(
+        'The gas released exceeds the room: it leaves mixed with the room air (well-mixed dilution)',
+        'O₂ = O₂,air × e^(−V_gas/V_room)',
+        `V_gas/V_room = ${formatSig(input.gasVolumeM3, 5)}/${formatSig(input.roomVolumeM3, 5)} = ${formatSig(volumeRatio, 3)} ≥ 1, so displacement alone would leave no air; O₂ = ${baseline} × e^(−${formatSig(volumeRatio, 4)}) = ${formatSig(oxygenPercent, 3)} %`,
+        result,
+      )
+    : traceStep(
+        'Displacement of room air by the released gas',
+        'O₂ = O₂,air × (1 − V_gas/V_room)',
+        `O₂ = ${baseline} × (1 − ${formatSig(input.gasVolumeM3, 5)}/${formatSig(input.roomVolumeM3, 5)}) = ${formatSig(oxygenPercent, 4)} %`,
+        result,
+      );
   return {
     gasVolumeM3: input.gasVolumeM3,
     oxygenPercent,
     deficient: oxygenPercent < threshold,
+    exceedsRoomVolume,
     trace: {
       method: 'Oxygen depletion after a full release, no ventilation',
-      source: 'Univ. of Oxford Safety Office Policy S4/03 App. 1 (after BCGA GN11): O₂ = 0.21 × (V_room − V_gas)/V_room; threshold OSHA 29 CFR 1910.134',
+      source: exceedsRoomVolume
+        ? 'Univ. of Oxford Safety Office Policy S4/03 App. 1 (after BCGA GN11) for releases smaller than the room; beyond the room\'s volume, well-mixed dilution (common practice); threshold OSHA 29 CFR 1910.134'
+        : 'Univ. of Oxford Safety Office Policy S4/03 App. 1 (after BCGA GN11): O₂ = 0.21 × (V_room − V_gas)/V_room; threshold OSHA 29 CFR 1910.134',
       inputs: [
         traceValue('Released gas volume', 'V_gas', input.gasVolumeM3, 'm³'),
         traceValue('Room volume', 'V_room', input.roomVolumeM3, 'm³'),
         traceValue('Oxygen in normal air', 'O₂,air', baseline, '%', input.baselineOxygenPercent === undefined ? 'default 20.9 %' : 'input'),
         traceValue('Oxygen-deficiency threshold', 'O₂,min', threshold, '%', input.deficiencyThresholdPercent === undefined ? 'default: OSHA 29 CFR 1910.134, 19.5 %' : 'input'),
       ],
-      steps: [
-        traceStep(
-          'Displacement of room air by the released gas',
-          'O₂ = O₂,air × (1 − V_gas/V_room)',
-          `O₂ = ${baseline} × (1 − ${formatSig(input.gasVolumeM3, 5)}/${formatSig(input.roomVolumeM3, 5)}) = ${formatSig(oxygenPercent, 4)} %`,
-          result,
-        ),
-      ],
+      steps: [step],
       result,
-      warnings: ['Room-average value: at the point of release the oxygen is lower'],
+      warnings: exceedsRoomVolume
+        ? [
+            'Room-average value: at the point of release the oxygen is lower',
+            'Cold gas pools near the floor and in pits: there the air can be displaced almost entirely',
+          ]
+        : ['Room-average value: at the point of release the oxygen is lower'],
     },
   };
 }
@@ -115,7 +136,7 @@ export function liquidNitrogenRelease(input: {
   referenceTempC?: number;
   baselineOxygenPercent?: number;
   deficiencyThresholdPercent?: number;
-}): OxygenResult & { expansionRatio: number } {
+}): OxygenResult & { expansionRatio: number; exceedsRoomVolume: boolean } {
   assertNonNegative(input.liquidVolumeL, 'liquidVolumeL');
   const expansionRatio = input.expansionRatio ?? liquidNitrogenExpansionRatio({ referenceTempC: input.referenceTempC });
   assertPositive(expansionRatio, 'expansionRatio');

@@ -181,7 +181,9 @@ export function cryogenRules(ctx: AssessmentContext, view: ScenarioView | null):
     severity,
     scenario: "room_worst_case",
     subject: { kind: "location", key: "cryogen-inventory" },
-    title: `Oxygen in ${ctx.label} could fall to ${formatSignificant(o2.oxygenPercent)} % if its ${[releases.length > 0 ? "cryogens" : null, dryIceMassKg > 0 ? "dry ice" : null].filter(Boolean).join(" and ")} were all released (room worst case)`,
+    title: `Oxygen in ${ctx.label} could fall to ${formatSignificant(o2.oxygenPercent)} % if its ${[releases.length > 0 ? "cryogens" : null, dryIceMassKg > 0 ? "dry ice" : null].filter(Boolean).join(" and ")} were all released${
+      o2.exceedsRoomVolume ? `: ${formatSignificant(totalGasM3)} m³ of gas, ${formatSig(totalGasM3 / roomVolumeM3, 2)} times the room's volume` : ""
+    } (room worst case)`,
     value: o2.oxygenPercent,
     limitValue: limit,
     ratio: limit / o2.oxygenPercent,

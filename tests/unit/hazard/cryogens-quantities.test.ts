@@ -37,8 +37,15 @@ describe('liquid nitrogen', () => {
     expect(result.trace.steps[0].formula).toMatch(/expansion ratio/);
   });
 
-  it('a release larger than the room leaves no oxygen (never negative)', () => {
-    expect(liquidNitrogenRelease({ liquidVolumeL: 100, roomVolumeM3: 20 }).oxygenPercent).toBe(0);
+  it('a release larger than the room: well-mixed dilution, never zero or negative', () => {
+    // 100 L × 692.5 = 69.25 m³ into 20 m³: V_gas/V_room = 3.4625; 20.9 × e^(−3.4625) = 0.655 % (by hand).
+    const result = liquidNitrogenRelease({ liquidVolumeL: 100, roomVolumeM3: 20 });
+    expect(result.exceedsRoomVolume).toBe(true);
+    expect(result.oxygenPercent).toBeCloseTo(0.655, 2);
+    expect(result.trace.steps.at(-1)?.formula).toBe('O₂ = O₂,air × e^(−V_gas/V_room)');
+    expect(result.trace.warnings.join(' ')).toMatch(/pools near the floor/);
+    // Just below the room's volume the published displacement form still applies.
+    expect(oxygenAfterRelease({ gasVolumeM3: 19, roomVolumeM3: 20 }).oxygenPercent).toBeCloseTo(1.045, 3);
   });
 
   it('Oxford S4/03 worked example: 36 m³ basement, five 10 L dewars at 0.15 L/day, 0.4 ACH → 0.06 % drop', () => {
