@@ -254,6 +254,13 @@ export const storageUnits = sqliteTable(
     excursionMinDurationMin: integer("excursion_min_duration_min"),
     ventilated: integer("ventilated", { mode: "boolean" }).notNull().default(false),
     ignitionSourceFree: integer("ignition_source_free", { mode: "boolean" }).notNull().default(false),
+    /**
+     * Warm-up time constant τ set by a person (minutes) for Newton's law of heating after a failure;
+     * null: the latest fit from the unit's own excursions (warm_up_fits), else the default of its kind.
+     */
+    warmUpTauMin: real("warm_up_tau_min"),
+    /** Why the set τ is what it is (shown beside it). */
+    warmUpTauNote: text("warm_up_tau_note"),
     ownerId: integer("owner_id").references(() => users.id, { onDelete: "set null" }),
     notes: text("notes"),
     retiredAt: integer("retired_at", { mode: "timestamp_ms" }),
@@ -563,6 +570,50 @@ export const excursions = sqliteTable(
 );
 export type Excursion = typeof excursions.$inferSelect;
 
+/**
+ * The history of a unit's warm-up fits: τ of Newton's law of heating, fitted by least squares to the
+ * rising part of the unit's recorded excursions against its room's temperature at the time. The
+ * latest row is the unit's fitted τ; older rows stay as its history.
+ */
+export const warmUpFits = sqliteTable(
+  "warm_up_fits",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    storageUnitId: integer("storage_unit_id")
+      .notNull()
+      .references(() => storageUnits.id, { onDelete: "cascade" }),
+    tauMin: real("tau_min").notNull(),
+    rmsErrorC: real("rms_error_c").notNull(),
+    /** How many excursions and readings the fit used. */
+    excursionCount: integer("excursion_count").notNull(),
+    readingCount: integer("reading_count").notNull(),
+    /** Mean room temperature the unit warmed towards over the fitted readings. */
+    roomTempC: real("room_temp_c").notNull(),
+    /** Where the room temperature came from: "sensor" readings or the room's "design" value. */
+    roomTempSource: text("room_temp_source", { enum: ["sensor", "design"] }).notNull(),
+    excursionIds: text("excursion_ids", { mode: "json" }).$type<number[]>().notNull(),
+    fittedAt: integer("fitted_at", { mode: "timestamp_ms" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("warm_up_fits_unit_idx").on(t.storageUnitId, t.fittedAt)],
+);
+export type WarmUpFit = typeof warmUpFits.$inferSelect;
+
+/** Projected threshold crossings of an open excursion already alerted: once per excursion and threshold. */
+export const excursionCrossingAlerts = sqliteTable(
+  "excursion_crossing_alerts",
+  {
+    excursionId: integer("excursion_id")
+      .notNull()
+      .references(() => excursions.id, { onDelete: "cascade" }),
+    /** The threshold's key: substance or group, rule and level (e.g. "substance:12:lfl-fraction:0.25"). */
+    thresholdKey: text("threshold_key").notNull(),
+    crossingAt: integer("crossing_at", { mode: "timestamp_ms" }).notNull(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.excursionId, t.thresholdKey] })],
+);
+
 // ---------------------------------------------------------------------------------------------
 // The register
 // ---------------------------------------------------------------------------------------------
@@ -591,6 +642,15 @@ export const findings = sqliteTable(
     unit: text("unit"),
     worstCaseTempC: real("worst_case_temp_c"),
     worstCaseSource: text("worst_case_source"),
+    /**
+     * Control-lost findings: minutes after a failure at which the unit's contents cross the
+     * finding's first severity threshold above its in-control state (0: already crossed at the set
+     * temperature; null: never reached, or not a control-lost finding), with that threshold's label
+     * and temperature.
+     */
+    timeToDangerMin: real("time_to_danger_min"),
+    timeToDangerThreshold: text("time_to_danger_threshold"),
+    timeToDangerTempC: real("time_to_danger_temp_c"),
     conditionHolds: integer("condition_holds", { mode: "boolean" }).notNull().default(true),
     assigneeId: integer("assignee_id").references(() => users.id, { onDelete: "set null" }),
     mitigationPlan: text("mitigation_plan"),

@@ -89,3 +89,4 @@ export {
   OXYGEN_DEFICIENCY_PERCENT,
   type OxygenResult,
 } from './cryogens';
+export { warmUpTemperatureC, warmUpMinutesToReach, type WarmUp } from './warm-up';

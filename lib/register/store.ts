@@ -23,8 +23,13 @@ export type FindingCandidate = {
   unit: string | null;
   worstCaseTempC: number | null;
   worstCaseSource: string | null;
+  /** Control-lost findings: when after a failure the contents cross the next severity threshold (see db/schema.ts findings). */
+  timeToDanger?: TimeToDanger | null;
   trace: unknown;
 };
+
+/** Minutes after a failure at which a threshold is crossed (0: already at the set temperature), its label and temperature. */
+export type TimeToDanger = { minutes: number; threshold: string; tempC: number };
 
 export type FindingChange = { kind: "raised" | "reopened" | "escalated"; finding: Finding };
 export type ReconcileResult = { raised: number; updated: number; resolved: number; reopened: number; unchanged: number; changes: FindingChange[] };
@@ -39,6 +44,7 @@ const WORKING: FindingStatus[] = ["open", "acknowledged", "mitigating"];
  */
 const EXISTING_SELECT = `select id, fingerprint, severity, status, title, room_id as roomId, storage_unit_id as storageUnitId, value,
   limit_value as limitValue, ratio, worst_case_temp_c as worstCaseTempC, worst_case_source as worstCaseSource,
+  time_to_danger_min as timeToDangerMin, time_to_danger_threshold as timeToDangerThreshold, time_to_danger_temp_c as timeToDangerTempC,
   condition_holds as conditionHolds, risk_accepted_until as riskAcceptedUntil, resolved_at as resolvedAt from findings`;
 
 type ExistingRow = Omit<ExistingFinding, "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"> & { conditionHolds: number; riskAcceptedUntil: number | null; resolvedAt: number | null };
@@ -54,7 +60,8 @@ function toExisting(row: ExistingRow): ExistingFinding {
 
 type ExistingFinding = Pick<
   Finding,
-  "id" | "fingerprint" | "severity" | "status" | "title" | "roomId" | "storageUnitId" | "value" | "limitValue" | "ratio" | "worstCaseTempC" | "worstCaseSource" | "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"
+  "id" | "fingerprint" | "severity" | "status" | "title" | "roomId" | "storageUnitId" | "value" | "limitValue" | "ratio" | "worstCaseTempC" | "worstCaseSource"
+  | "timeToDangerMin" | "timeToDangerThreshold" | "timeToDangerTempC" | "conditionHolds" | "riskAcceptedUntil" | "resolvedAt"
 >;
 
 /**
@@ -186,6 +193,9 @@ export function reconcileFindings(
       before.limitValue !== candidate.limitValue ||
       before.worstCaseTempC !== candidate.worstCaseTempC ||
       before.worstCaseSource !== candidate.worstCaseSource ||
+      before.timeToDangerMin !== (candidate.timeToDanger?.minutes ?? null) ||
+      before.timeToDangerThreshold !== (candidate.timeToDanger?.threshold ?? null) ||
+      before.timeToDangerTempC !== (candidate.timeToDanger?.tempC ?? null) ||
       before.title !== candidate.title;
     if (!anyChange) {
       result.unchanged += 1;
@@ -245,8 +255,9 @@ function insertFinding(tx: DbOrTx, candidate: FindingCandidate, now: Date): Find
   const { id } = preparedOn(
     tx,
     `insert into findings (fingerprint, rule, severity, status, scenario, title, site_id, room_id, storage_unit_id, container_id, substance_id, mixture_id,
-       value, limit_value, ratio, unit, worst_case_temp_c, worst_case_source, condition_holds, first_raised_at, last_evaluated_at, created_at, updated_at)
-     values (?, ?, ?, 'open', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 1, ?, ?, ?, ?) returning id`,
+       value, limit_value, ratio, unit, worst_case_temp_c, worst_case_source, time_to_danger_min, time_to_danger_threshold, time_to_danger_temp_c,
+       condition_holds, first_raised_at, last_evaluated_at, created_at, updated_at)
+     values (?, ?, ?, 'open', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 1, ?, ?, ?, ?) returning id`,
   ).get(
     candidate.fingerprint,
     values.rule,
@@ -265,6 +276,9 @@ function insertFinding(tx: DbOrTx, candidate: FindingCandidate, now: Date): Find
     values.unit,
     values.worstCaseTempC,
     values.worstCaseSource,
+    values.timeToDangerMin,
+    values.timeToDangerThreshold,
+    values.timeToDangerTempC,
     at,
     at,
     at,
@@ -306,6 +320,9 @@ type FindingRow = {
   unit: string | null;
   worst_case_temp_c: number | null;
   worst_case_source: string | null;
+  time_to_danger_min: number | null;
+  time_to_danger_threshold: string | null;
+  time_to_danger_temp_c: number | null;
   condition_holds: number;
   assignee_id: number | null;
   mitigation_plan: string | null;
@@ -340,6 +357,9 @@ function toFinding(row: FindingRow): Finding {
     unit: row.unit,
     worstCaseTempC: row.worst_case_temp_c,
     worstCaseSource: row.worst_case_source,
+    timeToDangerMin: row.time_to_danger_min,
+    timeToDangerThreshold: row.time_to_danger_threshold,
+    timeToDangerTempC: row.time_to_danger_temp_c,
     conditionHolds: row.condition_holds === 1,
     assigneeId: row.assignee_id,
     mitigationPlan: row.mitigation_plan,
@@ -363,6 +383,7 @@ function updateFinding(tx: DbOrTx, id: number, candidate: FindingCandidate, now:
     tx,
     `update findings set rule = ?, severity = ?, scenario = ?, title = ?, site_id = ?, room_id = ?, storage_unit_id = ?, container_id = ?,
        substance_id = ?, mixture_id = ?, value = ?, limit_value = ?, ratio = ?, unit = ?, worst_case_temp_c = ?, worst_case_source = ?,
+       time_to_danger_min = ?, time_to_danger_threshold = ?, time_to_danger_temp_c = ?,
        last_evaluated_at = ?, updated_at = ?,
        status = case when ? then 'open' else status end,
        condition_holds = case when ? then 1 else condition_holds end,
@@ -386,6 +407,9 @@ function updateFinding(tx: DbOrTx, id: number, candidate: FindingCandidate, now:
     candidate.unit,
     candidate.worstCaseTempC,
     candidate.worstCaseSource,
+    candidate.timeToDanger?.minutes ?? null,
+    candidate.timeToDanger?.threshold ?? null,
+    candidate.timeToDanger?.tempC ?? null,
     at,
     at,
     opts.reopen ? 1 : 0,
@@ -415,6 +439,9 @@ function writtenValues(candidate: FindingCandidate, now: Date) {
     unit: candidate.unit,
     worstCaseTempC: candidate.worstCaseTempC,
     worstCaseSource: candidate.worstCaseSource,
+    timeToDangerMin: candidate.timeToDanger?.minutes ?? null,
+    timeToDangerThreshold: candidate.timeToDanger?.threshold ?? null,
+    timeToDangerTempC: candidate.timeToDanger?.tempC ?? null,
     lastEvaluatedAt: now,
   };
 }
