@@ -17,9 +17,12 @@
 //    Wall-clock times; the load average is printed beside them.
 //
 // Run with `npx tsx --conditions=react-server bench/assessment.ts` (the condition makes
-// `import "server-only"` a no-op). `--rules-only` / `--database-only` run one section. It reports;
+// `import "server-only"` a no-op). `--rules-only` / `--database-only` run one section;
+// `--no-time-to-danger` leaves the refrigerators' warm-up out (the time to danger's cost is the difference). It reports;
 // it does not fail: the exit code is 0 either way.
 import fs from "node:fs";
+/** `--no-time-to-danger`: refrigerators without a warm-up, to show what the time to danger costs. */
+const NO_TIME_TO_DANGER = process.argv.includes("--no-time-to-danger");
 import os from "node:os";
 import path from "node:path";
 import { substanceLibrary } from "@/db/seed/substance-library";
@@ -113,6 +116,8 @@ const units: LocationSnapshot[] = Array.from({ length: UNIT_COUNT }, (_, u) => {
       ventilated: false,
       ignitionSourceFree: u % 4 !== 0,
       setRange: fridge ? { minC: 2, maxC: 8 } : null,
+      // Refrigerators carry a warm-up, so the time to danger of their control-lost findings is part of the cost.
+      warmUp: fridge && !NO_TIME_TO_DANGER ? { tauMin: 240, source: "default", reason: "τ = 4 h, default" } : null,
       worstCase: { inControl: design(fridge ? 4 + (u % 50) / 10 : 22 + (u % 70) / 10), controlLost: null },
     },
   };

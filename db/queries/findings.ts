@@ -54,6 +54,8 @@ export type FindingListRow = {
   unit: string | null;
   worstCaseTempC: number | null;
   worstCaseSource: string | null;
+  /** Control-lost findings: minutes after a failure at which the finding's severity is reached (see db/schema.ts findings). */
+  timeToDanger: { minutes: number; threshold: string; tempC: number } | null;
   firstRaisedAt: Date;
   updatedAt: Date;
   location: { siteId: number | null; siteName: string | null; roomId: number | null; roomCode: string | null; storageUnitId: number | null; unitCode: string | null; label: string };
@@ -145,6 +147,9 @@ function readListRows(where: SQL | undefined, order: SQL[], paging?: { limit: nu
       unit: findings.unit,
       worstCaseTempC: findings.worstCaseTempC,
       worstCaseSource: findings.worstCaseSource,
+      timeToDangerMin: findings.timeToDangerMin,
+      timeToDangerThreshold: findings.timeToDangerThreshold,
+      timeToDangerTempC: findings.timeToDangerTempC,
       firstRaisedAt: findings.firstRaisedAt,
       updatedAt: findings.updatedAt,
       siteId: findings.siteId,
@@ -186,6 +191,8 @@ function readListRows(where: SQL | undefined, order: SQL[], paging?: { limit: nu
       unit: r.unit,
       worstCaseTempC: r.worstCaseTempC,
       worstCaseSource: r.worstCaseSource,
+      timeToDanger:
+        r.timeToDangerMin == null ? null : { minutes: r.timeToDangerMin, threshold: r.timeToDangerThreshold ?? "", tempC: r.timeToDangerTempC ?? 0 },
       firstRaisedAt: r.firstRaisedAt,
       updatedAt: r.updatedAt,
       location: {
@@ -214,6 +221,8 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
     location: [dir(rooms.code), dir(storageUnits.code)],
     ratio: [rawSql`${findings.ratio} ${rawSql.raw(query.dir)} nulls last`],
     worstCaseTempC: [rawSql`${findings.worstCaseTempC} ${rawSql.raw(query.dir)} nulls last`],
+    // Soonest first by default ("asc"); findings without a time to danger last either way.
+    timeToDanger: [rawSql`${findings.timeToDangerMin} ${rawSql.raw(query.dir)} nulls last`, desc(SEVERITY_ORDER)],
     age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
     updated: [dir(findings.updatedAt)],
   }[query.sort].map((o) => o as SQL);
@@ -244,6 +253,8 @@ export function listFindingLinesPage(
       ? [rawSql`min(${rooms.code}) ${rawSql.raw(up ? "asc" : "desc")}`, rawSql`min(coalesce(${storageUnits.code}, '')) ${rawSql.raw(up ? "asc" : "desc")}`, desc(worst)]
       : query.sort === "ratio"
         ? [rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`, desc(worst)]
+        : query.sort === "timeToDanger"
+          ? [rawSql`min(${findings.timeToDangerMin}) ${rawSql.raw(up ? "asc" : "desc")} nulls last`, desc(worst)]
         : [up ? asc(worst) : desc(worst), rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`];
   const totals = db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get();
   const keys = db
@@ -395,7 +406,9 @@ export function getFinding(user: SessionUser, scope: Scope, id: number) {
     .where(and(eq(findings.id, id), findingsVisibleTo(user, scope)))
     .get();
   if (!row) return null;
-  const finding = { ...row.finding, lastEvaluatedAt: lastAssessedAt(row.finding, row.roomAssessedAt), trace: row.trace ?? null };
+  const f = row.finding;
+  const timeToDanger = f.timeToDangerMin == null ? null : { minutes: f.timeToDangerMin, threshold: f.timeToDangerThreshold ?? "", tempC: f.timeToDangerTempC ?? 0 };
+  const finding = { ...f, timeToDanger, lastEvaluatedAt: lastAssessedAt(f, row.roomAssessedAt), trace: row.trace ?? null };
   const actor = alias(users, "actor");
   const events = db
     .select({ id: findingEvents.id, kind: findingEvents.kind, fromStatus: findingEvents.fromStatus, toStatus: findingEvents.toStatus, note: findingEvents.note, data: findingEvents.data, at: findingEvents.at, actorId: findingEvents.actorId, actorName: actor.name })

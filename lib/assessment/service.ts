@@ -19,6 +19,7 @@ import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
 import { worstCasesForRooms } from "@/lib/temperatures/queries";
 import { selectWorstCase } from "@/lib/temperatures/worst-case";
+import { warmUpsOfUnits } from "@/lib/temperatures/warm-up";
 import { PROCESS_KEY } from "./process-key";
 import {
   assessLocation,
@@ -194,6 +195,7 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
     byUnit.set(c.storageUnitId, list);
   }
   const worstCases = worstCasesForRooms(db, liveRoomIds, nowMs);
+  const warmUps = new Map([...warmUpsOfUnits(db, unitRows.map((u) => u.id))].map(([id, w]) => [id, { tauMin: w.tauMin, source: w.source, reason: w.reason }]));
   const unitsByRoom = new Map<number, (typeof unitRows)[number][]>();
   for (const u of unitRows) {
     const list = unitsByRoom.get(u.roomId) ?? [];
@@ -229,6 +231,7 @@ export function buildSnapshots(db: DbOrTx, roomIds: number[], nowMs: number, lib
         ventilated: u.ventilated,
         ignitionSourceFree: u.ignitionSourceFree,
         setRange: u.setMinC == null && u.setMaxC == null ? null : { minC: u.setMinC, maxC: u.setMaxC },
+        warmUp: warmUps.get(u.id) ?? null,
         worstCase: { inControl: worst.controlled ? worst.inControl : null, controlLost: worst.controlLost },
       };
       snapshots.push({ kind: "unit", unit, room, contents: byUnit.get(u.id) ?? [] });
@@ -261,6 +264,7 @@ export function toStoredCandidate(c: CandidateFinding): FindingCandidate {
     unit: c.unit,
     worstCaseTempC: c.worstCaseTempC,
     worstCaseSource: c.worstCaseSource,
+    timeToDanger: c.timeToDanger,
     get trace() {
       return c.trace;
     },

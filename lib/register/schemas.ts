@@ -58,7 +58,7 @@ const oneOrMore = <const T extends readonly [string, ...string[]]>(label: string
 export const REGISTER_VIEW_KINDS = ["lines", "flat", "locations"] as const;
 export type RegisterViewKind = (typeof REGISTER_VIEW_KINDS)[number];
 
-export const FINDING_SORTS = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age", "updated"] as const;
+export const FINDING_SORTS = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "timeToDanger", "age", "updated"] as const;
 
 export const findingListQuerySchema = listQuerySchema({
   sortable: FINDING_SORTS,

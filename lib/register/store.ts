@@ -2,6 +2,7 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import { preparedOn, type DbOrTx } from "@/db/client";
 import { findingEvents, traceSources, type Finding, type FindingStatus, type Scenario, type Severity } from "@/db/schema";
+import type { TimeToDanger } from "@/lib/assessment/rules/types";
 import { citingWith, traceText } from "./trace-text";
 
 /** What an assessment rule says about one location under one scenario (see lib/assessment). */
@@ -28,8 +29,7 @@ export type FindingCandidate = {
   trace: unknown;
 };
 
-/** Minutes after a failure at which a threshold is crossed (0: already at the set temperature), its label and temperature. */
-export type TimeToDanger = { minutes: number; threshold: string; tempC: number };
+export type { TimeToDanger };
 
 export type FindingChange = { kind: "raised" | "reopened" | "escalated"; finding: Finding };
 export type ReconcileResult = { raised: number; updated: number; resolved: number; reopened: number; unchanged: number; changes: FindingChange[] };

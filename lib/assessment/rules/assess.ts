@@ -12,7 +12,7 @@
  * - Data missing for any of these raises a missing-data finding.
  */
 import { createAssessmentCache, type AssessmentCache } from "./cache";
-import { AssessmentContext, isClosedUnit } from "./context";
+import { AssessmentContext, Finding, isClosedUnit, type ScenarioView } from "./context";
 import { cryogenRules } from "./cryogens";
 import { enclosureRule } from "./enclosure";
 import { flashPointAndBoilingRules } from "./flash-point-and-boiling";
@@ -22,6 +22,7 @@ import { quantityRule } from "./quantities";
 import { roomScenario, unitScenarios } from "./scenarios";
 import { DEFAULT_ASSESSMENT_SETTINGS } from "./severity";
 import { spillRules } from "./spill";
+import { attachTimeToDanger } from "./time-to-danger";
 import type { AssessmentSettings, CandidateFinding, LocationSnapshot } from "./types";
 
 export type AssessOptions = {
@@ -35,14 +36,19 @@ export function assessLocation(
   options: AssessOptions = {},
 ): CandidateFinding[] {
   const ctx = new AssessmentContext(snapshot, settings, options.cache ?? createAssessmentCache());
-  if (ctx.unit !== null) assessUnit(ctx);
-  else assessRoom(ctx);
+  if (ctx.unit !== null) {
+    const views = assessUnit(ctx);
+    attachTimeToDanger(snapshot, settings, ctx.results() as Finding[], {
+      inControl: views.find((v) => v.scenario === "in_control") ?? null,
+      controlLost: views.find((v) => v.scenario === "control_lost") ?? null,
+    });
+  } else assessRoom(ctx);
   return ctx.results();
 }
 
-function assessUnit(ctx: AssessmentContext): void {
+function assessUnit(ctx: AssessmentContext): ScenarioView[] {
   const unit = ctx.unit;
-  if (unit === null) return;
+  if (unit === null) return [];
   const views = unitScenarios(ctx);
   ignitionSourceRule(ctx);
   quantityRule(ctx);
@@ -51,6 +57,7 @@ function assessUnit(ctx: AssessmentContext): void {
     if (volume) enclosureRule(ctx, view, volume);
     flashPointAndBoilingRules(ctx, view);
   }
+  return views;
 }
 
 function assessRoom(ctx: AssessmentContext): void {

@@ -19,6 +19,7 @@ import type {
   StoredContent,
   StoredLiquid,
   SubstanceSnapshot,
+  TimeToDanger,
   TraceContainer,
   UnitInfo,
 } from "./types";
@@ -432,6 +433,12 @@ export class AssessmentContext {
   results(): CandidateFinding[] {
     return [...this.findings.values()];
   }
+
+  /** Forgets the findings collected so far: the same location's rules can then run again at another temperature (time-to-danger.ts). */
+  clearFindings(): void {
+    this.findings.clear();
+    this.missingSeen.clear();
+  }
 }
 
 /**
@@ -439,8 +446,11 @@ export class AssessmentContext {
  * so the trace is built only when it is read. `toJSON()` (and so JSON.stringify) includes it;
  * copy a finding with `toPlain()`, not with a spread (a spread leaves the getter behind).
  */
-class Finding implements CandidateFinding {
+export class Finding implements CandidateFinding {
   private traceCache: FindingTrace | null = null;
+  /** Set after the rules by the time-to-danger pass (time-to-danger.ts). */
+  timeToDanger: TimeToDanger | null = null;
+  private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[] }) | null = null;
   constructor(
     readonly fingerprint: string,
     readonly rule: RuleId,
@@ -464,8 +474,21 @@ class Finding implements CandidateFinding {
   ) {}
 
   get trace(): FindingTrace {
-    this.traceCache ??= this.safeTrace();
+    this.traceCache ??= this.withTimeToDanger(this.safeTrace());
     return this.traceCache;
+  }
+
+  /** Records when after a failure this finding's severity is reached, with the trace steps that show it. */
+  setTimeToDanger(value: TimeToDanger | null, trace: () => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[] }): void {
+    this.timeToDanger = value;
+    this.timeToDangerTrace = trace;
+    this.traceCache = null;
+  }
+
+  private withTimeToDanger(trace: FindingTrace): FindingTrace {
+    if (this.timeToDangerTrace === null) return trace;
+    const extra = this.timeToDangerTrace();
+    return { ...trace, inputs: [...trace.inputs, ...extra.inputs], steps: [...trace.steps, ...extra.steps], warnings: [...trace.warnings, ...extra.warnings] };
   }
 
   /** The engine re-checks its inputs while tracing; should it refuse one, the finding keeps a trace saying why. */
@@ -507,6 +530,7 @@ class Finding implements CandidateFinding {
       unit: this.unit,
       worstCaseTempC: this.worstCaseTempC,
       worstCaseSource: this.worstCaseSource,
+      timeToDanger: this.timeToDanger,
       trace: this.trace,
       containerIds: this.containerIds,
     };

@@ -109,6 +109,15 @@ export type RoomInfo = {
   readonly worstCase: WorstCase | null;
 };
 
+/** A unit's warm-up time constant τ (Newton's law of heating) with where it comes from, as a sentence for traces. */
+export type UnitWarmUpInfo = { readonly tauMin: number; readonly source: "fitted" | "default" | "set"; readonly reason: string };
+
+/**
+ * Control-lost findings: minutes after a failure at which the contents reach the finding's severity
+ * (0: already at the in-control worst case), the threshold's short label and its temperature.
+ */
+export type TimeToDanger = { readonly minutes: number; readonly threshold: string; readonly tempC: number };
+
 export type UnitInfo = {
   readonly id: number;
   readonly code: string;
@@ -119,6 +128,8 @@ export type UnitInfo = {
   readonly ignitionSourceFree: boolean;
   /** Null for a unit without temperature control. */
   readonly setRange: { readonly minC: number | null; readonly maxC: number | null } | null;
+  /** Temperature-controlled units: the warm-up time constant after a failure (set, fitted or default), for the time to danger. */
+  readonly warmUp?: UnitWarmUpInfo | null;
   readonly worstCase: {
     /** The unit's own worst case. For a unit without temperature control, null means "use the room's". */
     readonly inControl: WorstCase | null;
@@ -325,6 +336,8 @@ export type PlainCandidateFinding = {
   readonly unit: string | null;
   readonly worstCaseTempC: number | null;
   readonly worstCaseSource: string | null;
+  /** Control-lost findings at a unit with a warm-up: when after a failure the finding's severity is reached; null otherwise. */
+  readonly timeToDanger: TimeToDanger | null;
   /** The calculation trace. */
   readonly trace: FindingTrace;
   /** Every container the finding concerns (for visibility and alerts). */

@@ -105,6 +105,7 @@ describe("finding traces", () => {
       "unit",
       "worstCaseTempC",
       "worstCaseSource",
+      "timeToDanger",
       "trace",
       "containerIds",
     ]);
