@@ -90,3 +90,4 @@ export {
   type OxygenResult,
 } from './cryogens';
 export { warmUpTemperatureC, warmUpMinutesToReach, type WarmUp } from './warm-up';
+export { enclosedSpillTimes, type EnclosedSpillInput, type EnclosedSpillResult, type EnclosedSpillTime } from './enclosed-spill';

@@ -450,7 +450,7 @@ export class Finding implements CandidateFinding {
   private traceCache: FindingTrace | null = null;
   /** Set after the rules by the time-to-danger pass (time-to-danger.ts). */
   timeToDanger: TimeToDanger | null = null;
-  private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[] }) | null = null;
+  private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[] }) | null = null;
   constructor(
     readonly fingerprint: string,
     readonly rule: RuleId,
@@ -479,7 +479,7 @@ export class Finding implements CandidateFinding {
   }
 
   /** Records when after a failure this finding's severity is reached, with the trace steps that show it. */
-  setTimeToDanger(value: TimeToDanger | null, trace: () => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[] }): void {
+  setTimeToDanger(value: TimeToDanger | null, trace: () => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[] }): void {
     this.timeToDanger = value;
     this.timeToDangerTrace = trace;
     this.traceCache = null;
@@ -488,7 +488,13 @@ export class Finding implements CandidateFinding {
   private withTimeToDanger(trace: FindingTrace): FindingTrace {
     if (this.timeToDangerTrace === null) return trace;
     const extra = this.timeToDangerTrace();
-    return { ...trace, inputs: [...trace.inputs, ...extra.inputs], steps: [...trace.steps, ...extra.steps], warnings: [...trace.warnings, ...extra.warnings] };
+    return {
+      ...trace,
+      inputs: [...trace.inputs, ...extra.inputs],
+      steps: [...trace.steps, ...extra.steps],
+      warnings: [...trace.warnings, ...extra.warnings],
+      parts: [...trace.parts, ...(extra.parts ?? [])],
+    };
   }
 
   /** The engine re-checks its inputs while tracing; should it refuse one, the finding keeps a trace saying why. */

@@ -17,6 +17,7 @@
  */
 import type { Severity } from "@/db/enums";
 import { traceStep, traceValue, warmUpMinutesToReach, type TraceStep, type TraceValue } from "@/lib/hazard";
+import { brokenBottles, type BrokenBottle } from "./broken-bottle";
 import { createAssessmentCache } from "./cache";
 import { AssessmentContext, Finding, isClosedUnit, type ScenarioView } from "./context";
 import { enclosureRule } from "./enclosure";
@@ -142,6 +143,10 @@ export function attachTimeToDanger(
   for (const f of findings) if (f.scenario === "in_control") inControlSeverity.set(f.fingerprint.slice(0, -"in_control".length), f.severity);
   const severityAtStart = (finding: Finding) => inControlSeverity.get(finding.fingerprint.slice(0, -"control_lost".length)) ?? null;
 
+  // A broken bottle inside, for the vapor findings' traces: computed only when a trace is read.
+  let bottleMemo: BrokenBottle[] | null = null;
+  const bottles = () => (bottleMemo ??= brokenBottles(snapshot, settings) ?? []);
+
   for (const finding of targets) {
     const finalRank = severityRank(finding.severity);
     const crossings: ThresholdCrossing[] = [];
@@ -182,7 +187,12 @@ export function attachTimeToDanger(
     const own = kept.find((c) => severityRank(c.severity) >= finalRank) ?? null;
     const value: TimeToDanger | null =
       own !== null && own.minutes !== null ? { minutes: Math.round(own.minutes * 10) / 10, threshold: own.threshold, tempC: Math.round(own.tempC * 100) / 100 } : null;
-    finding.setTimeToDanger(value, () => timeToDangerTrace({ crossings: kept, startTempC, roomTempC, warmUp, views, warm }));
+    finding.setTimeToDanger(value, () => {
+      const trace = timeToDangerTrace({ crossings: kept, startTempC, roomTempC, warmUp, views, warm });
+      const bottle = finding.rule === "enclosure-lfl" && finding.substanceId !== null ? bottles().find((b) => b.substanceId === finding.substanceId) : undefined;
+      if (!bottle) return trace;
+      return { ...trace, steps: [...trace.steps, brokenBottleStep(bottle)], parts: [bottle.result.trace] };
+    });
   }
 }
 
@@ -237,4 +247,24 @@ function timeToDangerTrace(input: {
   if (crossings.some((c) => c.minutes === null && c.tempC > startTempC))
     warnings.push(`Thresholds above the room's worst case (${roomTempC === null ? "unknown" : formatTempC(roomTempC)}) are reached only in a recorded excursion peak, not by warming to the room.`);
   return { steps, inputs, warnings };
+}
+
+/** "A broken 1 L bottle of diethyl ether reaches 25 % LFL after 2 min and the LFL after 9 min." */
+export function brokenBottleSentence(bottle: BrokenBottle): string {
+  const size = bottle.volumeL >= 1 ? `${formatSig(bottle.volumeL, 3)} L` : `${formatSig(bottle.volumeL * 1000, 3)} mL`;
+  const parts = bottle.result.times.map((t) => {
+    const label = t.lflFraction === 1 ? "the LFL" : `${formatSig(t.lflFraction * 100, 3)} % LFL`;
+    if (t.minutes === null) return `never ${label} (${t.limitedBy === "saturation" ? "its vapor pressure is too low" : "the bottle holds too little"})`;
+    return t.minutes < 1 ? `${label} in under a minute` : `${label} within about ${formatMinutes(t.minutes)}`;
+  });
+  return `A broken ${size} bottle of ${bottle.name} (${bottle.containerLabel}) at ${formatTempC(bottle.tempC)}: ${parts.join(", ")}.`;
+}
+
+function brokenBottleStep(bottle: BrokenBottle): TraceStep {
+  return traceStep(
+    "If the largest bottle broke inside (at the in-control worst case): pool evaporation into the still air of the unit",
+    "p(t) = Psat·(1 − e^(−t/θ)); t = −θ·ln(1 − f·LFL·Patm/Psat)",
+    brokenBottleSentence(bottle),
+    traceValue("Broken bottle: time to 25 % LFL", "t_25", bottle.result.times[0]?.minutes ?? "never", "min"),
+  );
 }

@@ -13,6 +13,7 @@ import { getSubstance } from "@/db/queries/substances";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime, formatTempC } from "@/lib/format/numbers";
+import { formatMinutes } from "@/lib/assessment/rules/time-to-danger";
 import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
 import { idParam } from "@/lib/http/paging";
 import { contributingContainers } from "@/lib/register/finding-containers";
@@ -110,6 +111,19 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
               <Figure label="Ratio" value={ratioText} note={finding.ratio != null && finding.ratio > 1 ? "The limit is crossed." : undefined} />
               <Figure label="Worst-case temperature" value={formatTempC(finding.worstCaseTempC)} note={finding.worstCaseSource ?? undefined} />
               <Figure label="Scenario" value={<span className="text-base">{SCENARIO_LABELS[finding.scenario]}</span>} />
+              {finding.scenario === "control_lost" ? (
+                <Figure
+                  label="Time to danger"
+                  value={finding.timeToDanger == null ? "—" : finding.timeToDanger.minutes === 0 ? "Now" : formatMinutes(finding.timeToDanger.minutes)}
+                  note={
+                    finding.timeToDanger == null
+                      ? "Not reached by warming to the room's worst case."
+                      : finding.timeToDanger.minutes === 0
+                        ? `At the ${finding.timeToDanger.threshold} already at the in-control worst case.`
+                        : `Reaches the ${finding.timeToDanger.threshold} (${formatTempC(finding.timeToDanger.tempC)}) this long after a failure.`
+                  }
+                />
+              ) : null}
               <Figure label="Containers" value={contributors.rows.length} note={contributors.rows.length === 1 ? "contributes" : "contribute"} />
             </dl>
           </section>

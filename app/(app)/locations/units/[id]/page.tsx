@@ -18,6 +18,8 @@ import { UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
 import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
 import { PlaceFindings } from "../../place-findings";
+import { BrokenBottlesCard } from "@/components/register/broken-bottles-card";
+import { brokenBottlesOfUnit } from "@/lib/assessment/broken-bottles";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -28,6 +30,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   if (!unit || unit.retiredAt) notFound();
   const stored = containersAt({ storageUnitId: unit.id });
   const mayEdit = can(user.role, "locations.write");
+  const bottles = brokenBottlesOfUnit(unit);
   const owners = mayEdit ? activeUserOptions().map((p) => ({ value: String(p.id), label: p.name })) : [];
   return (
     <div className="space-y-6">
@@ -62,6 +65,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       </dl>
       <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
       <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
+      {bottles ? <BrokenBottlesCard bottles={bottles} unitCode={unit.code} /> : null}
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>
         <ContainersTable rows={stored} showUnit={false} />
