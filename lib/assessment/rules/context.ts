@@ -450,6 +450,8 @@ export class Finding implements CandidateFinding {
   private traceCache: FindingTrace | null = null;
   /** Set after the rules by the time-to-danger pass (time-to-danger.ts). */
   timeToDanger: TimeToDanger | null = null;
+  /** Control-lost findings: every severity threshold on the way up, with its temperature (time-to-danger.ts; not stored). */
+  thresholdTemps: readonly { severity: Severity; threshold: string; tempC: number }[] | null = null;
   private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[] }) | null = null;
   constructor(
     readonly fingerprint: string,

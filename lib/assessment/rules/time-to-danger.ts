@@ -187,6 +187,7 @@ export function attachTimeToDanger(
     const own = kept.find((c) => severityRank(c.severity) >= finalRank) ?? null;
     const value: TimeToDanger | null =
       own !== null && own.minutes !== null ? { minutes: Math.round(own.minutes * 10) / 10, threshold: own.threshold, tempC: Math.round(own.tempC * 100) / 100 } : null;
+    finding.thresholdTemps = kept.map((c) => ({ severity: c.severity, threshold: c.threshold, tempC: c.tempC }));
     finding.setTimeToDanger(value, () => {
       const trace = timeToDangerTrace({ crossings: kept, startTempC, roomTempC, warmUp, views, warm });
       const bottle = finding.rule === "enclosure-lfl" && finding.substanceId !== null ? bottles().find((b) => b.substanceId === finding.substanceId) : undefined;
