@@ -36,13 +36,15 @@ export function UserRowActions({
           <label className="sr-only" htmlFor={`role-${userId}`}>
             Role of {name}
           </label>
-          <select id={`role-${userId}`} name="role" defaultValue={role} className={`${inputClass} h-8 w-40 shrink-0 py-0`}>
-            {ROLES.map((r) => (
-              <option key={r} value={r}>
-                {ROLE_LABELS[r]}
-              </option>
-            ))}
-          </select>
+          <div className="w-40 shrink-0">
+            <select id={`role-${userId}`} name="role" defaultValue={role} className={`${inputClass} h-8 py-0`}>
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
+              ))}
+            </select>
+          </div>
           <Button type="submit" size="sm" variant="secondary" disabled={rolePending} aria-label={`Save role of ${name}`}>
             Save
           </Button>
