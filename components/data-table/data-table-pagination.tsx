@@ -3,7 +3,7 @@
 import { ChevronLeft, ChevronRight, ChevronsLeft, ChevronsRight, type LucideIcon } from "lucide-react";
 import { useId } from "react";
 import { formatCount } from "@/lib/format/numbers";
-import { controlClass } from "./data-table-toolbar";
+import { controlClass } from "./search-box";
 
 function PageButton({ label, icon: Icon, disabled, onClick }: { label: string; icon: LucideIcon; disabled: boolean; onClick: () => void }) {
   return (

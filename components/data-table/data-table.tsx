@@ -8,6 +8,8 @@ import { formatCount } from "@/lib/format/numbers";
 import { dataTableFeatures, type DataTableColumn } from "./features";
 import { DataTablePagination } from "./data-table-pagination";
 import { DataTableToolbar } from "./data-table-toolbar";
+import { priorityCellClass, priorityStandInClass, SecondaryValues, TABLE_CONTAINER_CLASS, type ColumnPriority, type SecondaryValue } from "./priority";
+import { controlClass } from "./search-box";
 import { useListPage } from "./use-list-page";
 import {
   DEFAULT_PAGE_SIZES,
@@ -41,6 +43,8 @@ export type DataTableProps<Row extends RowData> = {
   /** Shown when nothing matches. */
   emptyMessage?: string;
   pageSizes?: readonly number[];
+  /** Raise it when the rows changed on the server by other means (a step on selected rows): the page is fetched again. */
+  version?: number;
 };
 
 const NO_FILTERS: DataTableFilters = {};
@@ -49,6 +53,13 @@ const ROWS_NOUN = { one: "row", other: "rows" };
 function ariaSort(sorted: boolean, dir: SortDir): "ascending" | "descending" | "none" {
   if (!sorted) return "none";
   return dir === "asc" ? "ascending" : "descending";
+}
+
+/** A column's name in words: its label, else its header text, with the unit in brackets. */
+function columnName(column: { id: string; columnDef: { header?: unknown; meta?: { label?: string; unit?: string } } }): string {
+  const { header, meta } = column.columnDef;
+  const name = meta?.label ?? (typeof header === "string" ? header : column.id);
+  return meta?.unit ? `${name} (${meta.unit})` : name;
 }
 
 function matchText(total: number, noun: { one: string; other: string }): string {
@@ -72,6 +83,7 @@ export function DataTable<Row extends RowData>({
   noun = ROWS_NOUN,
   emptyMessage = "Nothing matches these filters.",
   pageSizes = DEFAULT_PAGE_SIZES,
+  version = 0,
 }: DataTableProps<Row>) {
   const router = useRouter();
   const pathname = usePathname();
@@ -97,7 +109,7 @@ export function DataTable<Row extends RowData>({
   const onFilterChange = useCallback((param: string, value: string) => update({ filters: { [param]: value } }), [update]);
 
   const requestUrl = `${apiUrl}?${apiSearchParams(state).toString()}`;
-  const { page: result, error, loading, retry } = useListPage<Row>(requestUrl);
+  const { page: result, error, loading, retry } = useListPage<Row>(requestUrl, version);
   const rows = result?.data ?? (EMPTY_ROWS as Row[]);
   const total = result?.total ?? 0;
   const pages = countPages(total, state.pageSize);
@@ -134,21 +146,51 @@ export function DataTable<Row extends RowData>({
   });
 
   const visibleColumns = table.getAllLeafColumns().length;
+  // A narrow table hides some sortable columns' headers: a "Sort by" choice stands in for them.
+  const sortChoices = table
+    .getAllLeafColumns()
+    .filter((column) => sortable.includes(column.id))
+    .map((column) => ({ id: column.id, name: columnName(column), priority: column.columnDef.meta?.priority ?? 1 }));
+  const sortStandIn = Math.max(1, ...sortChoices.map((choice) => choice.priority)) as ColumnPriority;
   const firstLoad = loading && !result;
   const countText = firstLoad ? "Loading…" : error && !result ? "" : matchText(total, noun);
 
   return (
-    <div className="rounded-lg border border-ink-200 bg-white">
+    <div className={`${TABLE_CONTAINER_CLASS} rounded-lg border border-ink-200 bg-white`}>
       <DataTableToolbar filters={filters} values={state.filters} onChange={onFilterChange} />
 
-      <div className="flex items-center justify-between gap-3 px-3 py-2 text-sm">
-        <p id={countId} aria-live="polite" className="tabular font-medium text-ink-800">
-          {countText}
-        </p>
-        {loading && !firstLoad ? (
-          <span className="text-xs text-ink-500" aria-hidden="true">
-            Updating…
+      <div className="flex flex-wrap items-center justify-between gap-3 px-3 py-2 text-sm">
+        <p className="flex items-baseline gap-3">
+          <span id={countId} aria-live="polite" className="tabular font-medium text-ink-800">
+            {countText}
           </span>
+          {loading && !firstLoad ? (
+            <span className="text-xs text-ink-500" aria-hidden="true">
+              Updating…
+            </span>
+          ) : null}
+        </p>
+        {sortStandIn > 1 ? (
+          <label className={`flex items-center gap-2 text-xs font-medium text-ink-700 ${priorityStandInClass(sortStandIn)}`}>
+            Sort by
+            <select
+              value={`${state.sort}:${state.dir}`}
+              onChange={(event) => {
+                const [sort, dir] = event.target.value.split(":");
+                table.setSorting([{ id: sort, desc: dir === "desc" }]);
+              }}
+              className={`${controlClass} h-8 pr-8`}
+            >
+              {sortChoices.flatMap((choice) => [
+                <option key={`${choice.id}:asc`} value={`${choice.id}:asc`}>
+                  {choice.name}, ascending
+                </option>,
+                <option key={`${choice.id}:desc`} value={`${choice.id}:desc`}>
+                  {choice.name}, descending
+                </option>,
+              ])}
+            </select>
+          </label>
         ) : null}
       </div>
 
@@ -200,7 +242,7 @@ export function DataTable<Row extends RowData>({
                       scope="col"
                       colSpan={header.colSpan > 1 ? header.colSpan : undefined}
                       aria-sort={canSort ? ariaSort(sorted, state.dir) : undefined}
-                      className={`sticky top-0 whitespace-nowrap bg-ink-50 px-3 py-0 text-xs font-semibold text-ink-700 shadow-[inset_0_-1px_0_var(--color-ink-200)] ${meta?.rowHeader ? "left-0 z-20" : "z-10"} ${end ? "text-right" : "text-left"}`}
+                      className={`sticky top-0 whitespace-nowrap bg-ink-50 px-3 py-0 text-xs font-semibold text-ink-700 shadow-[inset_0_-1px_0_var(--color-ink-200)] ${meta?.rowHeader ? "left-0 z-20" : "z-10"} ${end ? "text-right" : "text-left"} ${priorityCellClass(meta?.priority)}`}
                     >
                       {canSort ? (
                         <button
@@ -250,11 +292,20 @@ export function DataTable<Row extends RowData>({
                 <tr key={row.id} className="group hover:bg-accent-50">
                   {row.getAllCells().map((cell) => {
                     const meta = cell.column.columnDef.meta;
-                    const className = `border-b border-ink-100 px-3 py-1.5 align-baseline ${meta?.align === "end" ? "text-right whitespace-nowrap" : "text-left"} ${meta?.className ?? ""}`;
+                    const className = `border-b border-ink-100 px-3 py-1.5 align-baseline ${meta?.align === "end" ? "text-right whitespace-nowrap" : "text-left"} ${meta?.className ?? ""} ${priorityCellClass(meta?.priority)}`;
                     return meta?.rowHeader ? (
-                      // The row header stays in view when the table scrolls sideways on a narrow screen.
+                      // The row header stays in view when the table scrolls sideways on a narrow screen,
+                      // and carries the values of the columns a narrow table leaves out.
                       <th key={cell.id} scope="row" className={`${className} sticky left-0 z-[1] bg-white font-medium group-hover:bg-accent-50`}>
                         <table.FlexRender cell={cell} />
+                        <SecondaryValues
+                          items={row.getAllCells().flatMap((other): SecondaryValue[] => {
+                            const otherMeta = other.column.columnDef.meta;
+                            const priority = otherMeta?.priority ?? 1;
+                            if (priority === 1 || otherMeta?.secondary === false) return [];
+                            return [{ key: other.id, label: columnName(other.column), value: <table.FlexRender cell={other} />, priority }];
+                          })}
+                        />
                       </th>
                     ) : (
                       <td key={cell.id} className={className}>

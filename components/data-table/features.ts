@@ -1,3 +1,4 @@
+import type { ColumnPriority } from "./priority";
 import { createColumnHelper, metaHelper, rowPaginationFeature, rowSortingFeature, tableFeatures, type ColumnDef, type RowData } from "@tanstack/react-table";
 
 /** What a column tells the table about its presentation. */
@@ -10,6 +11,15 @@ export type DataTableColumnMeta = {
   rowHeader?: boolean;
   /** Extra classes for the cells (width, monospace…). */
   className?: string;
+  /**
+   * 1 (the default) keeps the column at every width; 2–4 let it give way on a narrow table, its
+   * value then shown under the row header (see `ColumnPriority`). Give the table a row header.
+   */
+  priority?: ColumnPriority;
+  /** The name shown before the value under the row header; the header text unless given. */
+  label?: string;
+  /** false: leave a hidden column's value out of the line under the row header (it shows it already). */
+  secondary?: boolean;
 };
 
 /**

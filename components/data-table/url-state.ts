@@ -18,7 +18,7 @@ export type SelectFilter = {
 
 export type DataTableFilters = {
   /** A search box bound to `q`. */
-  search?: { label: string; placeholder?: string };
+  search?: { label: string; placeholder?: string; maxLength?: number };
   selects?: readonly SelectFilter[];
 };
 

@@ -30,10 +30,10 @@ async function readError(response: Response): Promise<string> {
  * One page of a list from the JSON API. A new URL aborts the request still in flight, so a slow
  * answer to an old query can never overwrite a newer one.
  */
-export function useListPage<Row>(url: string) {
+export function useListPage<Row>(url: string, version = 0) {
   const [attempt, setAttempt] = useState(0);
   const [settled, setSettled] = useState<Settled<Row>>({ key: null, page: null, error: null });
-  const key = `${attempt} ${url}`;
+  const key = `${attempt} ${version} ${url}`;
 
   useEffect(() => {
     const controller = new AbortController();

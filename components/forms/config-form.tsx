@@ -18,7 +18,9 @@ export type FieldSection = { legend?: string; fields: FieldConfig[] };
 
 type Action = (previous: FormState | undefined, formData: FormData) => Promise<FormState>;
 
-const SPAN = { 1: "", 2: "sm:col-span-2", 3: "sm:col-span-2 lg:col-span-3" } as const;
+// Columns follow the form's own width, not the window's, so a select keeps room for its longest
+// choice (about 20 rem a column) whether the form fills the page or sits beside a panel.
+const SPAN = { 1: "", 2: "@2xl/form:col-span-2", 3: "@2xl/form:col-span-2 @5xl/form:col-span-3" } as const;
 
 function Control({ field, config }: { field: FieldMetadata<unknown>; config: FieldConfig }) {
   const aria = describedBy(field.id, config.hint, field.errors);
@@ -92,13 +94,13 @@ export function ConfigForm<S extends z.ZodObject>({
   };
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
   return (
-    <form {...getFormProps(form)} action={dispatch} noValidate className="space-y-6">
+    <form {...getFormProps(form)} action={dispatch} noValidate className="@container/form space-y-6">
       <FormMessage id={form.errorId} errors={form.errors} success={success} />
       {Object.entries(hidden ?? {}).map(([name, value]) => (
         <input key={name} type="hidden" name={name} value={value} />
       ))}
       {sections.map((section, index) => (
-        <fieldset key={section.legend ?? index} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+        <fieldset key={section.legend ?? index} className="grid gap-4 @2xl/form:grid-cols-2 @5xl/form:grid-cols-3">
           {section.legend ? <legend className="mb-2 text-sm font-semibold text-ink-900">{section.legend}</legend> : null}
           {section.fields.map((config) => {
             const field = fieldFor(config.name);

@@ -60,6 +60,9 @@ export type RegisterViewKind = (typeof REGISTER_VIEW_KINDS)[number];
 
 export const FINDING_SORTS = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "timeToDanger", "age", "updated"] as const;
 
+/** The longest search of the register (`q`). */
+export const FINDING_SEARCH_MAX_LENGTH = 100;
+
 export const findingListQuerySchema = listQuerySchema({
   sortable: FINDING_SORTS,
   defaultSort: "severity",
@@ -78,7 +81,7 @@ export const findingListQuerySchema = listQuerySchema({
       .optional()
       .transform((v) => v === "true"),
     rule: z.string().trim().max(60, "rule is at most 60 characters.").optional(),
-    q: z.string().trim().max(100, "q is at most 100 characters.").optional(),
+    q: z.string().trim().max(FINDING_SEARCH_MAX_LENGTH, `q is at most ${FINDING_SEARCH_MAX_LENGTH} characters.`).optional(),
     /** The register page's view: one line per problem, every finding, or by location (the API ignores it). */
     view: z.enum(REGISTER_VIEW_KINDS, { error: `view must be one of: ${REGISTER_VIEW_KINDS.join(", ")}.` }).optional(),
   },

@@ -204,6 +204,25 @@ describe("POST /api/v1/findings/events", () => {
     expect(own.map((id) => eventsOf(id).filter((e) => e.kind === "acknowledged").length)).toEqual([1, 1, 1]);
   });
 
+  it("takes a step on a whole page of the flat list (every finding), each finding once, and on nothing else", async () => {
+    // The flat view's page box selects the ids of the page it shows: page 2 of the researcher's findings, worst first.
+    const page = async (n: number) => {
+      const res = await call(listRoute.GET, { path: `/api/v1/findings?status=all&sort=severity&dir=desc&pageSize=10&page=${n}`, cookie: await sessionCookieFor(researcher) });
+      expect(res.status).toBe(200);
+      return (res.body.data as FindingListRow[]).map((f) => f.id);
+    };
+    const [first, second] = [await page(1), await page(2)];
+    expect(second).toHaveLength(10);
+    expect(second.filter((id) => first.includes(id))).toEqual([]);
+    const note = "Checked on the walk-round of 2026-12-03.";
+    const commentsWith = (id: number) => eventsOf(id).filter((e) => e.kind === "comment" && e.note === note).length;
+    const res = await post(researcher, { findingIds: second, kind: "comment", note });
+    expect(res.status).toBe(200);
+    expect(res.body.data.map((r: { findingId: number; ok: boolean }) => [r.findingId, r.ok])).toEqual(second.map((id) => [id, true]));
+    expect(second.map(commentsWith)).toEqual(Array(10).fill(1));
+    expect(first.map(commentsWith)).toEqual(Array(first.length).fill(0));
+  });
+
   it("refuses a step the role may not take (403), bad input (400), and writes nothing", async () => {
     const ids = (await list(officer, { status: "open" })).data.slice(0, 2).map((f) => f.id);
     const before = ids.map(statusOf);

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { priorityCellClass, SecondaryValues, TABLE_CONTAINER_CLASS } from "@/components/data-table/priority";
 import { Card, PageHeader } from "@/components/ui/card";
 import { listUsers } from "@/db/queries/users";
 import { requirePagePermission } from "@/lib/auth/page";
@@ -33,39 +34,56 @@ export default async function AdminPage() {
         description={`${people.length} accounts${pending ? `, ${pending} invitation${pending === 1 ? "" : "s"} not yet accepted` : ""}. Roles decide what each person may see and change; the server checks them on every request.`}
       />
       <AdminTabs current="users" />
-      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_340px]">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-6 xl:grid-cols-[minmax(0,1fr)_340px]">
         <Card title={`People (${people.length})`}>
-          <div className="-mx-4 -my-4 overflow-x-auto">
-            <table className="w-full min-w-[900px] text-sm">
+          <div className={`${TABLE_CONTAINER_CLASS} -mx-4 -my-4 overflow-x-auto`}>
+            <table className="w-full text-sm">
               <thead className="sticky top-0 bg-ink-50">
                 <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
                   <th scope="col" className="px-4 py-2 font-medium">Name</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Role</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Status</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Last sign-in</th>
+                  <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Role</th>
+                  <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Status</th>
+                  <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(3)}`}>Last sign-in</th>
                   <th scope="col" className="px-4 py-2 font-medium">Change</th>
                 </tr>
               </thead>
               <tbody>
-                {people.map((person) => (
-                  <tr key={person.id} className="border-b border-ink-100 align-top last:border-0">
-                    <td className="px-4 py-3">
-                      <p className="font-medium text-ink-900">{person.name}</p>
-                      <p className="text-xs text-ink-600">{person.email}</p>
-                    </td>
-                    <td className="px-4 py-3 text-ink-800">{ROLE_LABELS[person.role]}</td>
-                    <td className="whitespace-nowrap px-4 py-3 text-xs font-medium">
-                      <StatusText active={person.active} activated={person.hasPassword} />
-                    </td>
-                    <td className="tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600">
+                {people.map((person) => {
+                  const role = ROLE_LABELS[person.role];
+                  const status = <StatusText active={person.active} activated={person.hasPassword} />;
+                  const lastSignIn = (
+                    <>
                       {person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}
                       <span className="block">{sessionText(sessionCounts.get(person.id) ?? 0)}</span>
-                    </td>
-                    <td className="px-4 py-3">
-                      <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} sessionCount={sessionCounts.get(person.id) ?? 0} />
-                    </td>
-                  </tr>
-                ))}
+                    </>
+                  );
+                  return (
+                    <tr key={person.id} className="border-b border-ink-100 align-top last:border-0">
+                      <th scope="row" className="px-4 py-3 text-left font-normal">
+                        <p className="font-medium text-ink-900">{person.name}</p>
+                        <p className="text-xs text-ink-600">{person.email}</p>
+                        <SecondaryValues
+                          items={[
+                            { key: "role", label: "Role", value: role, priority: 2 },
+                            { key: "status", label: "Status", value: status, priority: 2 },
+                            {
+                            key: "signIn",
+                            label: "Last sign-in",
+                            value: `${person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"} · ${sessionText(sessionCounts.get(person.id) ?? 0)}`,
+                            priority: 3,
+                          },
+                          ]}
+                        />
+                      </th>
+                      <td className={`px-4 py-3 text-ink-800 ${priorityCellClass(2)}`}>{role}</td>
+                      <td className={`whitespace-nowrap px-4 py-3 text-xs font-medium ${priorityCellClass(2)}`}>{status}</td>
+                      <td className={`tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600 ${priorityCellClass(3)}`}>{lastSignIn}</td>
+                      <td className="px-4 py-3">
+                        <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} sessionCount={sessionCounts.get(person.id) ?? 0} />
+                      </td>
+                    </tr>
+                  );
+                })}
               </tbody>
             </table>
           </div>

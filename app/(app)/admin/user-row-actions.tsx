@@ -30,19 +30,21 @@ export function UserRowActions({
   const errorText = message?.error ? Object.values(message.error).flat().join(" ") : undefined;
   return (
     <div className="space-y-1.5">
-      <div className="flex flex-nowrap items-center gap-2">
+      <div className="flex flex-wrap items-center gap-2 [&_button]:whitespace-nowrap">
         <form action={changeRole} className="flex items-center gap-2">
           <input type="hidden" name="userId" value={userId} />
           <label className="sr-only" htmlFor={`role-${userId}`}>
             Role of {name}
           </label>
-          <select id={`role-${userId}`} name="role" defaultValue={role} className={`${inputClass} h-8 w-40 py-0`}>
-            {ROLES.map((r) => (
-              <option key={r} value={r}>
-                {ROLE_LABELS[r]}
-              </option>
-            ))}
-          </select>
+          <div className="w-40 shrink-0">
+            <select id={`role-${userId}`} name="role" defaultValue={role} className={`${inputClass} h-8 py-0`}>
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
+              ))}
+            </select>
+          </div>
           <Button type="submit" size="sm" variant="secondary" disabled={rolePending} aria-label={`Save role of ${name}`}>
             Save
           </Button>

@@ -1,3 +1,4 @@
+import { priorityCellClass, SecondaryValues, TABLE_CONTAINER_CLASS } from "@/components/data-table/priority";
 import type { ImportColumn } from "@/lib/imports";
 
 function accepted(column: ImportColumn): string {
@@ -12,16 +13,16 @@ function accepted(column: ImportColumn): string {
 /** Every column a file may have, with what it means and what it accepts. */
 export function ColumnReference({ columns, caption }: { columns: readonly ImportColumn[]; caption: string }) {
   return (
-    <div className="-mx-4 -my-4 overflow-x-auto">
-      <table className="w-full min-w-[720px] text-sm">
+    <div className={`${TABLE_CONTAINER_CLASS} -mx-4 -my-4 overflow-x-auto`}>
+      <table className="w-full text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead>
           <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
             <th scope="col" className="px-4 py-2 font-medium">Column</th>
             <th scope="col" className="px-4 py-2 font-medium">Required</th>
             <th scope="col" className="px-4 py-2 font-medium">Meaning</th>
-            <th scope="col" className="px-4 py-2 font-medium">Accepts</th>
-            <th scope="col" className="px-4 py-2 font-medium">Example</th>
+            <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Accepts</th>
+            <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Example</th>
           </tr>
         </thead>
         <tbody>
@@ -29,9 +30,18 @@ export function ColumnReference({ columns, caption }: { columns: readonly Import
             <tr key={column.name} className="border-b border-ink-100 align-top last:border-0">
               <th scope="row" className="px-4 py-2 text-left font-mono text-xs font-normal text-ink-900">{column.name}</th>
               <td className="px-4 py-2">{column.required ? "Yes" : "No"}</td>
-              <td className="px-4 py-2 text-ink-700">{column.description}</td>
-              <td className="px-4 py-2 text-xs text-ink-700">{accepted(column)}</td>
-              <td className="px-4 py-2 font-mono text-xs">{column.example || "—"}</td>
+              <td className="px-4 py-2 text-ink-700">
+                {column.description}
+                {/* A narrow table leaves out what the column accepts and its example: they go under the meaning. */}
+                <SecondaryValues
+                  items={[
+                    { key: "accepts", label: "Accepts", value: accepted(column), priority: 2 },
+                    { key: "example", label: "Example", value: <span className="font-mono">{column.example || "—"}</span>, priority: 2 },
+                  ]}
+                />
+              </td>
+              <td className={`px-4 py-2 text-xs text-ink-700 ${priorityCellClass(2)}`}>{accepted(column)}</td>
+              <td className={`px-4 py-2 font-mono text-xs ${priorityCellClass(2)}`}>{column.example || "—"}</td>
             </tr>
           ))}
         </tbody>

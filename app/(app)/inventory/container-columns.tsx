@@ -90,6 +90,7 @@ export function getContainerColumns() {
     column.accessor("state", {
       id: "state",
       header: "State",
+      meta: { priority: 2 },
       cell: ({ getValue }) => CONTAINER_STATE_LABELS[getValue()],
     }),
     column.accessor((row) => `${row.siteName} ${row.roomCode} ${row.unitCode}`, {
@@ -105,7 +106,7 @@ export function getContainerColumns() {
         </Link>
       ),
     }),
-    column.accessor("ownerName", { id: "owner", header: "Owner", cell: ({ getValue }) => getValue() ?? "—" }),
+    column.accessor("ownerName", { id: "owner", header: "Owner", meta: { priority: 2 }, cell: ({ getValue }) => getValue() ?? "—" }),
     column.display({
       id: "findings",
       header: "Open findings",
@@ -115,7 +116,7 @@ export function getContainerColumns() {
     column.accessor("updatedAt", {
       id: "updatedAt",
       header: "Changed",
-      meta: { className: "whitespace-nowrap text-xs text-ink-600" },
+      meta: { className: "whitespace-nowrap text-xs text-ink-600", priority: 3 },
       cell: ({ getValue }) => getValue().slice(0, 10),
     }),
   ]);

@@ -9,10 +9,10 @@ import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
 import { AMOUNT_UNITS, CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { containerCreateSchema, containerEditFormSchema } from "@/lib/inventory/schemas";
+import { StorageUnitOptions, type StorageUnitChoice } from "./storage-unit-options";
 import { WhatIfPanel } from "./what-if-panel";
 import { DateInput } from "@/components/forms/date-input";
 
-type UnitOption = { id: number; code: string; name: string; roomCode: string; roomName: string; siteName: string };
 type Person = { id: number; name: string };
 
 export type ContainerFormValues = {
@@ -36,15 +36,6 @@ export type ContainerFormValues = {
 
 type Action = (previous: FormState | undefined, formData: FormData) => Promise<FormState>;
 
-function groupUnits(units: UnitOption[]) {
-  const groups = new Map<string, UnitOption[]>();
-  for (const unit of units) {
-    const key = `${unit.siteName} · ${unit.roomCode} ${unit.roomName}`;
-    groups.set(key, [...(groups.get(key) ?? []), unit]);
-  }
-  return [...groups.entries()];
-}
-
 /** Logging a new container, or editing one (then its location changes through "Move"). */
 export function ContainerForm({
   mode,
@@ -58,7 +49,7 @@ export function ContainerForm({
   mode: "create" | "edit";
   action: Action;
   values?: ContainerFormValues;
-  units: UnitOption[];
+  units: StorageUnitChoice[];
   people: Person[];
   mixtures: { id: number; name: string }[];
   canChooseOwner: boolean;
@@ -175,15 +166,7 @@ export function ContainerForm({
               return (
                 <select {...props} key={props.key} className={inputClass} aria-describedby={describedBy(f.storageUnitId.id, undefined, f.storageUnitId.errors)}>
                   <option value="">Choose a storage unit</option>
-                  {groupUnits(units).map(([group, list]) => (
-                    <optgroup key={group} label={group}>
-                      {list.map((unit) => (
-                        <option key={unit.id} value={unit.id}>
-                          {unit.code} {unit.name}
-                        </option>
-                      ))}
-                    </optgroup>
-                  ))}
+                  <StorageUnitOptions units={units} />
                 </select>
               );
             })()}

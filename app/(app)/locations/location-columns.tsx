@@ -68,12 +68,12 @@ export function getRoomColumns() {
         </Link>
       ),
     }),
-    room.accessor("siteName", { id: "site", header: "Site", meta: { className: "whitespace-nowrap" } }),
-    room.accessor("kind", { id: "kind", header: "Kind", cell: ({ getValue }) => ROOM_KIND_LABELS[getValue()] }),
+    room.accessor("siteName", { id: "site", header: "Site", meta: { className: "whitespace-nowrap", priority: 2 } }),
+    room.accessor("kind", { id: "kind", header: "Kind", meta: { priority: 2 }, cell: ({ getValue }) => ROOM_KIND_LABELS[getValue()] }),
     room.accessor("volumeM3", { id: "volumeM3", header: "Volume", meta: { align: "end", unit: "m³" }, cell: ({ getValue }) => plain(getValue()) }),
     room.accessor("airChangesPerHour", { id: "ach", header: "Ventilation", meta: { align: "end", unit: "air changes/h" }, cell: ({ getValue }) => plain(getValue()) }),
     room.accessor("designMaxTempC", { id: "designMaxTempC", header: "Design maximum", meta: { align: "end", unit: "°C" }, cell: ({ getValue }) => temp(getValue()) }),
-    room.accessor("sprinklered", { id: "sprinklered", header: "Sprinklered", cell: ({ getValue }) => (getValue() ? "Yes" : "No") }),
+    room.accessor("sprinklered", { id: "sprinklered", header: "Sprinklered", meta: { priority: 3 }, cell: ({ getValue }) => (getValue() ? "Yes" : "No") }),
   ]);
 }
 
@@ -100,13 +100,13 @@ export function getUnitColumns() {
         </Link>
       ),
     }),
-    unit.accessor("kind", { id: "kind", header: "Kind", cell: ({ getValue }) => STORAGE_UNIT_KIND_LABELS[getValue()] }),
+    unit.accessor("kind", { id: "kind", header: "Kind", meta: { priority: 2 }, cell: ({ getValue }) => STORAGE_UNIT_KIND_LABELS[getValue()] }),
     unit.accessor("internalVolumeL", { id: "volume", header: "Internal volume", meta: { align: "end", unit: "L" }, cell: ({ getValue }) => plain(getValue()) }),
     unit.accessor((row) => (row.setMaxC == null ? "—" : `${temp(row.setMinC)} … ${temp(row.setMaxC)}`), { id: "setRange", header: "Set range", meta: { unit: "°C", className: "whitespace-nowrap" } }),
     unit.accessor("ignitionSourceFree", {
       id: "interior",
       header: "Interior",
-      meta: { className: "text-xs" },
+      meta: { className: "text-xs", priority: 3 },
       cell: ({ row }) => `${row.original.ignitionSourceFree ? "Free of ignition sources" : "May hold ignition sources"}${row.original.ventilated ? " · ventilated" : ""}`,
     }),
   ]);

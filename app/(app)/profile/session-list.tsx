@@ -1,5 +1,6 @@
 "use client";
 import { useActionState } from "react";
+import { priorityCellClass, SecondaryValues, TABLE_CONTAINER_CLASS } from "@/components/data-table/priority";
 import { Button } from "@/components/ui/button";
 import type { FormState } from "@/lib/auth/form-action";
 import { endSessionAction, signOutElsewhereAction } from "./actions";
@@ -41,13 +42,13 @@ export function SessionList({ items }: { items: SessionItem[] }) {
   const others = items.filter((item) => !item.current).length;
   return (
     <div className="space-y-4">
-      <div className="-mx-4 overflow-x-auto">
-        <table className="w-full min-w-[640px] text-sm">
+      <div className={`${TABLE_CONTAINER_CLASS} -mx-4 overflow-x-auto`}>
+        <table className="w-full text-sm">
           <thead>
             <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
               <th scope="col" className="px-4 py-2 font-medium">Browser</th>
-              <th scope="col" className="px-4 py-2 font-medium">Address</th>
-              <th scope="col" className="px-4 py-2 font-medium">Signed in</th>
+              <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Address</th>
+              <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Signed in</th>
               <th scope="col" className="px-4 py-2 font-medium">Last active</th>
               <th scope="col" className="px-4 py-2 font-medium">
                 <span className="sr-only">End</span>
@@ -57,9 +58,17 @@ export function SessionList({ items }: { items: SessionItem[] }) {
           <tbody>
             {items.map((item) => (
               <tr key={item.id} className="border-b border-ink-100 align-top last:border-0">
-                <td className="px-4 py-3 text-ink-900">{item.device}</td>
-                <td className="tabular px-4 py-3 text-ink-700">{item.ip ?? "—"}</td>
-                <td className="tabular whitespace-nowrap px-4 py-3 text-ink-700">{item.createdAt}</td>
+                <th scope="row" className="px-4 py-3 text-left font-normal text-ink-900">
+                  {item.device}
+                  <SecondaryValues
+                    items={[
+                      { key: "ip", label: "Address", value: item.ip ?? "—", priority: 2 },
+                      { key: "signedIn", label: "Signed in", value: item.createdAt, priority: 2 },
+                    ]}
+                  />
+                </th>
+                <td className={`tabular px-4 py-3 text-ink-700 ${priorityCellClass(2)}`}>{item.ip ?? "—"}</td>
+                <td className={`tabular whitespace-nowrap px-4 py-3 text-ink-700 ${priorityCellClass(2)}`}>{item.createdAt}</td>
                 <td className="tabular whitespace-nowrap px-4 py-3 text-ink-700">{item.lastSeenAt}</td>
                 <td className="px-4 py-3">
                   {item.current ? <span className="text-xs font-medium text-ok">● This device</span> : <EndSession item={item} />}

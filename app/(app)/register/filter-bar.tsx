@@ -1,8 +1,8 @@
 "use client";
-import { Search } from "lucide-react";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useCallback, useEffect, useId, useState, type FormEvent } from "react";
-import { controlClass, SEARCH_DEBOUNCE_MS } from "@/components/data-table/data-table-toolbar";
+import { useCallback, useId } from "react";
+import { controlClass, SearchBox } from "@/components/data-table/search-box";
+import { FINDING_SEARCH } from "./register-columns";
 
 type Option = { value: string; label: string };
 export type LocationGroup = { room: Option; units: Option[] };
@@ -17,7 +17,6 @@ export function RegisterFilterBar({ locations, rules, showMine }: { locations: L
   const pathname = usePathname();
   const params = useSearchParams();
   const id = useId();
-  const [text, setText] = useState(params.get("q") ?? "");
   const location = params.get("storageUnitId") ? `unit:${params.get("storageUnitId")}` : params.get("roomId") ? `room:${params.get("roomId")}` : "";
 
   const current = params.toString();
@@ -34,31 +33,7 @@ export function RegisterFilterBar({ locations, rules, showMine }: { locations: L
     [current, pathname, router],
   );
 
-  // Typing is applied after a short pause, as in every table's search box; Enter applies at once.
-  const applied = params.get("q") ?? "";
-  const [seen, setSeen] = useState(applied);
-  const [sent, setSent] = useState(applied);
-  // The URL changed under us (back button, another link): show its value, unless it is only the
-  // echo of what this box sent while the user kept typing.
-  if (applied !== seen) {
-    setSeen(applied);
-    if (applied !== sent) setText(applied);
-  }
-  useEffect(() => {
-    const wanted = text.trim();
-    if (wanted === applied) return;
-    const timer = setTimeout(() => {
-      setSent(wanted);
-      apply({ q: wanted });
-    }, SEARCH_DEBOUNCE_MS);
-    return () => clearTimeout(timer);
-  }, [text, applied, apply]);
-
-  function submit(event: FormEvent) {
-    event.preventDefault();
-    setSent(text.trim());
-    apply({ q: text.trim() });
-  }
+  const onSearch = useCallback((text: string) => apply({ q: text }), [apply]);
 
   const select = (param: string, label: string, allLabel: string, options: Option[]) => (
     <div className="flex flex-col gap-1">
@@ -78,25 +53,7 @@ export function RegisterFilterBar({ locations, rules, showMine }: { locations: L
 
   return (
     <div className="flex flex-wrap items-end gap-3 rounded-lg border border-ink-200 bg-white px-3 py-3">
-      <form role="search" onSubmit={submit} className="flex w-full min-w-0 flex-col gap-1 sm:w-80">
-        <label htmlFor={`${id}-q`} className="text-xs font-medium text-ink-700">
-          Search
-        </label>
-        <div className="relative">
-          <Search aria-hidden="true" className="pointer-events-none absolute top-1/2 left-2.5 size-4 -translate-y-1/2 text-ink-400" />
-          <input
-            id={`${id}-q`}
-            type="search"
-            value={text}
-            maxLength={100}
-            placeholder="Words, room or unit code (B-014, FR-1)"
-            autoComplete="off"
-            spellCheck={false}
-            onChange={(event) => setText(event.target.value)}
-            className={`${controlClass} w-full pl-8`}
-          />
-        </div>
-      </form>
+      <SearchBox value={params.get("q") ?? ""} label={FINDING_SEARCH.label} placeholder={FINDING_SEARCH.placeholder} maxLength={FINDING_SEARCH.maxLength} onSearch={onSearch} />
       <div className="flex flex-col gap-1">
         <label htmlFor={`${id}-location`} className="text-xs font-medium text-ink-700">
           Location

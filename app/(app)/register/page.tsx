@@ -176,19 +176,24 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
           </Link>
         ))}
       </nav>
-      {view === "flat" ? (
-        <Suspense fallback={<p className="rounded-lg border border-ink-200 bg-white px-4 py-10 text-center text-sm text-ink-500">Loading the register…</p>}>
-          <RegisterTable filters={registerFilters(ruleOptions, sites, locationGroups)} ruleLabels={RULE_SHORT_LABELS} />
-        </Suspense>
-      ) : (
-        <SelectionProvider>
-          <Suspense fallback={null}>
-            <RegisterFilterBar locations={locationGroups} rules={ruleOptions} showMine={user.role !== "auditor"} />
-          </Suspense>
-          {bulkKinds.length ? <BulkBar kinds={bulkKinds} people={people} /> : null}
-          {view === "lines" ? linesView() : locationsView()}
-        </SelectionProvider>
-      )}
+      <SelectionProvider>
+        {view === "flat" ? (
+          <>
+            {selectable ? <BulkBar kinds={bulkKinds} people={people} /> : null}
+            <Suspense fallback={<p className="rounded-lg border border-ink-200 bg-white px-4 py-10 text-center text-sm text-ink-500">Loading the register…</p>}>
+              <RegisterTable filters={registerFilters(ruleOptions, sites, locationGroups)} ruleLabels={RULE_SHORT_LABELS} selectable={selectable} />
+            </Suspense>
+          </>
+        ) : (
+          <>
+            <Suspense fallback={null}>
+              <RegisterFilterBar locations={locationGroups} rules={ruleOptions} showMine={user.role !== "auditor"} />
+            </Suspense>
+            {selectable ? <BulkBar kinds={bulkKinds} people={people} /> : null}
+            {view === "lines" ? linesView() : locationsView()}
+          </>
+        )}
+      </SelectionProvider>
       {can(user.role, "findings.work") ? (
         <Card title="Default views">
           <Suspense fallback={null}>

@@ -5,6 +5,8 @@ import { FINDING_STATUSES, SCENARIOS, SEVERITIES } from "@/db/enums";
 import type { FindingListRow } from "@/db/queries/findings";
 import { formatNumber, formatTempC } from "@/lib/format/numbers";
 import { humaniseRule, SCENARIO_LABELS, STATUS_LABELS } from "@/lib/register/labels";
+import { FINDING_SEARCH_MAX_LENGTH } from "@/lib/register/schemas";
+import { SelectBox } from "./selection";
 
 /** A row of `GET /api/v1/findings` as JSON (dates arrive as strings). */
 export type RegisterRow = Omit<FindingListRow, "firstRaisedAt" | "updatedAt"> & { firstRaisedAt: string; updatedAt: string };
@@ -13,9 +15,12 @@ export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "rat
 
 type Option = { value: string; label: string };
 
+/** The register's search box, the same in every view. */
+export const FINDING_SEARCH = { label: "Search", placeholder: "Words, room or unit code (B-014, FR-1)", maxLength: FINDING_SEARCH_MAX_LENGTH };
+
 export function registerFilters(rules: Option[], sites: Option[], locations: { room: Option; units: Option[] }[] = []): DataTableFilters {
   return {
-    search: { label: "Search", placeholder: "Words, room or unit code (B-014, FR-1)" },
+    search: FINDING_SEARCH,
     selects: [
       { param: "severity", label: "Severity", allLabel: "Any severity", options: [{ value: "critical,high", label: "Critical or high" }, ...SEVERITIES.map((s) => ({ value: s, label: s.charAt(0).toUpperCase() + s.slice(1) }))] },
       {
@@ -42,12 +47,21 @@ function ageText(iso: string): string {
 
 const column = createDataTableColumnHelper<RegisterRow>();
 
-export function getRegisterColumns(ruleLabels: Record<string, string>) {
+/** A checkbox per finding and one for the page, when the person may take a step on many at once. */
+const selectColumn = column.display({
+  id: "select",
+  header: ({ table }) => <SelectBox ids={table.getRowModel().rows.map((row) => row.original.id)} label="Select every finding on this page" />,
+  meta: { label: "Select", secondary: false, className: "w-9" },
+  cell: ({ row }) => <SelectBox ids={[row.original.id]} label={`Select: ${row.original.title}`} />,
+});
+
+export function getRegisterColumns(ruleLabels: Record<string, string>, selectable = false) {
   return column.columns([
+    ...(selectable ? [selectColumn] : []),
     column.accessor("severity", { header: "Severity", cell: ({ row }) => <SeverityBadge severity={row.original.severity} /> }),
     column.accessor("title", {
       header: "Finding",
-      meta: { rowHeader: true, className: "min-w-72" },
+      meta: { rowHeader: true, className: "min-w-64" },
       cell: ({ row }) => (
         <>
           <Link href={`/register/${row.original.id}`} className="rounded-sm text-accent-800 underline-offset-2 hover:underline">
@@ -79,14 +93,16 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
     }),
     column.accessor("ratio", {
       header: "Ratio",
-      meta: { align: "end", unit: "%" },
+      meta: { align: "end", unit: "%", priority: 2 },
       cell: ({ row }) => (row.original.ratio == null ? "—" : formatNumber(row.original.ratio * 100)),
     }),
-    column.accessor("status", { header: "Status", cell: ({ row }) => STATUS_LABELS[row.original.status as keyof typeof STATUS_LABELS] ?? row.original.status }),
-    column.accessor("rule", { header: "Rule", cell: ({ row }) => ruleLabels[row.original.rule] ?? humaniseRule(row.original.rule) }),
+    column.accessor("status", { header: "Status", meta: { priority: 2 }, cell: ({ row }) => STATUS_LABELS[row.original.status as keyof typeof STATUS_LABELS] ?? row.original.status }),
+    column.accessor("rule", { header: "Rule", meta: { priority: 3 }, cell: ({ row }) => ruleLabels[row.original.rule] ?? humaniseRule(row.original.rule) }),
     column.display({
       id: "location",
       header: "Location",
+      // The finding's cell names its location already.
+      meta: { priority: 4, secondary: false },
       cell: ({ row }) => {
         const l = row.original.location;
         const href = l.storageUnitId ? `/locations/units/${l.storageUnitId}` : l.roomId ? `/locations/rooms/${l.roomId}` : null;
@@ -102,8 +118,9 @@ export function getRegisterColumns(ruleLabels: Record<string, string>) {
     column.display({
       id: "substance",
       header: "Substance",
+      meta: { priority: 4 },
       cell: ({ row }) => row.original.substance?.name ?? row.original.mixture?.name ?? <span className="text-ink-400">—</span>,
     }),
-    column.accessor("firstRaisedAt", { id: "age", header: "Age", meta: { align: "end" }, cell: ({ row }) => ageText(row.original.firstRaisedAt) }),
+    column.accessor("firstRaisedAt", { id: "age", header: "Age", meta: { align: "end", priority: 3 }, cell: ({ row }) => ageText(row.original.firstRaisedAt) }),
   ]);
 }

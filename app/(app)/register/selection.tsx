@@ -4,46 +4,58 @@ import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { MAX_BULK_FINDINGS, type BULK_EVENT_KINDS } from "@/lib/register/schemas";
+import { selectedIds, selectionMark, toggleFindings } from "@/lib/register/selection";
 import { bulkFindingStepAction } from "./actions";
 import { DateInput } from "@/components/forms/date-input";
 
 type BulkKind = (typeof BULK_EVENT_KINDS)[number];
 
-type Selection = { selected: ReadonlySet<number>; toggle: (ids: readonly number[], on: boolean) => void; clear: () => void };
+type Selection = {
+  selected: ReadonlySet<number>;
+  toggle: (ids: readonly number[], on: boolean) => void;
+  clear: () => void;
+  /** Counts the steps taken on the selection, so a list read in the browser knows to read its page again. */
+  stepsTaken: number;
+  /** A step went through: clear the selection, the findings have changed. */
+  stepTaken: () => void;
+};
 
 const SelectionContext = createContext<Selection | null>(null);
 
-/** Holds which findings are selected on the register page, across lines and locations. */
+/** Holds which findings are selected on the register page, across lines, locations and pages. */
 export function SelectionProvider({ children }: { children: ReactNode }) {
   const [selected, setSelected] = useState<ReadonlySet<number>>(new Set());
+  const [stepsTaken, setStepsTaken] = useState(0);
   const value = useMemo<Selection>(
     () => ({
       selected,
-      toggle: (ids, on) =>
-        setSelected((current) => {
-          const next = new Set(current);
-          for (const id of ids) {
-            if (on) next.add(id);
-            else next.delete(id);
-          }
-          return next;
-        }),
+      toggle: (ids, on) => setSelected((current) => toggleFindings(current, ids, on)),
       clear: () => setSelected(new Set()),
+      stepsTaken,
+      stepTaken: () => {
+        setSelected(new Set());
+        setStepsTaken((n) => n + 1);
+      },
     }),
-    [selected],
+    [selected, stepsTaken],
   );
   return <SelectionContext.Provider value={value}>{children}</SelectionContext.Provider>;
+}
+
+/** How many steps were taken on selected findings (0 outside a selection). */
+export function useStepsTaken(): number {
+  return useContext(SelectionContext)?.stepsTaken ?? 0;
 }
 
 /** A checkbox for one finding, a line's findings or a location's: checked when all are, mixed when some are. */
 export function SelectBox({ ids, label }: { ids: readonly number[]; label: string }) {
   const selection = useContext(SelectionContext);
   const ref = useRef<HTMLInputElement>(null);
-  const count = selection ? ids.filter((id) => selection.selected.has(id)).length : 0;
-  const all = ids.length > 0 && count === ids.length;
+  const mark = selection ? selectionMark(selection.selected, ids) : "none";
+  const all = mark === "all";
   useEffect(() => {
-    if (ref.current) ref.current.indeterminate = count > 0 && !all;
-  }, [count, all]);
+    if (ref.current) ref.current.indeterminate = mark === "some";
+  }, [mark]);
   if (!selection) return null;
   return (
     <input
@@ -51,6 +63,7 @@ export function SelectBox({ ids, label }: { ids: readonly number[]; label: strin
       type="checkbox"
       aria-label={label}
       checked={all}
+      disabled={ids.length === 0}
       onChange={(event) => selection.toggle(ids, event.target.checked)}
       className="size-4 rounded border-ink-400 accent-accent-700"
     />
@@ -79,17 +92,17 @@ export function BulkBar({ kinds, people }: { kinds: readonly BulkKind[]; people:
     // After a step that went through, start a fresh selection (the lines have changed).
     if (state && state !== lastHandled.current && state.status === "success") {
       lastHandled.current = state;
-      selection?.clear();
+      selection?.stepTaken();
     }
   }, [state, selection]);
   if (!selection || kinds.length === 0) return null;
-  const ids = [...selection.selected].sort((a, b) => a - b);
+  const ids = selectedIds(selection.selected);
   const errors = state?.error ?? {};
   const fieldErrors = (name: string) => errors[name] ?? undefined;
   const formErrors = [...(errors[""] ?? []), ...(errors.findingIds ?? [])];
   const tooMany = ids.length > MAX_BULK_FINDINGS;
   return (
-    <section aria-label="Act on the selected findings" className="sticky top-0 z-10 rounded-lg border border-accent-200 bg-accent-50/95 px-4 py-3 shadow-sm backdrop-blur">
+    <section aria-label="Act on the selected findings" className="sticky top-14 z-[25] rounded-lg border border-accent-200 bg-accent-50/95 px-4 py-3 shadow-sm backdrop-blur lg:top-0">
       <form action={dispatch} className="flex flex-wrap items-end gap-3">
         {ids.map((findingId, i) => (
           <input key={findingId} type="hidden" name={`findingIds[${i}]`} value={findingId} />

@@ -83,7 +83,7 @@ export function getSubstanceColumns() {
     }),
     column.accessor("formula", {
       header: "Formula",
-      meta: { className: "whitespace-nowrap" },
+      meta: { className: "whitespace-nowrap", priority: 3 },
       cell: ({ getValue }) => <Formula formula={getValue()} />,
     }),
     column.accessor("normalBoilingPointC", {
@@ -103,7 +103,7 @@ export function getSubstanceColumns() {
     }),
     column.accessor("ghsFlammableCategory", {
       header: "GHS category",
-      meta: { className: "whitespace-nowrap" },
+      meta: { className: "whitespace-nowrap", priority: 2 },
       cell: ({ getValue }) => {
         const category = getValue();
         return category == null ? <span className="text-ink-500">—</span> : `Cat. ${category}`;
@@ -111,7 +111,7 @@ export function getSubstanceColumns() {
     }),
     column.accessor("nfpaLiquidClass", {
       header: "NFPA class",
-      meta: { className: "whitespace-nowrap" },
+      meta: { className: "whitespace-nowrap", priority: 2 },
       cell: ({ getValue }) => getValue() ?? <span className="text-ink-500">—</span>,
     }),
   ]);

@@ -60,12 +60,13 @@ export function ExcursionList({
   // eslint-disable-next-line react-hooks/purity -- a server component renders once per request
   const nowMs = Date.now();
   return (
-    <ul className="-mx-4 -my-4 divide-y divide-ink-100">
+    // The acknowledgement goes beside the excursion only where the list is wide enough for both.
+    <ul className="@container/list -mx-4 -my-4 divide-y divide-ink-100">
       {rows.map((row) => {
         const open = row.endAt == null;
         const summaryId = `excursion-${row.id}-summary`;
         return (
-          <li key={row.id} className={`grid gap-3 px-4 py-3 md:grid-cols-[minmax(0,1fr)_minmax(16rem,22rem)] ${open ? "border-l-4 border-sev-high bg-sev-high-bg/60 pl-3" : ""}`}>
+          <li key={row.id} className={`grid gap-3 px-4 py-3 @4xl/list:grid-cols-[minmax(0,1fr)_minmax(16rem,22rem)] ${open ? "border-l-4 border-sev-high bg-sev-high-bg/60 pl-3" : ""}`}>
             <div className="tabular flex gap-3 text-sm">
               {selectFormId && mayAcknowledge && !row.acknowledgedAt ? (
                 <input

@@ -32,7 +32,7 @@ export function getSensorColumns() {
         </Link>
       ),
     }),
-    column.accessor("name", { id: "name", header: "Name" }),
+    column.accessor("name", { id: "name", header: "Name", meta: { priority: 2 } }),
     column.accessor((row) => row.unitCode ?? row.roomCode, {
       id: "location",
       header: "Location",

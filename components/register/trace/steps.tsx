@@ -1,4 +1,3 @@
-import type { ReactNode } from "react";
 import type { Severity } from "@/db/enums";
 import { SeverityBadge } from "@/components/ui/severity";
 import type { ShownStep } from "@/lib/register/trace-steps";
@@ -6,66 +5,33 @@ import { Formula, ResultLine, SourceNote } from "./bits";
 
 const SEVERITIES = new Set(["critical", "high", "moderate", "low"]);
 
-function StepFrame({ number, tone = "plain", children }: { number: number; tone?: "plain" | "key"; children: ReactNode }) {
-  return (
-    <li className={`rounded-md px-3 py-2 ${tone === "key" ? "border border-accent-200 bg-accent-50" : "bg-ink-50"}`}>
-      <span className="tabular mr-2 text-xs font-semibold text-ink-500">Step {number}</span>
-      {children}
-    </li>
-  );
+type StepLook = { tone: "plain" | "key"; strong: boolean };
+
+const PLAIN: StepLook = { tone: "plain", strong: false };
+const KEY: StepLook = { tone: "key", strong: true };
+
+/**
+ * How a step stands out by its kind: the vapor pressure, the sums and the ratio to a limit are the
+ * key results; the enclosure bound's last step (the smaller of the two) is framed but not bold.
+ */
+function lookOf(step: ShownStep): StepLook {
+  switch (step.kind) {
+    case "vapor-pressure":
+    case "lfl-sum":
+    case "ratio":
+      return KEY;
+    case "enclosure-bound":
+      return step.result?.symbol === "C_max" ? { tone: "key", strong: false } : PLAIN;
+    default:
+      return PLAIN;
+  }
 }
 
-/** The vapor-pressure equation with the temperature put in, and Psat. */
-export function VaporPressureStep({ step, number }: { step: ShownStep; number: number }) {
-  return (
-    <StepFrame number={number} tone="key">
-      <span className="text-sm font-medium text-ink-900">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
-      <ResultLine value={step.result} />
-    </StepFrame>
-  );
-}
-
-/** ppm, mg/m³, the mole fraction and the molar volume: the concentration steps. */
-export function ConcentrationStep({ step, number }: { step: ShownStep; number: number }) {
-  return (
-    <StepFrame number={number}>
-      <span className="text-sm text-ink-800">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
-      <ResultLine value={step.result} />
-    </StepFrame>
-  );
-}
-
-/** The enclosure bound's steps: the releasable mass, the all-evaporated concentration, the smaller of the two. */
-export function BoundStep({ step, number }: { step: ShownStep; number: number }) {
-  return (
-    <StepFrame number={number} tone={step.result?.symbol === "C_max" ? "key" : "plain"}>
-      <span className="text-sm text-ink-800">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
-      <ResultLine value={step.result} />
-    </StepFrame>
-  );
-}
-
-/** A sum of shares (Le Chatelier's additive form) or a ratio to a limit. */
-export function SumStep({ step, number }: { step: ShownStep; number: number }) {
-  return (
-    <StepFrame number={number} tone="key">
-      <span className="text-sm font-medium text-ink-900">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
-      <ResultLine value={step.result} />
-    </StepFrame>
-  );
-}
-
-/** The thresholds applied and the severity they give, with the thresholds' source. */
-export function SeverityStep({ step, number }: { step: ShownStep; number: number }) {
+/** The result of the severity step: the grade as a badge, and where its thresholds come from. */
+function SeverityResult({ step }: { step: ShownStep }) {
   const severity = step.severity && SEVERITIES.has(step.severity) ? (step.severity as Severity) : null;
   return (
-    <StepFrame number={number}>
-      <span className="text-sm text-ink-800">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
+    <>
       <p className="mt-1 flex flex-wrap items-center gap-2 text-sm">
         → Severity: {severity ? <SeverityBadge severity={severity} /> : <span className="font-semibold">{step.result?.text ?? "—"}</span>}
       </p>
@@ -74,40 +40,21 @@ export function SeverityStep({ step, number }: { step: ShownStep; number: number
           Thresholds: <SourceNote source={step.result.source} citation={step.result.citation} />
         </p>
       ) : null}
-    </StepFrame>
+    </>
   );
 }
 
-export function GenericStep({ step, number }: { step: ShownStep; number: number }) {
-  return (
-    <StepFrame number={number}>
-      <span className="text-sm text-ink-800">{step.description}</span>
-      <Formula formula={step.formula} substituted={step.substituted} />
-      <ResultLine value={step.result} />
-    </StepFrame>
-  );
-}
-
-/** One step, drawn by its kind. */
+/** One step, drawn by its kind: its number, what it does, the formula with the numbers put in, the result. */
 export function TraceStepItem({ step, number }: { step: ShownStep; number: number }) {
-  switch (step.kind) {
-    case "vapor-pressure":
-      return <VaporPressureStep step={step} number={number} />;
-    case "mole-fraction":
-    case "concentration":
-    case "molar-volume":
-    case "trouton":
-      return <ConcentrationStep step={step} number={number} />;
-    case "enclosure-bound":
-      return <BoundStep step={step} number={number} />;
-    case "lfl-sum":
-    case "ratio":
-      return <SumStep step={step} number={number} />;
-    case "severity":
-      return <SeverityStep step={step} number={number} />;
-    default:
-      return <GenericStep step={step} number={number} />;
-  }
+  const look = lookOf(step);
+  return (
+    <li className={`rounded-md px-3 py-2 ${look.tone === "key" ? "border border-accent-200 bg-accent-50" : "bg-ink-50"}`}>
+      <span className="tabular mr-2 text-xs font-semibold text-ink-500">Step {number}</span>
+      <span className={look.strong ? "text-sm font-medium text-ink-900" : "text-sm text-ink-800"}>{step.description}</span>
+      <Formula formula={step.formula} substituted={step.substituted} />
+      {step.kind === "severity" ? <SeverityResult step={step} /> : <ResultLine value={step.result} />}
+    </li>
+  );
 }
 
 export function StepList({ steps }: { steps: ShownStep[] }) {

@@ -1,5 +1,6 @@
 import { Ban, CircleCheck } from "lucide-react";
 import type { Metadata } from "next";
+import { priorityCellClass, SecondaryValues, TABLE_CONTAINER_CLASS } from "@/components/data-table/priority";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
 import { requirePagePermission } from "@/lib/auth/page";
 import { listApiKeys } from "@/lib/api-keys/service";
@@ -27,14 +28,14 @@ export default async function ApiKeysPage() {
           {keys.length === 0 ? (
             <EmptyState title="No API keys yet">Create one for each logger gateway, so each can be revoked on its own.</EmptyState>
           ) : (
-            <div className="-mx-4 -my-4 overflow-x-auto">
-              <table className="w-full min-w-[720px] text-sm">
+            <div className={`${TABLE_CONTAINER_CLASS} -mx-4 -my-4 overflow-x-auto`}>
+              <table className="w-full text-sm">
                 <thead className="bg-ink-50">
                   <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
                     <th scope="col" className="px-4 py-2 font-medium">Name</th>
                     <th scope="col" className="px-4 py-2 font-medium">Scopes</th>
-                    <th scope="col" className="px-4 py-2 font-medium">Created</th>
-                    <th scope="col" className="px-4 py-2 font-medium">Last used</th>
+                    <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Created</th>
+                    <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Last used</th>
                     <th scope="col" className="px-4 py-2 font-medium">Status</th>
                   </tr>
                 </thead>
@@ -44,6 +45,12 @@ export default async function ApiKeysPage() {
                       <th scope="row" className="px-4 py-3 text-left font-normal">
                         <p className={`font-medium ${key.revokedAt ? "text-ink-600 line-through" : "text-ink-900"}`}>{key.name}</p>
                         <p className="font-mono text-xs text-ink-600">{key.prefix}…</p>
+                        <SecondaryValues
+                          items={[
+                            { key: "created", label: "Created", value: formatDateTime(key.createdAt), priority: 2 },
+                            { key: "used", label: "Last used", value: key.lastUsedAt ? formatDateTime(key.lastUsedAt) : "never", priority: 2 },
+                          ]}
+                        />
                       </th>
                       <td className="px-4 py-3 text-xs">
                         {key.scopes.map((scope) => (
@@ -52,8 +59,8 @@ export default async function ApiKeysPage() {
                           </span>
                         ))}
                       </td>
-                      <td className="whitespace-nowrap px-4 py-3 text-xs">{formatDateTime(key.createdAt)}</td>
-                      <td className="whitespace-nowrap px-4 py-3 text-xs">{key.lastUsedAt ? formatDateTime(key.lastUsedAt) : "never"}</td>
+                      <td className={`whitespace-nowrap px-4 py-3 text-xs ${priorityCellClass(2)}`}>{formatDateTime(key.createdAt)}</td>
+                      <td className={`whitespace-nowrap px-4 py-3 text-xs ${priorityCellClass(2)}`}>{key.lastUsedAt ? formatDateTime(key.lastUsedAt) : "never"}</td>
                       <td className="px-4 py-3 text-xs">
                         {key.revokedAt ? (
                           <span className="inline-flex items-center gap-1 font-medium text-ink-700">

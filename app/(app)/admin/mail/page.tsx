@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { priorityCellClass, SecondaryValues, TABLE_CONTAINER_CLASS } from "@/components/data-table/priority";
 import { Card, EmptyState, PageHeader } from "@/components/ui/card";
 import { recentOutbox } from "@/db/queries/mail";
 import { requirePagePermission } from "@/lib/auth/page";
@@ -32,21 +33,29 @@ export default async function MailPage() {
           {outbox.length === 0 ? (
             <p className="text-sm text-ink-600">No messages yet.</p>
           ) : (
-            <div className="-mx-4 -my-4 overflow-x-auto">
-              <table className="w-full min-w-[720px] text-sm">
+            <div className={`${TABLE_CONTAINER_CLASS} -mx-4 -my-4 overflow-x-auto`}>
+              <table className="w-full text-sm">
                 <thead>
                   <tr className="border-b border-ink-200 text-left text-xs uppercase tracking-wide text-ink-600">
                     <th scope="col" className="px-4 py-2 font-medium">Subject</th>
                     <th scope="col" className="px-4 py-2 font-medium">To</th>
                     <th scope="col" className="px-4 py-2 font-medium">Status</th>
-                    <th scope="col" className="px-4 py-2 text-right font-medium">Attempts</th>
-                    <th scope="col" className="px-4 py-2 font-medium">Queued</th>
+                    <th scope="col" className={`px-4 py-2 text-right font-medium ${priorityCellClass(2)}`}>Attempts</th>
+                    <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Queued</th>
                   </tr>
                 </thead>
                 <tbody className="tabular">
                   {outbox.map((m) => (
                     <tr key={m.id} className="border-b border-ink-100 align-top last:border-0">
-                      <td className="px-4 py-2 text-ink-900">{m.subject}</td>
+                      <th scope="row" className="px-4 py-2 text-left font-normal text-ink-900">
+                        {m.subject}
+                        <SecondaryValues
+                          items={[
+                            { key: "attempts", label: "Attempts", value: m.attempts, priority: 2 },
+                            { key: "queued", label: "Queued", value: formatDateTime(m.createdAt), priority: 2 },
+                          ]}
+                        />
+                      </th>
                       <td className="px-4 py-2 text-ink-700">{m.toAddresses.join(", ")}</td>
                       <td className="px-4 py-2">
                         <span className={m.status === "sent" ? "text-ok" : "text-sev-moderate"}>{STATUS_TEXT[m.status]}</span>
@@ -56,8 +65,8 @@ export default async function MailPage() {
                           </p>
                         ) : null}
                       </td>
-                      <td className="px-4 py-2 text-right">{m.attempts}</td>
-                      <td className="px-4 py-2 text-xs text-ink-600">{formatDateTime(m.createdAt)}</td>
+                      <td className={`px-4 py-2 text-right ${priorityCellClass(2)}`}>{m.attempts}</td>
+                      <td className={`px-4 py-2 text-xs text-ink-600 ${priorityCellClass(2)}`}>{formatDateTime(m.createdAt)}</td>
                     </tr>
                   ))}
                 </tbody>

@@ -34,7 +34,7 @@ const columns = column.columns([
     meta: { className: "whitespace-nowrap tabular text-xs" },
     cell: ({ getValue }) => getValue().slice(0, 16).replace("T", " "),
   }),
-  column.accessor("actorLabel", { id: "actor", header: "Who", meta: { className: "whitespace-nowrap text-xs" } }),
+  column.accessor("actorLabel", { id: "actor", header: "Who", meta: { className: "whitespace-nowrap text-xs", priority: 2 } }),
   column.accessor((row) => `${auditEntityLabel(row.entityType)}${row.entityId ? ` #${row.entityId}` : ""}`, {
     id: "record",
     header: "Record",
@@ -49,7 +49,8 @@ const columns = column.columns([
   column.accessor("summary", {
     id: "summary",
     header: "What happened",
-    meta: { className: "min-w-72" },
+    // The event's own words identify it; the columns a narrow table leaves out go under them.
+    meta: { className: "min-w-72 font-normal", rowHeader: true },
     cell: ({ row }) => (
       <div>
         <p>{row.original.summary}</p>

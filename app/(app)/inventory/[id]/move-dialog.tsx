@@ -6,9 +6,8 @@ import { inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
 import { moveContainerAction } from "../actions";
+import { StorageUnitOptions, type StorageUnitChoice } from "../storage-unit-options";
 import { useWhatIf, WhatIfBody } from "../what-if-panel";
-
-type UnitOption = { id: number; code: string; name: string; roomCode: string; roomName: string; siteName: string };
 
 export type MovedContainer = { id: number; label: string; storageUnitId: number; roomCode: string; unitCode: string };
 
@@ -17,21 +16,12 @@ function errorsOf(state: FormState | undefined): string[] | undefined {
   return errors?.length ? errors : undefined;
 }
 
-function groupUnits(units: UnitOption[]) {
-  const groups = new Map<string, UnitOption[]>();
-  for (const unit of units) {
-    const key = `${unit.siteName} · ${unit.roomCode} ${unit.roomName}`;
-    groups.set(key, [...(groups.get(key) ?? []), unit]);
-  }
-  return [...groups.entries()];
-}
-
 /**
  * Move a container: choose the storage unit, read the what-if for the move (what it would raise
  * there, what is already flagged there about its contents, what leaves the old place), then
  * confirm. A modal dialog: Escape or Cancel closes it, focus returns to the button that opened it.
  */
-export function MoveDialog({ container, units }: { container: MovedContainer; units: UnitOption[] }) {
+export function MoveDialog({ container, units }: { container: MovedContainer; units: StorageUnitChoice[] }) {
   const dialogRef = useRef<HTMLDialogElement>(null);
   const openerRef = useRef<HTMLButtonElement>(null);
   const titleId = useId();
@@ -103,15 +93,7 @@ export function MoveDialog({ container, units }: { container: MovedContainer; un
               <option value="" disabled>
                 Choose a storage unit
               </option>
-              {groupUnits(units.filter((u) => u.id !== container.storageUnitId)).map(([group, list]) => (
-                <optgroup key={group} label={group}>
-                  {list.map((unit) => (
-                    <option key={unit.id} value={unit.id}>
-                      {unit.code} {unit.name}
-                    </option>
-                  ))}
-                </optgroup>
-              ))}
+              <StorageUnitOptions units={units.filter((u) => u.id !== container.storageUnitId)} />
             </select>
           </div>
           <section aria-label="What the move would change" className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-4 py-3">
