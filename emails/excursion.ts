@@ -12,6 +12,12 @@ export type ExcursionEmailInput = {
   peakTempC: number;
   peakAt: Date;
   link: string;
+  /** Started excursions on a unit: the projected threshold crossings, earliest first (lib/temperatures/projection.ts). */
+  projection?: string[];
+  /** "τ = 4 h, …; warming towards 27.0 °C". */
+  projectionBasis?: string;
+  /** The excursion's own page. */
+  projectionLink?: string;
 };
 
 export function formatEmailTempC(tempC: number): string {
@@ -51,7 +57,13 @@ export function excursionEmail(input: ExcursionEmailInput): RenderedEmail {
           text: `Sensor ${input.sensorLabel} has read above the excursion threshold of ${threshold} since ${formatEmailInstant(input.startAt)}, for at least the minimum duration of ${formatDurationMin(input.minDurationMin)}. The excursion is still open.`,
         },
         { kind: "p", text: `Highest reading so far: ${peak}.` },
-        { kind: "button", label: "Open the location", href: input.link },
+        ...(input.projection?.length
+          ? [
+              { kind: "p" as const, text: `If it keeps warming${input.projectionBasis ? ` (${input.projectionBasis})` : ""}, its contents cross these thresholds, earliest first:` },
+              ...input.projection.map((line) => ({ kind: "small" as const, text: `• ${line}` })),
+            ]
+          : []),
+        { kind: "button", label: input.projection?.length ? "Open the excursion" : "Open the location", href: input.projectionLink ?? input.link },
         { kind: "small", text: "Acknowledge it on the location page with a comment saying what was done. You will receive another message when the temperature is back at or below the threshold." },
         caution,
       ],
@@ -93,4 +105,21 @@ export function dailyDigestEmail(input: { name: string; dayLabel: string; sectio
   blocks.push({ kind: "button", label: "Open Headroom", href: input.link });
   blocks.push({ kind: "small", text: "You receive this digest because of the alert choices in your profile. Change them there." });
   return renderEmail(`Headroom daily digest, ${input.dayLabel}`, "Your daily digest", blocks);
+}
+
+/** A projected crossing less than an hour away: the second warning of an open excursion. */
+export function crossingSoonEmail(input: { locationLabel: string; lines: string[]; first: string; basis: string; latest: string; link: string }): RenderedEmail {
+  return renderEmail(
+    `Within the hour at ${input.locationLabel}: ${input.first}`,
+    `Danger within the hour at ${input.locationLabel}`,
+    [
+      { kind: "p", text: `${input.locationLabel} is still warming (latest reading ${input.latest}). Projected from its readings (${input.basis}), its contents cross these thresholds within the hour, earliest first:` },
+      ...input.lines.map((text) => ({ kind: "small" as const, text: `• ${text}` })),
+      { kind: "button", label: "Open the excursion", href: input.link },
+      {
+        kind: "small",
+        text: "Move the contents to a working unit or restore the cooling now. The projection is a screening estimate from one time constant, not air monitoring; qualified people decide, and local codes and the authority having jurisdiction prevail.",
+      },
+    ],
+  );
 }

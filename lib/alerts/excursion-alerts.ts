@@ -3,6 +3,8 @@ import { createHash } from "node:crypto";
 import type { DbOrTx } from "@/db/client";
 import type { Excursion } from "@/db/schema";
 import { excursionEmail, formatDurationMin, formatEmailInstant, formatEmailTempC } from "@/emails/excursion";
+import { appUrl } from "@/lib/config";
+import { crossingText, projectOpenExcursion } from "@/lib/temperatures/projection";
 import { renderEmail } from "@/emails/layout";
 import { enqueueEmail } from "@/lib/mail/outbox";
 import { describeAlertLocation, responsibleUsers } from "./recipients";
@@ -26,6 +28,25 @@ export function queueExcursionAlerts(
   const location = describeAlertLocation(tx, { roomId: context.roomId, storageUnitId: context.storageUnitId });
   if (!location || events.length === 0) return 0;
   const recipients = responsibleUsers(tx, location).filter((user) => user.alertExcursions === "immediate");
+  if (recipients.length === 0) return 0;
+  // A started excursion on a unit: where its warm-up is heading, earliest crossing first.
+  const projections = new Map<number, { lines: string[]; basis: string; link: string; firstAtMs: number }>();
+  for (const event of events) {
+    if (event.kind !== "started") continue;
+    const projection = projectOpenExcursion(tx, event.excursion);
+    if (!projection) continue;
+    const lines = projection.crossings.filter((c) => !c.inControl && (c.reached || c.at)).slice(0, 8).map((c) => crossingText(c, projection.latest.at));
+    if (lines.length === 0) continue;
+    const first = projection.crossings.find((c) => !c.inControl && (c.reached || c.at));
+    projections.set(event.excursion.id, {
+      lines,
+      basis: `${projection.tauReason}; warming towards ${formatEmailTempC(projection.roomTempC)}`,
+      link: `${appUrl()}/temperatures/excursions/${event.excursion.id}`,
+      firstAtMs: first?.reached ? 0 : (first?.at?.getTime() ?? Number.MAX_SAFE_INTEGER),
+    });
+  }
+  // Ranked by the earliest crossing: the message about the most urgent excursion goes out first.
+  events = [...events].sort((a, b) => (projections.get(a.excursion.id)?.firstAtMs ?? Number.MAX_SAFE_INTEGER) - (projections.get(b.excursion.id)?.firstAtMs ?? Number.MAX_SAFE_INTEGER));
   let queued = 0;
   for (const user of recipients) {
     if (events.length <= MAX_SEPARATE_EXCURSION_MESSAGES) {
@@ -42,6 +63,9 @@ export function queueExcursionAlerts(
           peakTempC: e.peakTempC,
           peakAt: e.peakAt,
           link: location.link,
+          projection: projections.get(e.id)?.lines,
+          projectionBasis: projections.get(e.id)?.basis,
+          projectionLink: projections.get(e.id)?.link,
         });
         queued += enqueueEmail(tx, { ...message, kind: `excursion_${event.kind}`, to: [user.email], recipientUserId: user.id, idempotencyKey: `excursion:${event.kind}:${e.id}:${user.id}` }) ? 1 : 0;
       }

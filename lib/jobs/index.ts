@@ -2,10 +2,12 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { jobs } from "@/db/schema";
+import { checkCrossingAlerts } from "@/lib/alerts/crossing-alerts";
 import { startDigestJob } from "@/lib/alerts/digest";
+import { workerWritesDone } from "@/lib/workers/write-gate";
 import { startBackupJob } from "@/lib/backup/job";
 import { kickReassessments } from "@/lib/assessment/jobs";
-import { startOutboxJob } from "@/lib/mail/deliver";
+import { kickOutbox, startOutboxJob } from "@/lib/mail/deliver";
 import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
 import { applySubstanceLibraryEdition } from "@/lib/substances/library-edition";
@@ -27,6 +29,35 @@ export function startJobs(): void {
   const timer = setInterval(kickReassessments, 30_000);
   timer.unref?.();
   kickReassessments();
+  startCrossingWatch();
   const backup = startBackupJob();
-  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
+  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", "crossing-watch", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
+}
+
+/** How often open excursions are projected for crossings less than an hour away. */
+const CROSSING_WATCH_MS = 2 * 60_000;
+const globalWatch = globalThis as { headroomCrossingWatch?: ReturnType<typeof setInterval>; headroomCrossingBusy?: boolean };
+
+/** Every two minutes: warn when an open excursion's projected crossing is less than an hour away (lib/alerts/crossing-alerts.ts). */
+function startCrossingWatch(): void {
+  if (globalWatch.headroomCrossingWatch) return;
+  const run = async () => {
+    if (globalWatch.headroomCrossingBusy) return;
+    globalWatch.headroomCrossingBusy = true;
+    try {
+      // A worker committing a long batch holds SQLite's write lock: wait for it without blocking the thread.
+      await workerWritesDone();
+      const queued = checkCrossingAlerts(getDb());
+      if (queued > 0) {
+        log.info({ queued }, "projected crossings within the hour: warnings queued");
+        kickOutbox();
+      }
+    } catch (error) {
+      log.error({ err: error }, "the crossing watch failed; it runs again in two minutes");
+    } finally {
+      globalWatch.headroomCrossingBusy = false;
+    }
+  };
+  globalWatch.headroomCrossingWatch = setInterval(() => void run(), CROSSING_WATCH_MS);
+  globalWatch.headroomCrossingWatch.unref?.();
 }
