@@ -9,6 +9,7 @@ import { startOutboxJob } from "@/lib/mail/deliver";
 import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
 import { applySubstanceLibraryEdition } from "@/lib/substances/library-edition";
+import { kickWarmUpFits } from "@/lib/temperatures/warm-up-jobs";
 
 /** Background work of the server process, started once from instrumentation.ts. */
 export function startJobs(): void {
@@ -27,6 +28,10 @@ export function startJobs(): void {
   const timer = setInterval(kickReassessments, 30_000);
   timer.unref?.();
   kickReassessments();
+  // Units whose excursion ended are fitted again (their warm-up τ) in the background.
+  const fits = setInterval(kickWarmUpFits, 30_000);
+  fits.unref?.();
+  kickWarmUpFits();
   const backup = startBackupJob();
-  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
+  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", "warm-up-fits", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
 }
