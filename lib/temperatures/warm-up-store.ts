@@ -1,7 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, isNotNull, lt, lte } from "drizzle-orm";
-import type { DbOrTx } from "@/db/client";
-import { preparedOn } from "@/db/client";
+import { getDb, preparedOn, type DbOrTx } from "@/db/client";
 import { excursions, readings, rooms, sensors, storageUnits, warmUpFits, type WarmUpFit as StoredWarmUpFit } from "@/db/schema";
 import { queueReassessment } from "@/lib/assessment/jobs";
 import { formatDurationMin, formatNumber } from "@/lib/format/numbers";
@@ -147,31 +146,37 @@ export function warmUpFitHistory(db: DbOrTx, unitId: number, limit = 50): Stored
 export type FittedExcursionCurve = {
   excursionId: number;
   sensorId: number;
+  /** When the excursion ended (the unit back within limits). */
+  endAtMs: number | null;
   points: { atMs: number; measuredC: number; fittedC: number }[];
 };
 
 /**
  * The latest fit's curve over each excursion it was fitted to (the model from each excursion's first
- * reading with the fitted τ, against the room's temperature then), or [] without a fit.
+ * reading with the fitted τ, against the room's temperature then), and why the unit's other ended
+ * excursions cannot be used (as the fit would judge them now). Null without a fit.
  */
-export function fittedCurves(db: DbOrTx, unitId: number): { fit: StoredWarmUpFit; curves: FittedExcursionCurve[] } | null {
+export function fittedCurves(unitId: number, db: DbOrTx = getDb()): { fit: StoredWarmUpFit; curves: FittedExcursionCurve[]; rejected: RejectedExcursion[] } | null {
   const [latest] = warmUpFitHistory(db, unitId, 1);
   if (!latest) return null;
-  const inputs = loadWarmUpInputs(db, unitId, latest.excursionIds);
-  const { used } = fitWarmUp(inputs);
-  const sensorOf = new Map(
+  const { used, rejected } = fitWarmUp(loadWarmUpInputs(db, unitId));
+  const fittedIds = new Set(latest.excursionIds);
+  const stored = new Map(
     db
-      .select({ id: excursions.id, sensorId: excursions.sensorId })
+      .select({ id: excursions.id, sensorId: excursions.sensorId, endAt: excursions.endAt })
       .from(excursions)
       .where(inArray(excursions.id, latest.excursionIds.length ? latest.excursionIds : [-1]))
       .all()
-      .map((e) => [e.id, e.sensorId]),
+      .map((e) => [e.id, e]),
   );
-  const curves = used.map((e) => {
-    const fitted = simulateWarmUpC(e, latest.tauMin);
-    return { excursionId: e.excursionId, sensorId: sensorOf.get(e.excursionId) ?? 0, points: e.readings.map((r, i) => ({ atMs: r.atMs, measuredC: r.tempC, fittedC: fitted[i] })) };
-  });
-  return { fit: latest, curves };
+  const curves = used
+    .filter((e) => fittedIds.has(e.excursionId))
+    .map((e) => {
+      const fitted = simulateWarmUpC(e, latest.tauMin);
+      const excursion = stored.get(e.excursionId);
+      return { excursionId: e.excursionId, sensorId: excursion?.sensorId ?? 0, endAtMs: excursion?.endAt?.getTime() ?? null, points: e.readings.map((r, i) => ({ atMs: r.atMs, measuredC: r.tempC, fittedC: fitted[i] })) };
+    });
+  return { fit: latest, curves, rejected };
 }
 
 /** The units (temperature-controlled, live) that have ended excursions: those the demo seed fits. */
@@ -203,7 +208,7 @@ const round = (value: number, digits: number) => Number(value.toFixed(digits));
  * A unit's warm-up for the API and its page. A unit that does not exist, is retired or is not
  * temperature-controlled has none (404, saying which).
  */
-export function unitWarmUpSummary(db: DbOrTx, unitId: number, nowMs = Date.now()): UnitWarmUpSummary {
+export function unitWarmUpSummary(unitId: number, nowMs = Date.now(), db: DbOrTx = getDb()): UnitWarmUpSummary {
   const unit = db
     .select({ id: storageUnits.id, code: storageUnits.code, roomId: storageUnits.roomId, retiredAt: storageUnits.retiredAt, note: storageUnits.warmUpTauNote })
     .from(storageUnits)

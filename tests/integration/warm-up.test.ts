@@ -61,7 +61,7 @@ describe("the demo seed's failed refrigerator", () => {
   });
 
   it("draws a fitted curve that follows the readings of the failure", () => {
-    const result = fittedCurves(getDb(), fsr1)!;
+    const result = fittedCurves(fsr1)!;
     expect(result.curves).toHaveLength(1);
     const points = result.curves[0].points;
     expect(points[0].fittedC).toBe(points[0].measuredC);

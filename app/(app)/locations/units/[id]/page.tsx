@@ -18,6 +18,7 @@ import { UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
 import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
 import { PlaceFindings } from "../../place-findings";
+import { WarmUpCard } from "./warm-up-card";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -62,6 +63,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       </dl>
       <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
       <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
+      <WarmUpCard user={user} unit={unit} />
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>
         <ContainersTable rows={stored} showUnit={false} />
@@ -73,7 +75,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
             roomId={unit.roomId}
             owners={owners}
             values={Object.fromEntries(
-              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes"].map((k) => [k, toFormValue((unit as Record<string, unknown>)[k])]),
+              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes", "warmUpTauMin", "warmUpTauNote"].map((k) => [k, toFormValue((unit as Record<string, unknown>)[k])]),
             )}
           />
         </Card>

@@ -1,5 +1,4 @@
 import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
 import { requireId } from "@/lib/http/params";
 import { route } from "@/lib/http/route";
 import { unitWarmUpSummary } from "@/lib/temperatures/warm-up-store";
@@ -10,5 +9,5 @@ import { unitWarmUpSummary } from "@/lib/temperatures/warm-up-store";
  * room temperature it warms towards.
  */
 export const GET = route({ action: "locations.read" }, ({ params }) =>
-  NextResponse.json({ data: unitWarmUpSummary(getDb(), requireId(params, "That storage unit")) }),
+  NextResponse.json({ data: unitWarmUpSummary(requireId(params, "That storage unit")) }),
 );
