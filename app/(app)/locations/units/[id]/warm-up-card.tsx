@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { TemperatureTraceChart } from "@/components/charts/temperature-trace-chart";
 import { Card } from "@/components/ui/card";
 import type { SessionUser } from "@/lib/auth/session";
@@ -16,7 +17,7 @@ const SOURCE_TEXT = {
   default: "Default for its kind",
 } as const;
 
-function Block({ label, value, detail }: { label: string; value: string; detail: string }) {
+function Block({ label, value, detail }: { label: ReactNode; value: string; detail: string }) {
   return (
     <div className="rounded-md border border-ink-200 bg-ink-50 px-4 py-3">
       <p className="text-xs font-medium uppercase tracking-wide text-ink-600">{label}</p>
@@ -67,18 +68,26 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
     <Card title="Warm-up after a failure">
       <div className="space-y-5">
         <div className="grid gap-3 md:grid-cols-3">
-          <Block label="Time constant τ" value={formatDurationMin(summary.tauMinutes)} detail={SOURCE_TEXT[summary.source]} />
+          <Block
+            label={
+              <>
+                Time constant <span className="normal-case">τ</span>
+              </>
+            }
+            value={formatDurationMin(summary.tauMinutes)}
+            detail={SOURCE_TEXT[summary.source]}
+          />
           <Block
             label="Warms towards"
             value={formatTempC(roomTempC)}
             detail={roomTempC != null ? "Its room's worst case, as the control-lost assessment uses it" : "Not known: the room has no design maximum or readings"}
           />
           <Block
-            label="Fit to its failures"
-            value={summary.fit ? `RMS error ${formatNumber(summary.fit.rmsErrorC, 2)} °C` : "No fit yet"}
+            label="Fit's RMS error"
+            value={summary.fit ? `${formatNumber(summary.fit.rmsErrorC, 2)} °C` : "No fit yet"}
             detail={
               summary.fit
-                ? `${summary.fit.excursions === 1 ? "1 recorded failure" : `${summary.fit.excursions} recorded failures`}, ${formatCount(summary.fit.readings)} readings`
+                ? `Over ${summary.fit.excursions === 1 ? "1 recorded failure" : `${summary.fit.excursions} recorded failures`}, ${formatCount(summary.fit.readings)} readings`
                 : "No usable recorded failure of this unit so far"
             }
           />
