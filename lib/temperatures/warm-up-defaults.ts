@@ -11,7 +11,6 @@
  * brings every time to danger forward — the cautious side.
  */
 import type { StorageUnitKind } from "@/db/enums";
-import { formatDurationMin } from "@/lib/format/numbers";
 
 export type WarmUpDefault = {
   /** The kind it applies to, or "controlled_other" for any other unit with a set range (a walk-in cold room, a controlled cabinet). */
@@ -30,6 +29,15 @@ const LOWER_BOUND =
   "By Newton's law, τ = t / ln((T_room − T_start) / (T_room − T_limit)) for a unit that stays below T_limit for a time t; with the limit less than 63 % of the way to the room the logarithm is below 1, so τ is longer than t. Taking τ equal to the holding time is the lower bound: the unit is assumed to warm faster than the guidance implies.";
 
 const HOUR_MIN = 60;
+
+/** τ for people, in hours and minutes: "4 h", "3 h 10 min", "24 h", "45 min". */
+export function formatTauMin(tauMin: number): string {
+  const total = Math.max(0, Math.round(tauMin));
+  const hours = Math.floor(total / HOUR_MIN);
+  const minutes = total % HOUR_MIN;
+  if (hours === 0) return `${minutes} min`;
+  return `${hours.toLocaleString("en-GB")} h${minutes ? ` ${minutes} min` : ""}`;
+}
 
 export const WARM_UP_DEFAULTS: readonly WarmUpDefault[] = [
   {
@@ -88,5 +96,5 @@ export function warmUpDefaultFor(kind: StorageUnitKind): WarmUpDefault {
 export function defaultWarmUpReason(kind: StorageUnitKind): string {
   const d = warmUpDefaultFor(kind);
   const first = d.reasoning.split(/(?<=\.) /)[0];
-  return `τ = ${formatDurationMin(d.tauMin)}, default for a ${d.label} (no usable recorded failure of this unit): ${first} Source: ${d.source}`;
+  return `τ = ${formatTauMin(d.tauMin)}, default for a ${d.label} (no usable recorded failure of this unit): ${first} Source: ${d.source}`;
 }

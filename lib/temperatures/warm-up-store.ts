@@ -3,10 +3,11 @@ import { and, asc, desc, eq, inArray, isNotNull, lt, lte } from "drizzle-orm";
 import { getDb, preparedOn, type DbOrTx } from "@/db/client";
 import { excursions, readings, rooms, sensors, storageUnits, warmUpFits, type WarmUpFit as StoredWarmUpFit } from "@/db/schema";
 import { queueReassessment } from "@/lib/assessment/jobs";
-import { formatDurationMin, formatNumber } from "@/lib/format/numbers";
+import { formatNumber } from "@/lib/format/numbers";
 import { fitWarmUp, ROOM_MARGIN_MS, simulateWarmUpC, type RejectedExcursion, type WarmUpExcursionInput, type WarmUpFit, type WarmUpPoint } from "./warm-up-fit";
 import { NotFoundError } from "@/lib/errors";
 import { worstCaseForRoom } from "./queries";
+import { formatTauMin } from "./warm-up-defaults";
 import { unitIsTemperatureControlled, warmUpsOfUnits, type UnitWarmUp } from "./warm-up";
 
 /** The latest failures a fit looks at, and the readings it takes from each at most: the fit stays cheap. */
@@ -131,7 +132,7 @@ export function refitUnitWarmUp(tx: DbOrTx, unitId: number, opts: { nowMs?: numb
     .get();
   let reassessmentJobId: number | null = null;
   if (opts.queue !== false) {
-    const reason = `the warm-up of storage unit ${unit.code} was fitted again (τ = ${formatDurationMin(fit.tauMin)}, RMS error ${formatNumber(fit.rmsErrorC, 2)} °C)`;
+    const reason = `the warm-up of storage unit ${unit.code} was fitted again (τ = ${formatTauMin(fit.tauMin)}, RMS error ${formatNumber(fit.rmsErrorC, 2)} °C)`;
     reassessmentJobId = queueReassessment(tx, { roomIds: [unit.roomId], reason }, opts.requestedById ?? null).id;
   }
   return { unitId, fit, rejected, stored, reassessmentJobId };

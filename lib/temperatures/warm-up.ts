@@ -3,8 +3,8 @@ import type { DbOrTx } from "@/db/client";
 import { preparedOn } from "@/db/client";
 import type { StorageUnitKind } from "@/db/enums";
 import { isTemperatureControlled } from "@/lib/assessment/rules/context";
-import { formatNumber, formatDurationMin } from "@/lib/format/numbers";
-import { defaultWarmUpReason, warmUpDefaultFor } from "./warm-up-defaults";
+import { formatNumber } from "@/lib/format/numbers";
+import { defaultWarmUpReason, formatTauMin, warmUpDefaultFor } from "./warm-up-defaults";
 
 /**
  * A temperature-controlled unit's warm-up time constant τ (Newton's law of heating after a failure)
@@ -73,11 +73,11 @@ function warmUpOf(row: Row): UnitWarmUp {
       tauMin: row.tauSetMin,
       source: "set",
       fit,
-      reason: `τ = ${formatDurationMin(row.tauSetMin)}, set for this unit by a person${note ? ` (“${note}”)` : ""}${fit ? `; the fit to its recorded failures gives ${formatDurationMin(row.fitTauMin as number)}` : ""}`,
+      reason: `τ = ${formatTauMin(row.tauSetMin)}, set for this unit by a person${note ? ` (“${note}”)` : ""}${fit ? `; the fit to its recorded failures gives ${formatTauMin(row.fitTauMin as number)}` : ""}`,
     };
   }
   if (fit) {
-    return { tauMin: row.fitTauMin as number, source: "fitted", fit, reason: `τ = ${formatDurationMin(row.fitTauMin as number)}, ${describeFit(fit, row.roomTempSource)}` };
+    return { tauMin: row.fitTauMin as number, source: "fitted", fit, reason: `τ = ${formatTauMin(row.fitTauMin as number)}, ${describeFit(fit, row.roomTempSource)}` };
   }
   return { tauMin: warmUpDefaultFor(row.kind).tauMin, source: "default", fit: null, reason: defaultWarmUpReason(row.kind) };
 }

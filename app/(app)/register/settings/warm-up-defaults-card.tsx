@@ -1,6 +1,5 @@
 import { Card } from "@/components/ui/card";
-import { formatDurationMin } from "@/lib/format/numbers";
-import { WARM_UP_DEFAULTS } from "@/lib/temperatures/warm-up-defaults";
+import { formatTauMin, WARM_UP_DEFAULTS } from "@/lib/temperatures/warm-up-defaults";
 
 /** The default warm-up time constant of each kind of temperature-controlled unit, with its reasoning and source. */
 export function WarmUpDefaultsCard() {
@@ -36,7 +35,7 @@ export function WarmUpDefaultsCard() {
                 <th scope="row" className="px-2 py-2 text-left font-medium text-ink-900">
                   {d.label.charAt(0).toUpperCase() + d.label.slice(1)}
                 </th>
-                <td className="tabular px-2 py-2 whitespace-nowrap">{formatDurationMin(d.tauMin)}</td>
+                <td className="tabular px-2 py-2 whitespace-nowrap">{formatTauMin(d.tauMin)}</td>
                 <td className="px-2 py-2 text-ink-800">{d.reasoning}</td>
                 <td className="px-2 py-2 text-xs text-ink-700">{d.source}</td>
               </tr>

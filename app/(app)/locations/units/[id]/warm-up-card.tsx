@@ -5,8 +5,9 @@ import type { SessionUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
 import { NotFoundError } from "@/lib/errors";
 import { warmUpMinutesToReach } from "@/lib/hazard";
-import { formatCount, formatDateTime, formatDurationMin, formatNumber, formatTempC } from "@/lib/format/numbers";
+import { formatCount, formatDateTime, formatNumber, formatTempC } from "@/lib/format/numbers";
 import { readingSeries } from "@/lib/temperatures/series";
+import { formatTauMin } from "@/lib/temperatures/warm-up-defaults";
 import { fittedCurves, unitWarmUpSummary } from "@/lib/temperatures/warm-up-store";
 
 const HOUR_MS = 3_600_000;
@@ -52,7 +53,7 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
       overlays: curves!.curves
         .filter((c) => c.sensorId === latestCurve.sensorId)
         .map((c, i) => ({
-          label: i === 0 ? `Fitted warm-up, τ = ${formatDurationMin(curves!.fit.tauMin)} (dashed)` : `Fitted warm-up, failure ${i + 1}`,
+          label: i === 0 ? `Fitted warm-up, τ = ${formatTauMin(curves!.fit.tauMin)} (dashed)` : `Fitted warm-up, failure ${i + 1}`,
           points: c.points.map((p) => ({ atMs: p.atMs, tempC: p.fittedC })),
         })),
     };
@@ -74,7 +75,7 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
                 Time constant <span className="normal-case">τ</span>
               </>
             }
-            value={formatDurationMin(summary.tauMinutes)}
+            value={formatTauMin(summary.tauMinutes)}
             detail={SOURCE_TEXT[summary.source]}
           />
           <Block
@@ -96,8 +97,8 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
         {halfway != null && startTempC != null && roomTempC != null ? (
           <p className="tabular text-sm text-ink-700">
             Newton&apos;s law of heating, T(t) = T<sub>room</sub> − (T<sub>room</sub> − T<sub>start</sub>)·e<sup>−t/τ</sup>: from the upper end of its set range (
-            {formatTempC(startTempC)}) the unit would be half-way to {formatTempC(roomTempC)} after {formatDurationMin(halfway)} (τ·ln 2), and 95 % of the way after{" "}
-            {formatDurationMin(3 * summary.tauMinutes)} (3τ).
+            {formatTempC(startTempC)}) the unit would be half-way to {formatTempC(roomTempC)} after {formatTauMin(halfway)} (τ·ln 2), and 95 % of the way after{" "}
+            {formatTauMin(3 * summary.tauMinutes)} (3τ).
           </p>
         ) : null}
 
@@ -166,7 +167,7 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
                         {formatDateTime(Date.parse(f.fittedAt))}
                         {index === 0 ? <span className="ml-2 text-xs font-semibold text-accent-800">latest</span> : null}
                       </td>
-                      <td className="px-2 py-1.5 text-right whitespace-nowrap">{formatDurationMin(f.tauMinutes)}</td>
+                      <td className="px-2 py-1.5 text-right whitespace-nowrap">{formatTauMin(f.tauMinutes)}</td>
                       <td className="px-2 py-1.5 text-right whitespace-nowrap">{formatNumber(f.rmsErrorC, 2)} °C</td>
                       <td className="px-2 py-1.5 text-right">{formatCount(f.excursions)}</td>
                       <td className="px-2 py-1.5 text-right">{formatCount(f.readings)}</td>
