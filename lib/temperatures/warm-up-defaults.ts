@@ -25,8 +25,11 @@ export type WarmUpDefault = {
 const FOOD_SAFETY_SOURCE =
   "USDA Food Safety and Inspection Service, “Keeping Food Safe During an Emergency” (fact sheet; the same figures on FoodSafety.gov): a closed refrigerator keeps food safe (at or below 40 °F, 4 °C) for about 4 hours without power; a full freezer holds its temperature for about 48 hours, a half-full one for about 24 hours, if the door stays closed.";
 
-const LOWER_BOUND =
-  "By Newton's law, τ = t / ln((T_room − T_start) / (T_room − T_limit)) for a unit that stays below T_limit for a time t; with the limit less than 63 % of the way to the room the logarithm is below 1, so τ is longer than t. Taking τ equal to the holding time is the lower bound: the unit is assumed to warm faster than the guidance implies.";
+/** How a published holding time becomes τ, shown once beside the defaults. */
+export const HOLDING_TIME_TO_TAU =
+  "By Newton's law, a unit that stays below a limit T_limit for a time t after its cooling stops has τ = t / ln((T_room − T_start) / (T_room − T_limit)). While the limit lies less than 63 % of the way from the start to the room, the logarithm is below 1 and τ is longer than t. Taking τ equal to the holding time is therefore a lower bound: the unit is assumed to warm faster than the guidance implies, which brings every time to danger forward.";
+
+const LOWER_BOUND = "Taken as τ, a lower bound (how a holding time becomes τ is explained above the table).";
 
 const HOUR_MIN = 60;
 

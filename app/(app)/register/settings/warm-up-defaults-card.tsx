@@ -1,5 +1,5 @@
 import { Card } from "@/components/ui/card";
-import { formatTauMin, WARM_UP_DEFAULTS } from "@/lib/temperatures/warm-up-defaults";
+import { formatTauMin, HOLDING_TIME_TO_TAU, WARM_UP_DEFAULTS } from "@/lib/temperatures/warm-up-defaults";
 
 /** The default warm-up time constant of each kind of temperature-controlled unit, with its reasoning and source. */
 export function WarmUpDefaultsCard() {
@@ -9,6 +9,10 @@ export function WarmUpDefaultsCard() {
         How fast a refrigerator, freezer or cold room warms towards its room&apos;s temperature once its cooling stops (Newton&apos;s law of heating, T(t) = T
         <sub>room</sub> − (T<sub>room</sub> − T<sub>start</sub>)·e<sup>−t/τ</sup>). A unit uses the τ set on its page (by facilities, a safety officer or an administrator), else
         the τ fitted to its own recorded failures, else the default of its kind below. A screening estimate: the unit&apos;s own logger is what tells you its temperature.
+      </p>
+      <p className="mb-3 text-sm text-ink-700">
+        <span className="font-semibold text-ink-900">How a holding time becomes τ. </span>
+        {HOLDING_TIME_TO_TAU}
       </p>
       <div className="overflow-x-auto">
         <table className="w-full min-w-[40rem] border-collapse text-sm">
