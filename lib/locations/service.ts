@@ -172,9 +172,11 @@ function requireWarmUpOnControlledUnit(unit: Pick<StorageUnit, "kind"> & { setMi
   }
 }
 
-/** Clearing τ (back to the fitted or default value) clears its note too, unless a new note comes with it. */
+/** The note explains a person's τ: without one (cleared back to the fitted or default value) it is cleared too. */
 function warmUpChanges(before: StorageUnit, input: Partial<StorageUnitInput>): Partial<StorageUnitInput> {
-  if (input.warmUpTauMin === null && input.warmUpTauNote === undefined && before.warmUpTauNote !== null) return { ...input, warmUpTauNote: null };
+  const tauAfter = input.warmUpTauMin === undefined ? before.warmUpTauMin : input.warmUpTauMin;
+  const noteAfter = input.warmUpTauNote === undefined ? before.warmUpTauNote : input.warmUpTauNote;
+  if (tauAfter == null && noteAfter != null) return { ...input, warmUpTauNote: null };
   return input;
 }
 
@@ -182,6 +184,7 @@ export function createStorageUnit(actor: SessionUser, input: StorageUnitInput): 
   try {
     return getDb().transaction((tx) => {
       requireWarmUpOnControlledUnit(input);
+      if (input.warmUpTauMin == null) input = { ...input, warmUpTauNote: null };
       const room = requireLiveRoom(tx, input.roomId);
       requireUser(tx, input.ownerId, "ownerId");
       const unit = tx

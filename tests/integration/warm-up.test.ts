@@ -160,6 +160,12 @@ describe("τ set by people", () => {
     expect(warmUpsOfUnits(getDb(), [fsr1]).get(fsr1)!.source).toBe("fitted");
   });
 
+  it("keeps a note only beside a set τ", async () => {
+    const res = await call(unitRoute.PATCH, { method: "PATCH", params: { id: String(fsr1) }, cookie: await sessionCookieFor(facilities), body: { warmUpTauNote: "A note without a value" } });
+    expect(res.status).toBe(200);
+    expect(res.body.data).toMatchObject({ warmUpTauMin: null, warmUpTauNote: null });
+  });
+
   it("set beats default on a unit without a fit", () => {
     getDb().update(storageUnits).set({ warmUpTauMin: 600 }).where(eq(storageUnits.id, fz2)).run();
     expect(warmUpsOfUnits(getDb(), [fz2]).get(fz2)).toMatchObject({ source: "set", tauMin: 600, fit: null });
