@@ -17,6 +17,7 @@ const TRACE = "#0072B2"; // blue
 const ENVELOPE = "#56B4E9"; // sky blue
 const SET_RANGE = "#009E73"; // bluish green
 const EXCURSION = "#D55E00"; // vermillion
+const OVERLAY = "#000000"; // black: a model curve drawn over the readings
 // Darker shades of the same hues for text, for contrast on white.
 const SET_RANGE_TEXT = "#00664a";
 const EXCURSION_TEXT = "#9c3d00";
@@ -33,6 +34,9 @@ const PRESETS = [
 ] as const;
 
 type View = { fromMs: number; toMs: number } | null;
+
+/** A model curve drawn dashed over the readings (e.g. a fitted warm-up), with its legend text. */
+export type TraceOverlay = { label: string; points: { atMs: number; tempC: number }[] };
 
 const viewKey = (view: View) => (view ? `${view.fromMs}-${view.toMs}` : "default");
 
@@ -128,7 +132,18 @@ function TraceTooltip({ active, payload, bucketMs }: { active?: boolean; payload
  * and excursions hatched. Range buttons, panning and drag-to-zoom fetch the window again, so a
  * day shows every reading. Times are UTC.
  */
-export function TemperatureTraceChart({ sensorId, initial, className = "" }: { sensorId: number; initial?: ReadingSeries | null; className?: string }) {
+export function TemperatureTraceChart({
+  sensorId,
+  initial,
+  overlays = [],
+  className = "",
+}: {
+  sensorId: number;
+  initial?: ReadingSeries | null;
+  /** Curves drawn dashed in black over the readings; each takes a line in the legend. */
+  overlays?: TraceOverlay[];
+  className?: string;
+}) {
   const uid = useId().replace(/:/g, "");
   const [view, setView] = useState<View>(initial ? { fromMs: initial.fromMs, toMs: initial.toMs } : null);
   const [drag, setDrag] = useState<{ startMs: number; endMs: number } | null>(null);
@@ -190,7 +205,7 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
     setDrag(null);
     setView(next);
   };
-  const description = traceDescription(series);
+  const description = [traceDescription(series), ...overlays.map((overlay) => `${overlay.label}.`)].join(" ");
   const open = series.excursions.filter((e) => e.endAtMs == null).length;
 
   return (
@@ -331,6 +346,21 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
               connectNulls={false}
               name={bucketed ? "Mean" : "Reading"}
             />
+            {overlays.map((overlay, index) => (
+              <Line
+                key={`overlay-${index}`}
+                data={overlay.points}
+                dataKey="tempC"
+                stroke={OVERLAY}
+                strokeWidth={2}
+                strokeDasharray="6 4"
+                dot={false}
+                activeDot={false}
+                isAnimationActive={false}
+                tooltipType="none"
+                name={overlay.label}
+              />
+            ))}
             {bands
               .filter((band) => band.peakAtMs >= fromMs && band.peakAtMs <= toMs)
               .map((band) => (
@@ -371,6 +401,14 @@ export function TemperatureTraceChart({ sensorId, initial, className = "" }: { s
               Lowest to highest reading in each {bucketText(series.bucketMs!)}
             </li>
           ) : null}
+          {overlays.map((overlay, index) => (
+            <li key={`overlay-${index}`} className="flex items-center gap-1.5">
+              <Swatch>
+                <line x1="1" y1="7" x2="27" y2="7" stroke={OVERLAY} strokeWidth="2" strokeDasharray="6 4" />
+              </Swatch>
+              {overlay.label}
+            </li>
+          ))}
           {rangeLabel ? (
             <li className="flex items-center gap-1.5">
               <Swatch>

@@ -1,14 +1,17 @@
 /**
  * Demo temperatures for the invented Corvane Institute: the demo loggers, a year of readings
  * every 15 minutes up to the seed time (traces in ./demo-traces.ts), the excursions Headroom finds
- * in them, an acknowledgement of the failed refrigerator, and the demo ingest key. Invented data.
+ * in them, an acknowledgement of the failed refrigerator, the warm-up fitted to that failure, and
+ * the demo ingest key. Invented data.
  */
 import type Database from "better-sqlite3";
 import { and, asc, count, eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { auditEvents, excursions, rooms, sensors, storageUnits } from "@/db/schema";
+import { auditEvents, excursions, jobs, rooms, sensors, storageUnits } from "@/db/schema";
 import { storeApiKey } from "@/lib/api-keys/service";
 import { refreshExcursions } from "@/lib/temperatures/excursion-store";
+import { WARM_UP_FIT_JOB } from "@/lib/temperatures/warm-up-jobs";
+import { refitUnitWarmUp, unitsWithEndedExcursions } from "@/lib/temperatures/warm-up-store";
 import { DAY_MS, demoTraces, READING_INTERVAL_MS } from "./demo-traces";
 
 /**
@@ -25,6 +28,8 @@ export type DemoTemperatureSummary = {
   excursions: number;
   heatWave: { startMs: number; endMs: number };
   failure: { startMs: number; repairMs: number };
+  /** The units whose warm-up was fitted to their recorded failures. */
+  warmUpFits: { unitId: number; tauMin: number; rmsErrorC: number; excursions: number; readings: number }[];
 };
 
 const FAILURE_ACKNOWLEDGEMENT =
@@ -112,6 +117,15 @@ export function seedDemoTemperatures(
     }
   }
 
+  // Each unit with a recorded failure gets its warm-up fitted now, as the background job would after
+  // the excursion ended; the first assessment below reads it (so nothing is queued here).
+  const warmUpFits: DemoTemperatureSummary["warmUpFits"] = [];
+  for (const unitId of unitsWithEndedExcursions(tx)) {
+    const { fit } = refitUnitWarmUp(tx, unitId, { nowMs, queue: false });
+    if (fit) warmUpFits.push({ unitId, tauMin: fit.tauMin, rmsErrorC: fit.rmsErrorC, excursions: fit.excursionCount, readings: fit.readingCount });
+  }
+  tx.delete(jobs).where(and(eq(jobs.kind, WARM_UP_FIT_JOB), eq(jobs.status, "queued"))).run();
+
   storeApiKey(tx, { system: "demo seed" }, { name: DEMO_INGEST_KEY_NAME, scopes: ["readings:write"], key: DEMO_INGEST_KEY, createdById: people.adminId });
 
   return {
@@ -120,5 +134,6 @@ export function seedDemoTemperatures(
     excursions: tx.select({ n: count() }).from(excursions).get()?.n ?? 0,
     heatWave: { startMs: traces.heatWave.startMs, endMs: traces.heatWave.endMs },
     failure: traces.failure,
+    warmUpFits,
   };
 }

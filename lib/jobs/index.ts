@@ -11,6 +11,7 @@ import { kickOutbox, startOutboxJob } from "@/lib/mail/deliver";
 import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
 import { applySubstanceLibraryEdition } from "@/lib/substances/library-edition";
+import { kickWarmUpFits } from "@/lib/temperatures/warm-up-jobs";
 
 /** Background work of the server process, started once from instrumentation.ts. */
 export function startJobs(): void {
@@ -29,9 +30,13 @@ export function startJobs(): void {
   const timer = setInterval(kickReassessments, 30_000);
   timer.unref?.();
   kickReassessments();
+  // Units whose excursion ended are fitted again (their warm-up τ) in the background.
+  const fits = setInterval(kickWarmUpFits, 30_000);
+  fits.unref?.();
+  kickWarmUpFits();
   startCrossingWatch();
   const backup = startBackupJob();
-  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", "crossing-watch", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
+  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", "warm-up-fits", "crossing-watch", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
 }
 
 /** How often open excursions are projected for crossings less than an hour away. */

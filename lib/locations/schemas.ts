@@ -13,6 +13,10 @@ export const siteFields = {
 export const siteCreateSchema = z.object(siteFields);
 export const siteUpdateSchema = z.object(siteFields).partial();
 
+/** The range a person may set τ in: 5 minutes to 30 days. */
+export const WARM_UP_TAU_MIN_MIN = 5;
+export const WARM_UP_TAU_MAX_MIN = 30 * 24 * 60;
+
 const tempC = (label: string) => optionalNumber({ label, unit: "°C", min: -200, max: 100 });
 
 const roomFields = {
@@ -59,6 +63,9 @@ const unitFields = {
   ignitionSourceFree: yesNo("Interior free of ignition sources"),
   ownerId: optionalId("owner"),
   notes: optionalText("Notes"),
+  /** τ of the unit's warm-up after a failure, set by a person: 5 minutes to 30 days; null goes back to the fitted or default value. */
+  warmUpTauMin: optionalNumber({ label: "Warm-up time constant τ", unit: "min", min: WARM_UP_TAU_MIN_MIN, max: WARM_UP_TAU_MAX_MIN }),
+  warmUpTauNote: optionalText("Note on the warm-up time constant", 500),
 };
 export const storageUnitCreateSchema = z.object(unitFields).superRefine(setRangeOrdered);
 export const storageUnitUpdateSchema = z.object(unitFields).partial().superRefine(setRangeOrdered);

@@ -10,6 +10,7 @@ import { rethrowConstraint } from "@/lib/db-errors";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
 import type { RoomInput, SiteInput, StorageUnitInput } from "./schemas";
 import { withoutUndefined } from "@/lib/objects";
+import { unitIsTemperatureControlled } from "@/lib/temperatures/warm-up";
 
 const SITE_UNIQUE = { "sites.name": { field: "name", message: "A site with this name already exists." } };
 const ROOM_UNIQUE = { "rooms.site_id, rooms.code": { field: "code", message: "This site already has a room with that code." } };
@@ -162,9 +163,28 @@ function requireLiveRoom(tx: DbOrTx, roomId: number): Room {
   return room;
 }
 
+const WARM_UP_ONLY_CONTROLLED = "A warm-up time constant applies only to a temperature-controlled unit (a refrigerator, a freezer or a unit with a set range).";
+
+/** τ belongs to temperature-controlled units: elsewhere it would never be used. */
+function requireWarmUpOnControlledUnit(unit: Pick<StorageUnit, "kind"> & { setMinC?: number | null; setMaxC?: number | null; warmUpTauMin?: number | null }): void {
+  if (unit.warmUpTauMin != null && !unitIsTemperatureControlled({ kind: unit.kind, setMinC: unit.setMinC ?? null, setMaxC: unit.setMaxC ?? null })) {
+    throw new ValidationError(WARM_UP_ONLY_CONTROLLED, { warmUpTauMin: [WARM_UP_ONLY_CONTROLLED] });
+  }
+}
+
+/** The note explains a person's τ: without one (cleared back to the fitted or default value) it is cleared too. */
+function warmUpChanges(before: StorageUnit, input: Partial<StorageUnitInput>): Partial<StorageUnitInput> {
+  const tauAfter = input.warmUpTauMin === undefined ? before.warmUpTauMin : input.warmUpTauMin;
+  const noteAfter = input.warmUpTauNote === undefined ? before.warmUpTauNote : input.warmUpTauNote;
+  if (tauAfter == null && noteAfter != null) return { ...input, warmUpTauNote: null };
+  return input;
+}
+
 export function createStorageUnit(actor: SessionUser, input: StorageUnitInput): StorageUnit {
   try {
     return getDb().transaction((tx) => {
+      requireWarmUpOnControlledUnit(input);
+      if (input.warmUpTauMin == null) input = { ...input, warmUpTauNote: null };
       const room = requireLiveRoom(tx, input.roomId);
       requireUser(tx, input.ownerId, "ownerId");
       const unit = tx
@@ -194,11 +214,13 @@ export function updateStorageUnit(actor: SessionUser, id: number, input: Partial
       if (!before || before.retiredAt) throw new NotFoundError("That storage unit");
       if (input.roomId !== undefined && input.roomId !== before.roomId) requireLiveRoom(tx, input.roomId);
       requireUser(tx, input.ownerId, "ownerId");
-      const merged = { ...before, ...withoutUndefined(input) };
+      const changes = warmUpChanges(before, input);
+      const merged = { ...before, ...withoutUndefined(changes) };
       if (merged.setMinC != null && merged.setMaxC != null && merged.setMinC > merged.setMaxC) {
         throw new ValidationError("The set range maximum must not be below its minimum.", { setMaxC: ["The set range maximum must not be below its minimum."] });
       }
-      const after = tx.update(storageUnits).set({ ...withoutUndefined(input), updatedAt: new Date() }).where(eq(storageUnits.id, id)).returning().get();
+      requireWarmUpOnControlledUnit(merged);
+      const after = tx.update(storageUnits).set({ ...withoutUndefined(changes), updatedAt: new Date() }).where(eq(storageUnits.id, id)).returning().get();
       const diff = changedFields(auditSnapshot(before), auditSnapshot(after));
       if (diff.keys.length) {
         recordAudit(tx, actor, { action: "update", entityType: "storage_unit", entityId: id, summary: `Updated storage unit ${after.code} (${diff.keys.join(", ")})`, before: diff.before, after: diff.after });

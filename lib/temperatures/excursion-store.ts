@@ -9,6 +9,7 @@ import type { SessionUser } from "@/lib/auth/session";
 import { scopeFor } from "@/lib/auth/permissions";
 import { ConflictError, DomainError, ForbiddenError, NotFoundError } from "@/lib/errors";
 import { createExcursionDetector, type DetectedExcursion, type ExcursionRule } from "./excursions";
+import { queueWarmUpFits } from "./warm-up-jobs";
 
 export type SensorExcursionRule = ExcursionRule & { minDurationMin: number; roomId: number | null; storageUnitId: number | null; externalId: string };
 
@@ -62,6 +63,8 @@ export function refreshExcursions(tx: DbOrTx, sensorIds: number[], opts: { since
     total.opened += result.opened;
     total.closed += result.closed;
     total.updated += result.updated;
+    // An ended excursion of a unit is a recorded failure: its warm-up is fitted again in the background.
+    if (rule.storageUnitId != null && events.some((e) => e.excursion.endAt != null)) queueWarmUpFits(tx, [rule.storageUnitId]);
     if (opts.notify && events.length) queueExcursionAlerts(tx, { sensorExternalId: rule.externalId, minDurationMin: rule.minDurationMin, roomId: rule.roomId, storageUnitId: rule.storageUnitId }, events);
   }
   return total;

@@ -15,6 +15,7 @@ import { commitContainerImport, commitLocationImport, previewContainerImport, pr
 import type { CsvMapping } from "@/lib/temperatures/csv";
 import { importCsvUpload, previewCsvUpload } from "@/lib/temperatures/csv-upload";
 import { ingestReadings } from "@/lib/temperatures/ingest";
+import { runWarmUpFitJob } from "@/lib/temperatures/warm-up-jobs";
 import { PortWritable } from "./port-stream";
 
 type CsvUploadRef = { actor: SessionUser; sensorId: number; token: string; mapping: CsvMapping };
@@ -42,6 +43,9 @@ export const tasks = {
     const job = await runReassessmentJob(jobId);
     return { id: job.id, status: job.status, progress: job.progress, total: job.total };
   },
+
+  // A queued fit of a unit's warm-up to its recorded failures (after one of its excursions ended).
+  "temperatures.fitWarmUp": ({ jobId }: { jobId: number }) => runWarmUpFitJob(jobId),
 
   // The register workbook, its bytes streamed to the main thread through `port`.
   "exports.registerWorkbook": async ({ port, ...options }: RegisterWorkbookOptions & { port: MessagePort }) => {

@@ -40,6 +40,7 @@ const ROUTES: Entry[] = [
   { file: "storage-units/[id]/route.ts", method: "GET", path: "/api/v1/storage-units/999", action: "locations.read", params: { id: "999" } },
   { file: "storage-units/[id]/route.ts", method: "PATCH", path: "/api/v1/storage-units/999", action: "locations.write", params: { id: "999" }, body: {} },
   { file: "storage-units/[id]/route.ts", method: "DELETE", path: "/api/v1/storage-units/999", action: "locations.write", params: { id: "999" } },
+  { file: "storage-units/[id]/warm-up/route.ts", method: "GET", path: "/api/v1/storage-units/999/warm-up", action: "locations.read", params: { id: "999" } },
   { file: "containers/route.ts", method: "POST", path: "/api/v1/containers", action: "containers.write", body: {} },
   { file: "containers/[id]/route.ts", method: "GET", path: "/api/v1/containers/999", action: "inventory.read", params: { id: "999" } },
   { file: "containers/[id]/route.ts", method: "PATCH", path: "/api/v1/containers/999", action: "containers.write", params: { id: "999" }, body: {} },

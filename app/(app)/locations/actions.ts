@@ -32,7 +32,9 @@ export const createUnitAction = formAction({ action: "locations.write", schema: 
 
 export const updateUnitAction = formAction({ action: "locations.write", schema: storageUnitEditFormSchema }, async ({ user, input }) => {
   const { id, ...changes } = input;
-  updateStorageUnit(user, id, changes);
+  // The form always shows τ and its note, and Conform reads an emptied field as absent: here empty
+  // means "back to the fitted or default value", not "unchanged".
+  updateStorageUnit(user, id, { ...changes, warmUpTauMin: changes.warmUpTauMin ?? null, warmUpTauNote: changes.warmUpTauNote ?? null });
   revalidatePath(`/locations/units/${id}`);
   return "Saved.";
 });

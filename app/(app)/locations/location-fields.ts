@@ -64,6 +64,18 @@ export function unitSections(owners: Option[]): FieldSection[] {
         { name: "excursionMinDurationMin", label: "Minimum excursion duration (min)", kind: "number" },
       ],
     },
+    {
+      legend: "Warm-up after a failure (refrigerators, freezers, units with a set range)",
+      fields: [
+        {
+          name: "warmUpTauMin",
+          label: "Warm-up time constant τ (min)",
+          kind: "number",
+          hint: "5 to 43,200 min (30 days); 240 is 4 h. Leave empty to use the value fitted to the unit's recorded failures, or the default of its kind.",
+        },
+        { name: "warmUpTauNote", label: "Why this τ", kind: "text", span: 2, hint: "How it was measured or why it differs from the fit, for whoever reads the unit's assessment." },
+      ],
+    },
     { fields: [{ name: "notes", label: "Notes", kind: "textarea", span: 3 }] },
   ];
 }

@@ -13,6 +13,7 @@ import { can } from "@/lib/auth/permissions";
 import { formatCount, formatNumber } from "@/lib/format/numbers";
 import { ReassessmentBanner } from "../reassessment-banner";
 import { SettingsForm } from "./settings-form";
+import { WarmUpDefaultsCard } from "./warm-up-defaults-card";
 
 export const metadata: Metadata = { title: "Thresholds and assumptions" };
 
@@ -221,6 +222,7 @@ export default async function AssessmentSettingsPage() {
           </table>
         </div>
       </Card>
+      <WarmUpDefaultsCard />
       <Caution />
     </div>
   );

@@ -20,6 +20,7 @@ import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-tempe
 import { PlaceFindings } from "../../place-findings";
 import { BrokenBottlesCard } from "@/components/register/broken-bottles-card";
 import { brokenBottlesOfUnit } from "@/lib/assessment/broken-bottles";
+import { WarmUpCard } from "./warm-up-card";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -65,6 +66,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       </dl>
       <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
       <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
+      <WarmUpCard user={user} unit={unit} />
       {bottles ? <BrokenBottlesCard bottles={bottles} unitCode={unit.code} /> : null}
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>
@@ -77,7 +79,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
             roomId={unit.roomId}
             owners={owners}
             values={Object.fromEntries(
-              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes"].map((k) => [k, toFormValue((unit as Record<string, unknown>)[k])]),
+              ["id", "code", "name", "kind", "internalVolumeL", "setMinC", "setMaxC", "excursionThresholdC", "excursionMinDurationMin", "ventilated", "ignitionSourceFree", "ownerId", "notes", "warmUpTauMin", "warmUpTauNote"].map((k) => [k, toFormValue((unit as Record<string, unknown>)[k])]),
             )}
           />
         </Card>
