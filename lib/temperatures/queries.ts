@@ -236,6 +236,8 @@ export type ExcursionRow = {
 };
 
 export type ExcursionFilter = {
+  /** One excursion. */
+  id?: number;
   sensorId?: number;
   /** Excursions of the room's own sensors. */
   roomId?: number;
@@ -252,6 +254,7 @@ export type ExcursionFilter = {
 
 function excursionConditions(filter: ExcursionFilter): SQL[] {
   const conditions: SQL[] = [];
+  if (filter.id != null) conditions.push(eq(excursions.id, filter.id));
   if (filter.sensorId != null) conditions.push(eq(excursions.sensorId, filter.sensorId));
   if (filter.roomId != null) conditions.push(eq(excursions.roomId, filter.roomId));
   if (filter.storageUnitId != null) conditions.push(eq(excursions.storageUnitId, filter.storageUnitId));
