@@ -394,7 +394,19 @@ function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): numb
     const denominator = tempK + compiled.k2;
     return denominator <= 0 ? Number.NaN : Math.exp(compiled.k0 - compiled.k1 / denominator);
   }
-  if (form >= FORM_WAGNER_25_5) {
+  if (form === FORM_WAGNER_25_5) {
+    // The common published form, written out: τ^1.5 = τ·√τ, τ^2.5 = τ²·√τ, τ^5 = τ⁴·τ.
+    const reducingTempK = compiled.k5;
+    const tau = 1 - tempK / reducingTempK;
+    if (tau > 0) {
+      const root = Math.sqrt(tau);
+      const square = tau * tau;
+      const sum = compiled.k1 * tau + (compiled.k2 * tau + compiled.k3 * square) * root + compiled.k4 * square * square * tau;
+      return Math.exp(compiled.k0 + (reducingTempK / tempK) * sum);
+    }
+    return Math.exp(compiled.k0);
+  }
+  if (form >= FORM_WAGNER_3_6) {
     const reducingTempK = compiled.k5;
     const sum = wagnerSum(form, compiled.k1, compiled.k2, compiled.k3, compiled.k4, compiled.n, compiled.t, 1 - tempK / reducingTempK);
     return Math.exp(compiled.k0 + (reducingTempK / tempK) * sum);
