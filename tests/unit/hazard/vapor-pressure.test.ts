@@ -215,6 +215,42 @@ describe('method choice and warnings', () => {
   });
 });
 
+describe('Wagner-type correlations', () => {
+  // ln(P/Pc) = (Tc/T)·Σ nᵢ·τ^tᵢ, τ = 1 − T/Tc (W. Wagner, Cryogenics 13 (1973) 470), each published set with its own exponents.
+  const acetoneVdi = { kind: 'wagner' as const, reducingTempK: 508.1, reducingPressureKPa: 4692, coefficients: [-7.67033, 1.96469, -2.4438, -2.90162], exponents: [1, 1.5, 2.5, 5], tMinC: -94.8, tMaxC: 234.95 };
+  // McGarry, Ind. Eng. Chem. Process Des. Dev. 22 (1983) 313, "3-6" form: acetone, Tc 508.1 K, Pc 4699.93 kPa, from 259 K.
+  const acetoneMcGarry = { kind: 'wagner' as const, reducingTempK: 508.1, reducingPressureKPa: 4699.93, coefficients: [-7.45514, 1.202, -2.43926, -3.3559], exponents: [1, 1.5, 3, 6], tMinC: -14.15, tMaxC: 234.95 };
+  const byHand = (c: { reducingTempK: number; reducingPressureKPa: number; coefficients: readonly number[]; exponents: readonly number[] }, tempC: number) => {
+    const tempK = tempC + 273.15;
+    const tau = 1 - tempK / c.reducingTempK;
+    return c.reducingPressureKPa * Math.exp((c.reducingTempK / tempK) * c.coefficients.reduce((sum, n, i) => sum + n * Math.pow(tau, c.exponents[i]), 0));
+  };
+
+  it.each([
+    ['2.5-5 form (VDI Heat Atlas acetone)', acetoneVdi],
+    ['3-6 form (McGarry acetone)', acetoneMcGarry],
+    ['any exponents (the same VDI set written with 6 terms, two of them zero)', { ...acetoneVdi, coefficients: [...acetoneVdi.coefficients, 0, 0], exponents: [1, 1.5, 2.5, 5, 2, 7] }],
+  ] as const)('the compiled hot path equals the equation written out: %s', (_label, correlation) => {
+    for (const tempC of [-40, -12.5, 0, 20, 37.8, 60]) {
+      const props: VaporProperties = { molarMassGPerMol: 58.08, correlations: [{ ...correlation, coefficients: [...correlation.coefficients], exponents: [...correlation.exponents] }] };
+      expect(relativeDeviation(saturationPressure(props, tempC).pressureKPa, byHand(correlation, tempC))).toBeLessThan(1e-12);
+    }
+  });
+
+  it('two published acetone sets agree with each other within 0.4 % at 20–60 °C, and with the normal boiling point', () => {
+    // Check values: McGarry (1983) against VDI Heat Atlas (2010); CRC Handbook 95th ed. Tb 56.08 °C at 101.325 kPa.
+    for (const tempC of [20, 40, 60]) expect(relativeDeviation(byHand(acetoneVdi, tempC), byHand(acetoneMcGarry, tempC))).toBeLessThan(0.004);
+    expect(relativeDeviation(byHand(acetoneVdi, 56.08), 101.325)).toBeLessThan(0.005);
+  });
+
+  it('at or above Tc there is no liquid: the critical pressure, extrapolated, with the reason', () => {
+    const result = saturationPressure({ molarMassGPerMol: 58.08, correlations: [{ ...acetoneVdi, tMaxC: 200 }] }, 240);
+    expect(result.pressureKPa).toBeCloseTo(4692, 9);
+    expect(result.extrapolated).toBe(true);
+    expect(result.warnings.join(' ')).toMatch(/no liquid is left, and the value shown is the reducing pressure, 4692 kPa/);
+  });
+});
+
 describe('integrated Clausius–Clapeyron (worked examples)', () => {
   it('acetone at 25 °C from its normal boiling point (OpenStax Chemistry 2e §10.3; published 30.1 kPa from memory)', () => {
     // Recomputed in full precision: 30.31 kPa (P1 = 101.3 kPa, Tb 56.5 °C, ΔHvap 31.3 kJ/mol).

@@ -46,7 +46,8 @@ function rangeText(c: Record<string, unknown>): string {
 
 /** How the curve passes from one correlation to the next over −40 … 60 °C (the library keeps each step under 0.5 %). */
 function handoverText(row: Parameters<typeof toVaporProperties>[0]): string | null {
-  if (row.correlations.length < 2) return null;
+  if (row.correlations.length === 0) return null;
+  if (row.correlations.length === 1) return "One correlation draws the whole curve: no hand-over between correlations, so no step in it.";
   let handovers: ReturnType<typeof correlationHandovers>;
   try {
     handovers = correlationHandovers(toVaporProperties(row), -40, 60, 0.1);
