@@ -3149,6 +3149,9 @@ export const substanceLibrary: SubstanceSeed[] = [
     enthalpyOfVaporizationKJPerMol: 43.1,
     meltingPointC: 18.52,
     flashPointC: 87,
+    lflVolPercent: 2.6,
+    uflVolPercent: 63,
+    autoignitionC: 215,
     correlations: [
       {
         kind: "dippr101",
@@ -3165,9 +3168,14 @@ export const substanceLibrary: SubstanceSeed[] = [
     exposureLimits: [],
     physicalState: "liquid",
     liquidDensityGPerMl: 1.101,
-    alternativeFlammability: [],
+    alternativeFlammability: [
+      {
+        source: "NTP Chemical Repository data sheet, dimethyl sulfoxide (Radian Corp., August 29, 1991), Flammability: \"flash point of 95 C (203 F)\"; National Research Council, Prudent Practices in the Laboratory (1995), LCSS for dimethyl sulfoxide: flash point 95 °C",
+        flashPointC: 95,
+      },
+    ],
     notes: [
-      "Flash point 87 °C (ICSC 0459): GHS Category 4 combustible liquid, NFPA 30 Class IIIA. Below its flash point it gives no flammable vapor; at storage temperatures its vapor pressure is far below any LFL.",
+      "Flash point 87 °C (ICSC 0459; 95 °C in the NTP data sheet and Prudent Practices): GHS Category 4 combustible liquid, NFPA 30 Class IIIA either way. LFL 2.6 % (NTP): at 20 °C the saturated vapor (about 0.06 kPa) is about 2 % of it.",
       "No Antoine set in the compilations used covers room temperature (NIST 325.49-442.09 K; Landolt 483-523 K); use Perry DIPPR-101 (291.67-729 K). No OSHA PEL (OSHA Chemical Sampling Information, Dimethyl sulfoxide). Flash point not in IEC/NFPA transcriptions (left blank).",
     ],
     sources: {
@@ -3180,9 +3188,9 @@ export const substanceLibrary: SubstanceSeed[] = [
       enthalpyOfVaporizationKJPerMol: "CRC Handbook of Chemistry and Physics 95th ed. (Haynes ed., 2014): Physical Constants of Organic Compounds (Tb) and Enthalpy of Vaporization table (dHvap at Tb and at 298.15 K) - as transcribed in CalebBell/chemicals (Misc/Physical Constants of Organic Compounds.csv; Phase Change/CRC Handbook Heat of Vaporization.tsv) (ΔHvap at 462.15 K)",
       meltingPointC: "triple-point temperature, the lower limit of the DIPPR-101 range in Perry's Chemical Engineers' Handbook 8th ed. Table 2-8 (equal to the melting point within about 0.1 K)",
       flashPointC: "ICSC 0459 Dimethyl sulphoxide (ILO/WHO International Chemical Safety Cards, November 2023 version), Fire & explosion: \"Combustible … Above 87 °C explosive vapour/air mixtures may be formed\" — the card's flash point; the card classifies DMSO under the UN GHS criteria as \"Combustible liquid\" (Category 4: flash point above 60 °C and at most 93 °C, GHS chapter 2.6). NFPA 30 (2003) definitions: Class IIIA, flash point at or above 140 °F (60 °C) and below 200 °F (93 °C)",
-      lflVolPercent: "no value in IEC 60079-20-1, NFPA 497 or ICSC 0459: left out, so the LFL rules do not run for DMSO; a vapor above 87 °C can burn (ICSC 0459)",
-      uflVolPercent: "no value in IEC 60079-20-1 or NFPA 497 transcriptions (nonflammable or not listed); left out",
-      autoignitionC: "no value in IEC 60079-20-1 or NFPA 497 transcriptions (nonflammable or not listed); left out",
+      lflVolPercent: "NTP Chemical Repository data sheet, dimethyl sulfoxide (Radian Corp., August 29, 1991), Flammability: \"LEL: 2.6%\"",
+      uflVolPercent: "NTP Chemical Repository data sheet, dimethyl sulfoxide (Radian Corp., August 29, 1991), Flammability: \"UEL: 63%\"",
+      autoignitionC: "NTP Chemical Repository data sheet, dimethyl sulfoxide (Radian Corp., August 29, 1991), Flammability: \"The autoignition temperature is 215 C (419 F)\"; the same 215 °C in National Research Council, Prudent Practices in the Laboratory (1995), LCSS for dimethyl sulfoxide",
       correlations: "one published set covers from the melting point (18.52 °C) to 60 °C, so the curve has no hand-over between sets there; no other published set reaches below 52 °C; at 60 °C it agrees with the NIST WebBook Antoine set within 0.01 % (Headroom's comparison; each correlation names its own source)",
       exposureLimits: "no OSHA PEL: OSHA Chemical Sampling Information, Dimethyl sulfoxide, https://www.osha.gov/dts/chemicalsampling/data/CH_236510.html (note 1: \"OSHA does not have a PEL for dimethyl sulfoxide (DMSO)\")",
       physicalState: "liquid at 20 °C and 1 atm: normal boiling point (CRC) above and melting point below 20 °C",

@@ -56,12 +56,14 @@ describe('substance library seed', () => {
     expect(uncovered).toEqual([]);
   });
 
-  it('DMSO has a flash point (87 °C, ICSC 0459): GHS Category 4 and NFPA 30 Class IIIA; dichloromethane has none and no LFL', () => {
+  it('DMSO has a flash point (87 °C, ICSC 0459) and an LFL (2.6 %, NTP): GHS Category 4 and NFPA 30 Class IIIA; dichloromethane has neither', () => {
     const dmso = substanceLibrary.find((seed) => seed.cas === '67-68-5')!;
     expect(dmso.flashPointC).toBe(87);
     expect(ghsFlammableCategory(dmso.flashPointC!, dmso.normalBoilingPointC)).toBe(4);
     expect(nfpaLiquidClass(dmso.flashPointC!, dmso.normalBoilingPointC)).toBe('IIIA');
     expect(dmso.sources.flashPointC).toMatch(/ICSC 0459/);
+    // LEL 2.6 %, UEL 63 % (NTP Chemical Repository data sheet, 1991): with a flash point and an LFL, no missing-data finding.
+    expect([dmso.lflVolPercent, dmso.uflVolPercent]).toEqual([2.6, 63]);
     const dcm = substanceLibrary.find((seed) => seed.cas === '75-09-2')!;
     expect(dcm.flashPointC).toBeUndefined();
     expect(dcm.lflVolPercent).toBeUndefined();
