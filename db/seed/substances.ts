@@ -43,7 +43,7 @@ export function substanceRow(seed: SubstanceSeed): typeof substances.$inferInser
  * The library's edition. Raise it whenever the library's values or sources change: installations
  * then refresh their copy once (refreshSubstanceLibrary).
  */
-export const SUBSTANCE_LIBRARY_EDITION = "2026-12-05";
+export const SUBSTANCE_LIBRARY_EDITION = "2026-12-06";
 export const LIBRARY_EDITION_KEY = "substanceLibrary.edition";
 
 function insertLimits(tx: DbOrTx, substanceId: number, seed: SubstanceSeed): void {

@@ -19,6 +19,13 @@ export const METHODS: MethodStatement[] = [
     source: "Perry's Chemical Engineers' Handbook, 8th ed., Table 2-8",
   },
   {
+    item: "Wagner equation",
+    statement:
+      "The library's preferred form where a set is published: ln(P / Pc) = (Tc / T) · Σ nᵢ · τ^tᵢ with τ = 1 − T / Tc, T in kelvin; each set keeps its own exponents (1, 1.5, 2.5, 5 in the \"2.5-5\" form). Dry ice's sublimation line has the same form reduced by the triple point. Sets are chosen so that one set covers −40 … 60 °C; where two sets meet in that span, the curve steps by less than 0.5 %.",
+    source:
+      "W. Wagner, Cryogenics 13 (1973) 470; coefficient sets of the VDI Heat Atlas, 2nd ed. (2010), chapter D3.1; Poling, Prausnitz & O'Connell, 5th ed., §7-3; Span & Wagner, J. Phys. Chem. Ref. Data 25 (1996) 1509 (CO₂); Wagner & Pruss, J. Phys. Chem. Ref. Data 22 (1993) 783 (water)",
+  },
+  {
     item: "Clausius–Clapeyron equation",
     statement:
       "Without coefficients for the temperature: ln(P / P₀) = −(ΔHvap / R) · (1 / T − 1 / T₀) from the normal boiling point (P₀ = 101.325 kPa at T₀ = Tb) with a constant enthalpy of vaporization; when that is unknown it is estimated by Trouton's rule, ΔHvap ≈ 88 J/(mol·K) × Tb, and the result says so.",

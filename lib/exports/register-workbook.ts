@@ -21,6 +21,7 @@ import {
 import { NotFoundError } from "@/lib/errors";
 import { CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { ROOM_KIND_LABELS, STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels";
+import { correlationCoefficients, correlationEquation } from "@/lib/format/correlations";
 import { lookBackDays } from "@/lib/temperatures/queries";
 import { locationWorstCases } from "./location-worst-cases";
 import { assumptions, CAUTIONS, METHODS, SUMMARY_CAUTION, type MethodStatement } from "./methods";
@@ -306,16 +307,7 @@ const num = (v: unknown) => (typeof v === "number" ? v : null);
 const source = (r: SubstanceSheetRow, key: string) => r.substance.sources[key] ?? null;
 
 function correlationForm(c: Record<string, unknown>): string {
-  if (c.kind === "dippr101") return "DIPPR 101: ln(P/Pa) = C1 + C2/T + C3·ln T + C4·T^C5, T in K";
-  if (c.kind !== "antoine") return String(c.kind);
-  const log = c.log === "ln" ? "ln" : "log10";
-  const t = c.temperatureUnit === "C" ? "t/°C" : "T/K";
-  return `Antoine: ${log}(P/${String(c.pressureUnit)}) = A − B/(${t} + C)`;
-}
-
-function correlationCoefficients(c: Record<string, unknown>): string {
-  const keys = c.kind === "dippr101" ? ["c1", "c2", "c3", "c4", "c5"] : ["a", "b", "c"];
-  return keys.map((k) => `${k.toUpperCase()} = ${String(c[k])}`).join("; ");
+  return correlationEquation(c);
 }
 
 function correlationSummary(c: Record<string, unknown>): string {

@@ -27,6 +27,7 @@ export const ROOM_KIND_LABELS: Record<RoomKind, string> = {
 export const VAPOR_METHOD_LABELS: Record<string, string> = {
   antoine: "Antoine equation",
   dippr101: "DIPPR 101 equation",
+  wagner: "Wagner equation",
   "clausius-clapeyron": "Clausius–Clapeyron from the boiling point",
   "clausius-clapeyron-trouton": "Clausius–Clapeyron with Trouton's rule (estimate)",
 };

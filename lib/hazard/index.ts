@@ -26,7 +26,7 @@ export {
   type SaturatedConcentrationResult,
 } from './vapor-pressure';
 export { ppmToMgPerM3, mgPerM3ToPpm } from './concentration';
-export { selectCorrelation } from './vapor-pressure';
+export { selectCorrelation, correlationHandovers, wagnerEquationText, wagnerFormName, type CorrelationHandover } from './vapor-pressure';
 export { traceSaturatedConcentration, type PropertySources } from './saturation-trace';
 export {
   ghsFlammableCategory,

@@ -4,6 +4,8 @@ import {
   TROUTON_ENTROPY_J_PER_MOL_K,
   saturatedConcentration,
   selectCorrelation,
+  wagnerEquationText,
+  wagnerFormName,
   type SaturatedConcentrationResult,
   type VaporPressureCorrelation,
   type VaporProperties,
@@ -15,6 +17,7 @@ export type PropertySources = Partial<Record<keyof VaporProperties | string, str
 const METHOD_SOURCES = {
   antoine: 'Antoine equation (C. Antoine, 1888) with the published coefficient set named in the inputs',
   dippr101: "DIPPR equation 101 (Perry's Chemical Engineers' Handbook 8th ed., Table 2-8)",
+  wagner: 'Wagner-type vapor-pressure equation (W. Wagner, Cryogenics 13 (1973) 470) with the published coefficient set named in the inputs',
   'clausius-clapeyron': 'Integrated Clausius–Clapeyron equation with constant ΔHvap (e.g. OpenStax Chemistry 2e §10.3)',
   'clausius-clapeyron-trouton':
     "Integrated Clausius–Clapeyron equation with ΔHvap from Trouton's rule (88 J/(mol·K) × Tb, common practice)",
@@ -32,6 +35,19 @@ function correlationSteps(correlation: VaporPressureCorrelation, tempC: number, 
         'Antoine equation',
         `${logName}(P/${correlation.pressureUnit}) = A − B/(${tText} + C)`,
         `${logName}(P/${correlation.pressureUnit}) = ${correlation.a} − ${correlation.b}/(${formatSig(tValue, 6)} + ${correlation.c}); P = ${formatSig(pressureKPa, 5)} kPa`,
+        result,
+      ),
+    ];
+  }
+  if (correlation.kind === 'wagner') {
+    const sublimation = correlation.line === 'solid-vapor';
+    const tau = 1 - tempK / correlation.reducingTempK;
+    const terms = correlation.coefficients.map((n, i) => `${n}·${formatSig(tau, 6)}${correlation.exponents[i] === 1 ? '' : `^${correlation.exponents[i]}`}`).join(' + ');
+    return [
+      traceStep(
+        `Wagner equation (${wagnerFormName(correlation.exponents)}${sublimation ? ', sublimation line' : ''})`,
+        wagnerEquationText(correlation),
+        `τ = 1 − ${formatSig(tempK, 6)}/${correlation.reducingTempK} = ${formatSig(tau, 6)}; ln(P/${formatSig(correlation.reducingPressureKPa, 6)} kPa) = (${correlation.reducingTempK}/${formatSig(tempK, 6)})·(${terms}); P = ${formatSig(pressureKPa, 5)} kPa`,
         result,
       ),
     ];
@@ -54,6 +70,15 @@ function correlationInputs(correlation: VaporPressureCorrelation, source: string
       traceValue('Antoine A', 'A', correlation.a, '', from),
       traceValue('Antoine B', 'B', correlation.b, correlation.temperatureUnit === 'K' ? 'K' : '°C', from),
       traceValue('Antoine C', 'C', correlation.c, correlation.temperatureUnit === 'K' ? 'K' : '°C', from),
+      range,
+    ];
+  }
+  if (correlation.kind === 'wagner') {
+    const sublimation = correlation.line === 'solid-vapor';
+    return [
+      traceValue(sublimation ? 'Wagner Tt (triple point)' : 'Wagner Tc (critical temperature)', sublimation ? 'Tt' : 'Tc', correlation.reducingTempK, 'K', from),
+      traceValue(sublimation ? 'Wagner Pt (triple point)' : 'Wagner Pc (critical pressure)', sublimation ? 'Pt' : 'Pc', correlation.reducingPressureKPa, 'kPa', from),
+      ...correlation.coefficients.map((n, i) => traceValue(`Wagner n${i + 1} (τ^${correlation.exponents[i]})`, `n${i + 1}`, n, '', from)),
       range,
     ];
   }

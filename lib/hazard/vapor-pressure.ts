@@ -51,6 +51,13 @@ function assertPositive(value: number, field: string): void {
  *   Chemistry WebBook are both covered).
  * - DIPPR equation 101: ln(P/Pa) = C1 + C2/T + C3·ln T + C4·T^C5 with T in K (Perry's Chemical
  *   Engineers' Handbook 8th ed., Table 2-8).
+ * - Wagner type: ln(P/Pr) = (Tr/T)·Σ nᵢ·τ^tᵢ with τ = 1 − T/Tr (W. Wagner, Cryogenics 13 (1973) 470).
+ *   For a liquid–vapor line Tr and Pr are the critical point; the published sets differ only in
+ *   their exponents, stored with each set so that every one is represented exactly: "2.5-5"
+ *   (1, 1.5, 2.5, 5: Poling, Prausnitz & O'Connell 5th ed. §7-3; VDI Heat Atlas 2nd ed. D3.1),
+ *   "3-6" (1, 1.5, 3, 6: McGarry 1983), Span & Wagner's CO₂ equation (1, 1.5, 2, 4), Wagner &
+ *   Pruss's water equation (1, 1.5, 3, 3.5, 4, 7.5). A sublimation line of the same form (Span &
+ *   Wagner's CO₂ eq. 3.12, exponents 1, 1.9, 2.9) is reduced by the triple point instead.
  */
 export type VaporPressureCorrelation =
   | {
@@ -75,6 +82,22 @@ export type VaporPressureCorrelation =
       tMinC: number;
       tMaxC: number;
       source?: string;
+    }
+  | {
+      kind: 'wagner';
+      /** Tr: the critical temperature of a liquid–vapor line, the triple-point temperature of a sublimation line. */
+      reducingTempK: number;
+      /** Pr: the critical pressure (liquid–vapor line) or the triple-point pressure (sublimation line). */
+      reducingPressureKPa: number;
+      /** nᵢ, in the published order. */
+      coefficients: number[];
+      /** tᵢ, one per coefficient: e.g. [1, 1.5, 2.5, 5] for the "2.5-5" form, [1, 1.5, 3, 6] for the "3-6" form. */
+      exponents: number[];
+      /** Which equilibrium the set describes; liquid–vapor when absent. A solid–vapor (sublimation) set is reduced by the triple point. */
+      line?: 'liquid-vapor' | 'solid-vapor';
+      tMinC: number;
+      tMaxC: number;
+      source?: string;
     };
 
 export type VaporProperties = {
@@ -91,7 +114,7 @@ export type VaporProperties = {
   uflVolPercent?: number;
 };
 
-export type SaturationPressureMethod = 'antoine' | 'dippr101' | 'clausius-clapeyron' | 'clausius-clapeyron-trouton';
+export type SaturationPressureMethod = 'antoine' | 'dippr101' | 'wagner' | 'clausius-clapeyron' | 'clausius-clapeyron-trouton';
 
 export type SaturationPressureResult = {
   pressureKPa: number;
@@ -125,7 +148,10 @@ export const TROUTON_ENTROPY_J_PER_MOL_K = 88;
 const LN10 = Math.LN10;
 const LN_KPA_PER_PA = Math.log(0.001);
 
-const CORRELATION_LABEL = { antoine: 'Antoine', dippr101: 'DIPPR-101' } as const;
+const CORRELATION_LABEL = { antoine: 'Antoine', dippr101: 'DIPPR-101', wagner: 'Wagner' } as const;
+
+/** At most this many terms in a Wagner-type set (the water equation has six). */
+const WAGNER_MAX_TERMS = 8;
 
 function invalidCorrelation(index: number, message: string): HazardInputError {
   return new HazardInputError('invalid-correlation', `props.correlations[${index}]`, `Correlation ${index + 1}: ${message}`);
@@ -168,8 +194,40 @@ function validateCorrelation(correlation: VaporPressureCorrelation, index: numbe
     ) {
       throw invalidCorrelation(index, 'DIPPR-101 coefficients C1…C5 must be finite numbers');
     }
+  } else if (correlation.kind === 'wagner') {
+    validateWagner(correlation, index);
   } else {
     throw invalidCorrelation(index, `unknown kind "${String((correlation as { kind?: unknown }).kind)}"`);
+  }
+}
+
+function validateWagner(correlation: Extract<VaporPressureCorrelation, { kind: 'wagner' }>, index: number): void {
+  const { reducingTempK, reducingPressureKPa, coefficients, exponents } = correlation;
+  if (typeof reducingTempK !== 'number' || !Number.isFinite(reducingTempK) || reducingTempK <= 0) {
+    throw invalidCorrelation(index, `Wagner reducing temperature (Tc, or Tt for a sublimation line) must be a positive number of kelvin (got ${String(reducingTempK)})`);
+  }
+  if (typeof reducingPressureKPa !== 'number' || !Number.isFinite(reducingPressureKPa) || reducingPressureKPa <= 0) {
+    throw invalidCorrelation(index, `Wagner reducing pressure (Pc, or Pt for a sublimation line) must be a positive number of kPa (got ${String(reducingPressureKPa)})`);
+  }
+  if (!Array.isArray(coefficients) || coefficients.length === 0 || coefficients.length > WAGNER_MAX_TERMS) {
+    throw invalidCorrelation(index, `Wagner coefficients must be a list of 1 to ${WAGNER_MAX_TERMS} numbers`);
+  }
+  if (!Array.isArray(exponents) || exponents.length !== coefficients.length) {
+    throw invalidCorrelation(index, `Wagner exponents must be a list with one exponent per coefficient (${coefficients.length})`);
+  }
+  for (let i = 0; i < coefficients.length; i++) {
+    if (typeof coefficients[i] !== 'number' || !Number.isFinite(coefficients[i])) {
+      throw invalidCorrelation(index, `Wagner coefficient ${i + 1} must be a finite number (got ${String(coefficients[i])})`);
+    }
+    if (typeof exponents[i] !== 'number' || !Number.isFinite(exponents[i]) || exponents[i] <= 0) {
+      throw invalidCorrelation(index, `Wagner exponent ${i + 1} must be a positive number (got ${String(exponents[i])})`);
+    }
+  }
+  if (correlation.line !== undefined && correlation.line !== 'liquid-vapor' && correlation.line !== 'solid-vapor') {
+    throw invalidCorrelation(index, `Wagner line must be "liquid-vapor" or "solid-vapor" (got "${String(correlation.line)}")`);
+  }
+  if (correlation.tMinC + KELVIN_OFFSET >= reducingTempK) {
+    throw invalidCorrelation(index, `range starts at or above the reducing temperature (${reducingTempK} K), where the Wagner form has no liquid or solid left`);
   }
 }
 
@@ -186,22 +244,31 @@ const FORM_DIPPR_T1 = 1;
 const FORM_DIPPR_T2 = 2;
 const FORM_DIPPR_T6 = 3;
 const FORM_DIPPR_POW = 4;
+const FORM_WAGNER_25_5 = 5;
+const FORM_WAGNER_3_6 = 6;
+const FORM_WAGNER_ANY = 7;
+const NO_TERMS: readonly number[] = Object.freeze([]);
 
 /**
  * A correlation reduced to plain numbers in one fixed shape, so the hot path does no unit
  * switches and sees a single object layout:
- * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4.
+ * Antoine: ln(P/kPa) = k0 − k1/(T/K + k2); DIPPR-101: ln(P/kPa) = k0 + k1/T + k2·ln T + k3·T^k4;
+ * Wagner: ln(P/kPa) = k0 + (k5/T)·(k1·τ + k2·τ^t₂ + k3·τ^t₃ + k4·τ^t₄), τ = 1 − T/k5, with the
+ * exponents of the form fixed (2.5-5, 3-6) or read from `t` (any other set, coefficients in `n`).
  */
 type CompiledCorrelation = {
   readonly tMinC: number;
   readonly tMaxC: number;
   readonly form: number;
-  readonly method: 'antoine' | 'dippr101';
+  readonly method: 'antoine' | 'dippr101' | 'wagner';
   readonly k0: number;
   readonly k1: number;
   readonly k2: number;
   readonly k3: number;
   readonly k4: number;
+  readonly k5: number;
+  readonly n: readonly number[];
+  readonly t: readonly number[];
 };
 
 // Compiled objects are built by these factories as object literals, not as classes: a class
@@ -211,14 +278,76 @@ function newCompiledCorrelation(
   tMinC: number,
   tMaxC: number,
   form: number,
-  method: 'antoine' | 'dippr101',
+  method: 'antoine' | 'dippr101' | 'wagner',
   k0: number,
   k1: number,
   k2: number,
   k3: number,
   k4: number,
+  k5 = 0,
+  n: readonly number[] = NO_TERMS,
+  t: readonly number[] = NO_TERMS,
 ): CompiledCorrelation {
-  return { tMinC, tMaxC, form, method, k0, k1, k2, k3, k4 };
+  return { tMinC, tMaxC, form, method, k0, k1, k2, k3, k4, k5, n, t };
+}
+
+function sameExponents(exponents: readonly number[], form: readonly number[]): boolean {
+  return exponents.length === form.length && exponents.every((value, i) => value === form[i]);
+}
+
+function compileWagner(correlation: Extract<VaporPressureCorrelation, { kind: 'wagner' }>): CompiledCorrelation {
+  const { coefficients, exponents } = correlation;
+  const lnReducingKPa = Math.log(correlation.reducingPressureKPa);
+  const fixed = sameExponents(exponents, [1, 1.5, 2.5, 5]) ? FORM_WAGNER_25_5 : sameExponents(exponents, [1, 1.5, 3, 6]) ? FORM_WAGNER_3_6 : FORM_WAGNER_ANY;
+  if (fixed !== FORM_WAGNER_ANY) {
+    return newCompiledCorrelation(
+      correlation.tMinC,
+      correlation.tMaxC,
+      fixed,
+      'wagner',
+      lnReducingKPa,
+      coefficients[0],
+      coefficients[1],
+      coefficients[2],
+      coefficients[3],
+      correlation.reducingTempK,
+    );
+  }
+  return newCompiledCorrelation(
+    correlation.tMinC,
+    correlation.tMaxC,
+    FORM_WAGNER_ANY,
+    'wagner',
+    lnReducingKPa,
+    0,
+    0,
+    0,
+    0,
+    correlation.reducingTempK,
+    Object.freeze([...coefficients]),
+    Object.freeze([...exponents]),
+  );
+}
+
+/**
+ * ln(P/Pr)·T/Tr of a Wagner-type set. At or above the reducing temperature τ is held at 0, so the
+ * value is Pr itself: above the critical temperature no liquid is left, and the critical pressure
+ * is the lowest pressure a closed container of the substance can hold there.
+ */
+function wagnerSum(form: number, k1: number, k2: number, k3: number, k4: number, n: readonly number[], t: readonly number[], tau: number): number {
+  if (!(tau > 0)) return 0;
+  if (form === FORM_WAGNER_25_5) {
+    const root = Math.sqrt(tau);
+    const square = tau * tau;
+    return k1 * tau + k2 * tau * root + k3 * square * root + k4 * square * square * tau;
+  }
+  if (form === FORM_WAGNER_3_6) {
+    const cube = tau * tau * tau;
+    return k1 * tau + k2 * tau * Math.sqrt(tau) + k3 * cube + k4 * cube * cube;
+  }
+  let sum = 0;
+  for (let i = 0; i < n.length; i++) sum += n[i] * Math.pow(tau, t[i]);
+  return sum;
 }
 
 function dipprForm(exponent: number): number {
@@ -243,6 +372,7 @@ function compileCorrelation(correlation: VaporPressureCorrelation): CompiledCorr
       0,
     );
   }
+  if (correlation.kind === 'wagner') return compileWagner(correlation);
   return newCompiledCorrelation(
     correlation.tMinC,
     correlation.tMaxC,
@@ -263,6 +393,23 @@ function evaluateCompiledKPa(compiled: CompiledCorrelation, tempC: number): numb
   if (form === FORM_ANTOINE) {
     const denominator = tempK + compiled.k2;
     return denominator <= 0 ? Number.NaN : Math.exp(compiled.k0 - compiled.k1 / denominator);
+  }
+  if (form === FORM_WAGNER_25_5) {
+    // The common published form, written out: τ^1.5 = τ·√τ, τ^2.5 = τ²·√τ, τ^5 = τ⁴·τ.
+    const reducingTempK = compiled.k5;
+    const tau = 1 - tempK / reducingTempK;
+    if (tau > 0) {
+      const root = Math.sqrt(tau);
+      const square = tau * tau;
+      const sum = compiled.k1 * tau + (compiled.k2 * tau + compiled.k3 * square) * root + compiled.k4 * square * square * tau;
+      return Math.exp(compiled.k0 + (reducingTempK / tempK) * sum);
+    }
+    return Math.exp(compiled.k0);
+  }
+  if (form >= FORM_WAGNER_3_6) {
+    const reducingTempK = compiled.k5;
+    const sum = wagnerSum(form, compiled.k1, compiled.k2, compiled.k3, compiled.k4, compiled.n, compiled.t, 1 - tempK / reducingTempK);
+    return Math.exp(compiled.k0 + (reducingTempK / tempK) * sum);
   }
   let power: number;
   if (form === FORM_DIPPR_T2) power = tempK * tempK;
@@ -361,6 +508,13 @@ export function evaluateCorrelationKPa(correlation: VaporPressureCorrelation, te
     const pressureInUnit = correlation.log === 'log10' ? Math.exp(exponent * LN10) : Math.exp(exponent);
     return pressureInUnit * kPaPerUnit(correlation.pressureUnit);
   }
+  if (correlation.kind === 'wagner') {
+    const tempKelvin = tempC + KELVIN_OFFSET;
+    const tau = 1 - tempKelvin / correlation.reducingTempK;
+    let sum = 0;
+    if (tau > 0) for (let i = 0; i < correlation.coefficients.length; i++) sum += correlation.coefficients[i] * Math.pow(tau, correlation.exponents[i]);
+    return correlation.reducingPressureKPa * Math.exp((correlation.reducingTempK / tempKelvin) * sum);
+  }
   const tempK = tempC + KELVIN_OFFSET;
   const exponent = correlation.c5;
   // Perry's sets use C5 = 1, 2 or 6; multiplying is several times faster than Math.pow.
@@ -376,9 +530,18 @@ export function evaluateCorrelationKPa(correlation: VaporPressureCorrelation, te
 }
 
 function rangeWarning(correlation: VaporPressureCorrelation, tempC: number): string {
-  return `${CORRELATION_LABEL[correlation.kind]} range is ${formatNumber(correlation.tMinC)}\u2026${formatNumber(
+  const text = `${CORRELATION_LABEL[correlation.kind]} range is ${formatNumber(correlation.tMinC)}\u2026${formatNumber(
     correlation.tMaxC,
   )} °C; ${formatNumber(tempC)} °C is extrapolated`;
+  if (correlation.kind === 'wagner' && tempC + KELVIN_OFFSET >= correlation.reducingTempK) {
+    return `${text}. ${formatNumber(tempC)} °C is at or above the reducing temperature ${formatNumber(
+      correlation.reducingTempK - KELVIN_OFFSET,
+    )} °C (the critical point of a liquid–vapor line): no liquid is left, and the value shown is the reducing pressure, ${formatSig(
+      correlation.reducingPressureKPa,
+      5,
+    )} kPa, the least a closed container holds there`;
+  }
+  return text;
 }
 
 function supercooledWarning(meltingPointC: number, tempC: number): string {
@@ -729,4 +892,64 @@ export function saturatedConcentration(
     method: scratch.method,
     extrapolated: scratch.extrapolated,
   };
+}
+
+/**
+ * The named variant of a Wagner-type set's exponents ("2.5-5", "3-6"), or the exponents
+ * themselves, for labels and traces.
+ */
+export function wagnerFormName(exponents: readonly number[]): string {
+  if (sameExponents(exponents, [1, 1.5, 2.5, 5])) return '2.5-5 form';
+  if (sameExponents(exponents, [1, 1.5, 3, 6])) return '3-6 form';
+  return `exponents ${exponents.join(', ')}`;
+}
+
+/** The equation of a Wagner-type set in symbols, e.g. "ln(P/Pc) = (Tc/T)·(n1·τ + n2·τ^1.5 + n3·τ^2.5 + n4·τ^5), τ = 1 − T/Tc". */
+export function wagnerEquationText(correlation: { exponents: readonly number[]; line?: 'liquid-vapor' | 'solid-vapor' }): string {
+  const sublimation = correlation.line === 'solid-vapor';
+  const tr = sublimation ? 'Tt' : 'Tc';
+  const pr = sublimation ? 'Pt' : 'Pc';
+  const terms = correlation.exponents.map((exponent, i) => `n${i + 1}·τ${exponent === 1 ? '' : `^${exponent}`}`).join(' + ');
+  return `ln(P/${pr}) = (${tr}/T)·(${terms}), τ = 1 − T/${tr}, T in K`;
+}
+
+/** Where the choice of correlation changes between two temperatures, and how far the curve steps there. */
+export type CorrelationHandover = {
+  /** The last temperature on the first correlation (°C); the next scan step is on the second. */
+  atC: number;
+  fromIndex: number;
+  toIndex: number;
+  /** 100·(P_to/P_from − 1) with both correlations evaluated at atC: the step the curve takes. */
+  stepPercent: number;
+};
+
+/**
+ * Scans fromC…toC in steps of stepK, as saturationPressure chooses its correlation, and reports
+ * every hand-over from one correlation to another with the size of the step there. A curve that
+ * hands over between sets fitted to different data steps at the hand-over; the library keeps
+ * these steps within 0.5 % over −40…60 °C by choosing sets that need no hand-over there.
+ */
+export function correlationHandovers(props: VaporProperties, fromC = -40, toC = 60, stepK = 0.1): CorrelationHandover[] {
+  validateVaporProperties(props);
+  const correlations = props.correlations ?? [];
+  if (correlations.length < 2) return [];
+  const handovers: CorrelationHandover[] = [];
+  const count = Math.round((toC - fromC) / stepK);
+  let previous = chooseCorrelation(correlations, fromC);
+  for (let i = 1; i <= count; i++) {
+    const tempC = fromC + i * stepK;
+    const choice = chooseCorrelation(correlations, tempC);
+    if (choice !== previous) {
+      const fromIndex = previous >= 0 ? previous : -previous - 1;
+      const toIndex = choice >= 0 ? choice : -choice - 1;
+      if (fromIndex !== toIndex) {
+        const atC = fromC + (i - 1) * stepK;
+        const fromKPa = evaluateCorrelationKPa(correlations[fromIndex], atC);
+        const toKPa = evaluateCorrelationKPa(correlations[toIndex], atC);
+        handovers.push({ atC, fromIndex, toIndex, stepPercent: (toKPa / fromKPa - 1) * 100 });
+      }
+    }
+    previous = choice;
+  }
+  return handovers;
 }

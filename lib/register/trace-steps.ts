@@ -99,7 +99,7 @@ export type ShownStep = {
 };
 
 export type CorrelationView = {
-  /** "Antoine", "DIPPR-101", or the Clausius–Clapeyron estimate from the boiling point. */
+  /** "Antoine", "DIPPR-101", "Wagner", or the Clausius–Clapeyron estimate from the boiling point. */
   name: string;
   equation: string | null;
   substituted: string | null;
@@ -195,14 +195,16 @@ function shownValue(v: unknown, citations: Citations, coefficient = false): Show
   return { label: v.name, symbol: str(v.symbol), text, ...citations.cite(str(v.source)) };
 }
 
-const COEFFICIENT_SYMBOLS = new Set(["A", "B", "C", "C1", "C2", "C3", "C4", "C5"]);
-const CORRELATION_INPUT = (v: Obj) => (typeof v.symbol === "string" && COEFFICIENT_SYMBOLS.has(v.symbol) && /Antoine|DIPPR/.test(String(v.name))) || v.symbol === "T range";
+// Wagner-type sets carry their reducing point (Tc, Pc; Tt, Pt for a sublimation line) and up to eight coefficients n1…n8.
+const COEFFICIENT_SYMBOLS = new Set(["A", "B", "C", "C1", "C2", "C3", "C4", "C5", "Tc", "Pc", "Tt", "Pt", "n1", "n2", "n3", "n4", "n5", "n6", "n7", "n8"]);
+const CORRELATION_NAME = /Antoine|DIPPR|Wagner/;
+const CORRELATION_INPUT = (v: Obj) => (typeof v.symbol === "string" && COEFFICIENT_SYMBOLS.has(v.symbol) && CORRELATION_NAME.test(String(v.name))) || v.symbol === "T range";
 
 function stepKind(step: Obj): StepKind {
   const result = isObject(step.result) ? step.result : {};
   const symbol = str(result.symbol) ?? "";
   const description = str(step.description) ?? str(step.label) ?? "";
-  if (symbol === "Psat" || /Antoine|DIPPR|Clausius/.test(description)) return "vapor-pressure";
+  if (symbol === "Psat" || /Antoine|DIPPR|Wagner|Clausius/.test(description)) return "vapor-pressure";
   if (symbol === "ΔHvap") return "trouton";
   if (symbol === "severity") return "severity";
   if (symbol === "y") return "mole-fraction";
@@ -250,7 +252,7 @@ function correlationOf(trace: Obj, steps: ShownStep[], citations: Citations): Co
   if (vpIndex < 0) return null;
   const raw = rawSteps[vpIndex];
   const description = steps[vpIndex].description;
-  const coefficientInputs = rawInputs.filter((v) => typeof v.symbol === "string" && COEFFICIENT_SYMBOLS.has(v.symbol) && /Antoine|DIPPR/.test(String(v.name)));
+  const coefficientInputs = rawInputs.filter((v) => typeof v.symbol === "string" && COEFFICIENT_SYMBOLS.has(v.symbol) && CORRELATION_NAME.test(String(v.name)));
   const rangeInput = rawInputs.find((v) => v.symbol === "T range") ?? null;
   const tempInput = rawInputs.find((v) => v.symbol === "T") ?? null;
   const tempC = tempInput ? num(tempInput.value) : null;
@@ -260,7 +262,13 @@ function correlationOf(trace: Obj, steps: ShownStep[], citations: Citations): Co
     if (Number.isFinite(low) && Number.isFinite(high)) inRange = tempC >= low && tempC <= high;
   }
   const source = str(coefficientInputs[0]?.source) ?? str(rangeInput?.source) ?? null;
-  const name = /DIPPR/.test(description) ? "DIPPR-101" : /Antoine/.test(description) ? "Antoine" : "Clausius–Clapeyron (from the normal boiling point)";
+  const name = /DIPPR/.test(description)
+    ? "DIPPR-101"
+    : /Antoine/.test(description)
+      ? "Antoine"
+      : /Wagner/.test(description)
+        ? description.replace(/ equation/, "")
+        : "Clausius–Clapeyron (from the normal boiling point)";
   const resultValue = isObject(raw?.result) ? raw.result : null;
   return {
     name,
@@ -315,7 +323,7 @@ function numbered(trace: Obj): Map<number, Record<string, Obj>> {
 
 /** "Concentration of diethyl ether" → "diethyl ether". */
 function subjectOf(name: unknown): string {
-  return String(name ?? "").replace(/^(Concentration|LFL|Liquid mole fraction|Mole fraction|Saturation pressure) of /, "").replace(/ \((antoine|dippr101|clausius-clapeyron[\w-]*)\)$/, "");
+  return String(name ?? "").replace(/^(Concentration|LFL|Liquid mole fraction|Mole fraction|Saturation pressure) of /, "").replace(/ \((antoine|dippr101|wagner|clausius-clapeyron[\w-]*)\)$/, "");
 }
 
 function sharesOf(trace: Obj, steps: ShownStep[]): TraceSection["shares"] {

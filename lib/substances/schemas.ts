@@ -63,14 +63,41 @@ export const SUBSTANCE_VALUE_FIELDS = [
   "autoignitionTempC",
 ] as const;
 
+const finiteList = (value: unknown): value is number[] => Array.isArray(value) && value.every((v) => typeof v === "number" && Number.isFinite(v));
+
+/** A Wagner-type set: reducing point (Tc, Pc; the triple point for a sublimation line), nᵢ and their exponents tᵢ. */
+function checkWagner(c: Record<string, unknown>, ctx: z.RefinementCtx): void {
+  if (typeof c.reducingTempK !== "number" || !(c.reducingTempK > 0)) {
+    ctx.addIssue({ code: "custom", path: ["reducingTempK"], message: "A Wagner correlation needs reducingTempK: the critical temperature in K (the triple point for a sublimation line)." });
+  }
+  if (typeof c.reducingPressureKPa !== "number" || !(c.reducingPressureKPa > 0)) {
+    ctx.addIssue({ code: "custom", path: ["reducingPressureKPa"], message: "A Wagner correlation needs reducingPressureKPa: the critical pressure in kPa (the triple-point pressure for a sublimation line)." });
+  }
+  if (!finiteList(c.coefficients) || c.coefficients.length === 0 || c.coefficients.length > 8) {
+    ctx.addIssue({ code: "custom", path: ["coefficients"], message: "A Wagner correlation needs coefficients: a list of 1 to 8 numbers, as published." });
+  } else if (!finiteList(c.exponents) || c.exponents.length !== c.coefficients.length || c.exponents.some((t) => t <= 0)) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["exponents"],
+      message: `A Wagner correlation needs exponents: one positive number per coefficient (${c.coefficients.length}), e.g. [1, 1.5, 2.5, 5] for the 2.5-5 form.`,
+    });
+  }
+  if (c.line !== undefined && c.line !== "liquid-vapor" && c.line !== "solid-vapor") {
+    ctx.addIssue({ code: "custom", path: ["line"], message: 'A Wagner line is "liquid-vapor" or "solid-vapor".' });
+  }
+}
+
 const correlationSchema = z
   .object({
-    kind: z.enum(["antoine", "dippr101"]),
+    kind: z.enum(["antoine", "dippr101", "wagner"], { error: 'A correlation kind is "antoine", "dippr101" or "wagner".' }),
     tMinC: z.number(),
     tMaxC: z.number(),
     source: z.string().trim().min(1, "Each correlation needs its source."),
   })
-  .passthrough();
+  .passthrough()
+  .superRefine((c, ctx) => {
+    if (c.kind === "wagner") checkWagner(c as Record<string, unknown>, ctx);
+  });
 
 const substanceFields = {
   cas: z

@@ -22,10 +22,10 @@ test("a researcher logging diethyl ether into the domestic-type refrigerator FR-
   // new, and the panel says so plainly instead of "nothing new".
   const whatIf = form.whatIf();
   await expect(whatIf.getByText("Already flagged here")).toBeVisible();
-  await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails \(control lost, 28\.0 °C\)\. Storing more keeps it so\./)).toBeVisible();
+  await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1 could reach 4,650 % LFL if the refrigerator fails \(control lost, 28\.0 °C\)\. Storing more keeps it so\./)).toBeVisible();
   await expect(whatIf.getByText("Critical").first()).toBeVisible();
   await expect(whatIf.getByText(/Nothing new/)).toHaveCount(0);
-  const standing = whatIf.getByRole("link", { name: "Diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C)" });
+  const standing = whatIf.getByRole("link", { name: "Diethyl ether in FR-1 could reach 4,650 % LFL if the refrigerator fails (control lost, 28.0 °C)" });
   await expect(standing).toHaveAttribute("href", /^\/register\/\d+$/);
   await expect(whatIf.getByLabel("Caution")).toBeVisible();
   // Advice only: saving stays possible.

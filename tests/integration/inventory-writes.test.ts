@@ -297,4 +297,28 @@ describe("substances: corrections", () => {
     expect(response.status).toBe(400);
     expect(response.body.error.fields).toHaveProperty("correlations");
   });
+
+  it("accepts a Wagner set as published and refuses one without its exponents, naming what is missing and changing nothing", async () => {
+    // VDI Heat Atlas 2nd ed. (2010), D3.1: acetone, Wagner 2.5-5 form (Tc 508.1 K, Pc 4692 kPa).
+    const wagner = { kind: "wagner", reducingTempK: 508.1, reducingPressureKPa: 4692, coefficients: [-7.67033, 1.96469, -2.4438, -2.90162], exponents: [1, 1.5, 2.5, 5], tMinC: -94.8, tMaxC: 234.95, source: "VDI Heat Atlas, 2nd ed. (2010), D3.1" };
+    const before = await acetone();
+    const bad = await call(substanceRoute.PATCH, {
+      method: "PATCH",
+      body: { ...editable(before), correlations: [{ ...wagner, exponents: [1, 1.5] }] },
+      cookie: cookies.safety_officer,
+      params: { id: String(acetoneId) },
+    });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body.error)).toMatch(/one positive number per coefficient \(4\)/);
+    expect((await acetone()).correlations).toEqual(before.correlations);
+    const good = await call(substanceRoute.PATCH, {
+      method: "PATCH",
+      body: { ...editable(before), correlations: [wagner] },
+      cookie: cookies.safety_officer,
+      params: { id: String(acetoneId) },
+    });
+    expect(good.body.error).toBeUndefined();
+    expect(good.status).toBe(200);
+    expect(good.body.data.correlations[0]).toMatchObject({ kind: "wagner", exponents: [1, 1.5, 2.5, 5] });
+  });
 });

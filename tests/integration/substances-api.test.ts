@@ -83,7 +83,7 @@ describe("GET /api/v1/substances/{id}/vapor-pressure", () => {
   it("returns Psat and the saturated concentration at tempC", async () => {
     const response = await call(vaporRoute.GET, { path: `/api/v1/substances/${acetoneId}/vapor-pressure?tempC=20`, cookie, params: { id: String(acetoneId) } });
     expect(response.status).toBe(200);
-    expect(response.body.method).toBe("antoine");
+    expect(response.body.method).toBe("wagner");
     expect(response.body.extrapolated).toBe(false);
     expect(Math.abs(response.body.pressureKPa / 24.0 - 1)).toBeLessThan(0.04);
     expect(response.body.saturatedConcentration.ppm).toBeCloseTo((response.body.pressureKPa / 101.325) * 1e6, 0);

@@ -56,16 +56,17 @@ describe("POST /api/v1/assessments/preview: a unit already flagged", () => {
       severity: "critical",
       status: "open",
       scenario: "control_lost",
-      title: "Diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C)",
+      title: "Diethyl ether in FR-1 could reach 4,650 % LFL if the refrigerator fails (control lost, 28.0 °C)",
       limit: 100,
       unit: "% LFL",
       about: "substance",
       outcome: "unchanged",
       canOpen: true,
     });
-    // Saturated diethyl ether at the room's 28.0 °C against its LFL of 1.9 %, as the demo's first assessment stored it.
-    expect(current[0].value).toBeCloseTo(4631.68, 1);
-    expect(current[0].ratio).toBeCloseTo(46.3168, 3);
+    // Saturated diethyl ether at the room's 28.0 °C against its LFL of 1.9 %, as the demo's first assessment stored it
+    // (library 2026-12-06: VDI Heat Atlas Wagner set, 80.135 kPa at 28 °C).
+    expect(current[0].value).toBeCloseTo(4652.19, 1);
+    expect(current[0].ratio).toBeCloseTo(46.5219, 3);
     expect(current[0].value).toBe(stored.value);
     // Every finding about ether in FR-1, and the open-containers findings it takes part in; nothing about acetone alone.
     expect(current.map((f) => `${f.rule}|${f.scenario}|${f.severity}|${f.about}`).sort()).toEqual(
@@ -82,7 +83,7 @@ describe("POST /api/v1/assessments/preview: a unit already flagged", () => {
     expect(current.some((f) => /^Acetone/.test(f.title))).toBe(false);
     expect(current.find((f) => f.rule === "ignition-source-unit")!.title).toBe("Diethyl ether (GHS category 1, NFPA class IA) is stored in FR-1, whose interior has ignition sources");
     expect(data.verdictSentence).toBe(
-      "Already critical here: diethyl ether in FR-1 could reach 4,630 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so. 6 other open findings here concern diethyl ether too.",
+      "Already critical here: diethyl ether in FR-1 could reach 4,650 % LFL if the refrigerator fails (control lost, 28.0 °C). Storing more keeps it so. 6 other open findings here concern diethyl ether too.",
     );
     expect(data.cleared).toEqual([]);
     expect(counts()).toBe(before);
@@ -154,10 +155,10 @@ describe("POST /api/v1/assessments/preview: a move", () => {
     // In control leaves out the readings inside FSR-1's failure weekend (8.4 °C); control lost takes its peak.
     expect(data.current.map((f: Current) => `${f.title} → ${f.outcome}`)).toEqual([
       "N-hexane in FSR-1 could reach 2,170 % LFL if the refrigerator fails (control lost, 27.0 °C) → unchanged",
-      "N-hexane in FSR-1 could reach 921 % LFL at its worst case in control (8.4 °C) → unchanged",
+      "N-hexane in FSR-1 could reach 923 % LFL at its worst case in control (8.4 °C) → unchanged",
       "Open containers in FSR-1 could reach 5,980 % LFL together if the refrigerator fails (control lost, 27.0 °C) → unchanged",
       "Open containers in FSR-1 could reach 4,490 % LFL together at its worst case in control (8.4 °C) → unchanged",
-      "A 0.5 L spill of n-hexane in room 2.115 could reach 57.3 % of the NIOSH TWA at its highest (spill, 27.0 °C) → unchanged",
+      "A 0.5 L spill of n-hexane in room 2.115 could reach 57.4 % of the NIOSH TWA at its highest (spill, 27.0 °C) → unchanged",
       "N-hexane in FSR-1 is above its flash point of −22.0 °C at its worst case in control (8.4 °C) → unchanged",
       "N-hexane in FSR-1 is above its flash point of −22.0 °C if the refrigerator fails (control lost, 27.0 °C) → unchanged",
     ]);

@@ -17,6 +17,7 @@ const VALUES: [string, string][] = [
   ["autoignitionTempC", "Autoignition temperature (°C)"],
 ];
 
+const WAGNER_EXAMPLE = '[{"kind":"wagner","reducingTempK":508.1,"reducingPressureKPa":4692,"coefficients":[-7.67033,1.96469,-2.4438,-2.90162],"exponents":[1,1.5,2.5,5],"tMinC":-94.8,"tMaxC":234.95,"source":"…"}]';
 const EXAMPLE = '[{"kind":"antoine","log":"log10","pressureUnit":"bar","temperatureUnit":"K","a":4.2184,"b":1197.01,"c":-45.09,"tMinC":-25.8,"tMaxC":77.5,"source":"…"}]';
 
 const sections: FieldSection[] = [
@@ -45,7 +46,7 @@ const sections: FieldSection[] = [
         label: "Correlations (JSON, in order of use)",
         kind: "textarea",
         span: 3,
-        hint: `Antoine: log(P) = A − B/(T + C) with log, pressureUnit, temperatureUnit, a, b, c; or DIPPR 101 with c1…c5. Each with tMinC, tMaxC and source. Example: ${EXAMPLE}`,
+        hint: `Antoine: log(P) = A − B/(T + C) with log, pressureUnit, temperatureUnit, a, b, c; DIPPR 101 with c1…c5; or Wagner: ln(P/Pc) = (Tc/T)·Σ nᵢ·τ^tᵢ with reducingTempK (Tc, K), reducingPressureKPa (Pc, kPa), coefficients and their exponents as published (e.g. [1, 1.5, 2.5, 5]), and line "solid-vapor" for a sublimation line. Each with tMinC, tMaxC and source. Examples: ${EXAMPLE} or ${WAGNER_EXAMPLE}`,
       },
       { name: "notes", label: "Notes", kind: "textarea", span: 3 },
     ],

@@ -12,13 +12,13 @@ const byFingerprint = (findings: CandidateFinding[], fingerprint: string) => {
 describe("enclosure-lfl: closed units", () => {
   const ether = substance(CAS.diethylEther);
 
-  it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 578 000 ppm = 3400 % LFL (critical by the fractions, high in a rated unit)", () => {
-    // Psat(20 °C) from the Poling Antoine set: log10(P/bar) = 4.10962 − 1090.64/(293.15 − 41.95) → 58.600 kPa; the
-    // handbook check value is 442 mmHg = 58.93 kPa (NRC Prudent Practices 1995, LCSS), 0.6 % higher.
-    // C_sat = 58.600/101.325 × 10⁶ = 578 341 ppm. All-evaporated: 4 L × 713.8 g/L (0.7138 g/cm³ at 20 °C,
+  it("a 4 L bottle of diethyl ether in a 280 L refrigerator at 20 °C is saturation-limited: 581 000 ppm = 3420 % LFL (critical by the fractions, high in a rated unit)", () => {
+    // Psat(20 °C) from the VDI Heat Atlas Wagner set (Tc 466.63 K, Pc 3651 kPa) → 58.885 kPa; the
+    // handbook check value is 442 mmHg = 58.93 kPa (NRC Prudent Practices 1995, LCSS), 0.08 % higher.
+    // C_sat = 58.885/101.325 × 10⁶ = 581 147 ppm. All-evaporated: 4 L × 713.8 g/L (0.7138 g/cm³ at 20 °C,
     // CRC Handbook 95th ed., Physical Constants of Organic Compounds) = 2855 g → (2855/74.123) × 24.055
     // / (1000 × 0.276) × 10⁶ = 3.36 × 10⁶ ppm (capped at 10⁶), so
-    // C = min(C_sat, C_inv) = C_sat. LFL 1.7 % (IEC 60079-20-1) → 578 341/17 000 = 34.02 = 3402 % LFL.
+    // C = min(C_sat, C_inv) = C_sat. LFL 1.7 % (IEC 60079-20-1) → 581 147/17 000 = 34.19 = 3419 % LFL.
     const findings = assessLocation(
       unitSnapshot([container(ether, 4, "L", "sealed", { containerId: 41 })], {
         worstCase: { inControl: designWorstCase(20, "upper end of the set range"), controlLost: designWorstCase(20) },
@@ -32,13 +32,13 @@ describe("enclosure-lfl: closed units", () => {
       ["Severity from the LFL alarm fractions (reached at or above)", "critical"],
       ["The unit's interior is free of ignition sources: at most the severity the settings allow for such a unit", "high"],
     ]);
-    expect(relativeDeviation(finding.value as number, 3402.0)).toBeLessThan(1e-4);
+    expect(relativeDeviation(finding.value as number, 3418.51)).toBeLessThan(1e-4);
     expect(relativeDeviation(finding.value as number, (442 / 760) * 1e6 / 17000 * 100)).toBeLessThan(0.01);
     expect(finding).toMatchObject({ unit: "% LFL", limitValue: 100, containerId: 41, substanceId: 7, storageUnitId: 12, roomId: 7, siteId: 1 });
     expect(finding.ratio).toBeCloseTo((finding.value as number) / 100, 12);
     expect(finding.worstCaseTempC).toBe(20);
     expect(finding.worstCaseSource).toBe("20.0 °C, upper end of the set range");
-    expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3,400 % LFL at its worst case in control (20.0 °C)");
+    expect(finding.title).toBe("Diethyl ether in FSR-1 could reach 3,420 % LFL at its worst case in control (20.0 °C)");
     const bound = finding.trace.parts.find((part) => part.method === "Closed-enclosure bound");
     expect(bound?.steps.at(-1)?.description).toBe("The smaller of the two (saturation-limited)");
   });
@@ -132,12 +132,12 @@ describe("enclosure-lfl: closed units", () => {
 });
 
 describe("enclosure-lfl: mixtures by Raoult's law and Le Chatelier's rule", () => {
-  it("1 mol benzene + 2 mol toluene at 25 °C in a closed cabinet: 41 723 + 24 930 ppm → 597 % LFL, LFL_mix 1.117 %", () => {
-    // Worked example (general-chemistry textbook, recalled from memory): x_benzene = 1/3, P°benzene = 95.1 mmHg,
-    // P°toluene = 28.4 mmHg at 25 °C → y_benzene = 0.626. With the Poling Antoine sets (95.129 and 28.420 mmHg):
-    // C_b = 1/3 × 12.683 kPa/101.325 × 10⁶ = 41 723 ppm, C_t = 2/3 × 3.7890/101.325 × 10⁶ = 24 930 ppm;
-    // LFL 1.2 % and 1.0 % (IEC 60079-20-1): 41 723/12 000 + 24 930/10 000 = 5.970.
-    // Le Chatelier over the vapor: y_b = 0.62598 → LFL_mix = 1/(0.62598/1.2 + 0.37402/1.0) = 1.1165 %.
+  it("1 mol benzene + 2 mol toluene at 25 °C in a closed cabinet: 41 755 + 25 025 ppm → 598 % LFL, LFL_mix 1.116 %", () => {
+    // x_benzene = 1/3. With the library's sets at 25 °C (benzene: Poling 5th ed. Wagner set, 95.201 mmHg;
+    // toluene: VDI Heat Atlas Wagner set, 28.528 mmHg — both within 0.1 % of their reference equations of state):
+    // C_b = 1/3 × 12.6924 kPa/101.325 × 10⁶ = 41 755 ppm, C_t = 2/3 × 3.80341/101.325 × 10⁶ = 25 025 ppm;
+    // LFL 1.2 % and 1.0 % (IEC 60079-20-1): 41 755/12 000 + 25 025/10 000 = 5.982.
+    // Le Chatelier over the vapor: y_b = 0.62527 → LFL_mix = 1/(0.62527/1.2 + 0.37473/1.0) = 1.1163 %.
     const mixture = buildMixtureSnapshot({
       id: 3,
       name: "benzene–toluene waste",
@@ -158,13 +158,13 @@ describe("enclosure-lfl: mixtures by Raoult's law and Le Chatelier's rule", () =
     const finding = byFingerprint(findings, "enclosure-lfl|unit:12|mixture:3|in_control");
     expect(finding.mixtureId).toBe(3);
     expect(finding.substanceId).toBeNull();
-    expect(relativeDeviation(finding.ratio as number, 5.96993)).toBeLessThan(1e-4);
+    expect(relativeDeviation(finding.ratio as number, 5.98202)).toBeLessThan(1e-4);
     const raoult = finding.trace.parts.find((part) => part.method === "Raoult's law (ideal solution)");
-    expect(relativeDeviation(raoult?.result.value as number, (1 / 3) * 12.6829 + (2 / 3) * 3.78906)).toBeLessThan(1e-4);
+    expect(relativeDeviation(raoult?.result.value as number, (1 / 3) * 12.6924 + (2 / 3) * 3.80341)).toBeLessThan(1e-4);
     const chatelier = finding.trace.parts.find((part) => part.method === "Le Chatelier's mixing rule");
-    expect(relativeDeviation(chatelier?.result.value as number, 1.11648)).toBeLessThan(1e-4);
+    expect(relativeDeviation(chatelier?.result.value as number, 1.11633)).toBeLessThan(1e-4);
     expect(finding.trace.warnings.some((w) => /ideal solution/.test(w))).toBe(true);
-    expect(finding.title).toBe("Benzene–toluene waste in FSR-1 could reach 597 % LFL at its worst case (25.0 °C)");
+    expect(finding.title).toBe("Benzene–toluene waste in FSR-1 could reach 598 % LFL at its worst case (25.0 °C)");
   });
 
   it("mass fractions become mole fractions (xᵢ = (wᵢ/Mᵢ)/Σ(wⱼ/Mⱼ)) and the mixture density follows ideal mixing", () => {
@@ -191,15 +191,15 @@ describe("enclosure-lfl: mixtures by Raoult's law and Le Chatelier's rule", () =
 
 describe("enclosure-lfl: an unventilated room", () => {
   it("a cold room without ventilation is bounded like a closed unit, at the room's worst case: ethanol at 8 °C, 87 % LFL", () => {
-    // 20 L of ethanol (15.8 kg) in a 30 m³ cold room at 8 °C: C_inv ≫ C_sat, so saturation-limited. Poling Antoine:
-    // log10(P/bar) = 5.33675 − 1648.22/(281.15 − 42.232) → 2.7420 kPa → 27 061 ppm; LFL 3.1 % → 0.8729.
+    // 20 L of ethanol (15.8 kg) in a 30 m³ cold room at 8 °C: C_inv ≫ C_sat, so saturation-limited. Poling 5th ed.
+    // Wagner set (Tc 513.92 K, Pc 6132 kPa) → 2.7493 kPa → 27 133 ppm; LFL 3.1 % → 0.8753.
     const findings = assessLocation(
       roomSnapshot([container(substance(CAS.ethanol), 20, "L", "sealed")], { kind: "cold_room", airChangesPerHour: 0, volumeM3: 30, worstCase: designWorstCase(8) }),
     );
     const finding = byFingerprint(findings, "enclosure-lfl|room:7|substance:" + substance(CAS.ethanol).id + "|room_worst_case");
     expect(finding.storageUnitId).toBeNull();
     expect(finding.severity).toBe("high");
-    expect(relativeDeviation(finding.ratio as number, 0.872945)).toBeLessThan(1e-5);
-    expect(finding.title).toBe("Ethanol in room 2.115 could reach 87.3 % LFL at the room's worst case (8.0 °C)");
+    expect(relativeDeviation(finding.ratio as number, 0.875263)).toBeLessThan(1e-5);
+    expect(finding.title).toBe("Ethanol in room 2.115 could reach 87.5 % LFL at the room's worst case (8.0 °C)");
   });
 });

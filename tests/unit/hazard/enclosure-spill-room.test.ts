@@ -68,7 +68,7 @@ describe('closed-enclosure bound C = min(C_sat, m·Vm/(M·V_free))', () => {
     expect(trace.method).toBe('Closed-enclosure bound');
     expect(trace.inputs.find((input) => input.symbol === 'T')?.source).toBe('room design maximum');
     expect(trace.inputs.find((input) => input.symbol === 'M')?.source).toMatch(/CIAAW/);
-    expect(trace.inputs.find((input) => input.symbol === 'A')?.source).toMatch(/Poling/);
+    expect(trace.inputs.find((input) => input.symbol === 'Tc')?.source).toMatch(/VDI Heat Atlas/);
     expect(trace.steps.map((step) => step.formula)).toContain('C_max = min(C_sat, C_inv)');
     expect(trace.steps.every((step) => step.substituted.length > 0 && step.description.length > 0)).toBe(true);
     expect(trace.result.value).toBe(result.concentrationPpm);

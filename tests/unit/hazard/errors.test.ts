@@ -97,6 +97,27 @@ describe('saturationPressure and saturatedConcentration reject nonsense with the
     expectHazardError(() => saturationPressure({ ...good, correlations: [badLog] }, 20), 'invalid-correlation');
   });
 
+  it('a Wagner set without a usable reducing point, coefficients or one exponent per coefficient, with the reason named', () => {
+    // VDI Heat Atlas 2nd ed. (2010), D3.1: acetone, Wagner 2.5-5 form.
+    const wagner = { kind: 'wagner' as const, reducingTempK: 508.1, reducingPressureKPa: 4692, coefficients: [-7.67033, 1.96469, -2.4438, -2.90162], exponents: [1, 1.5, 2.5, 5], tMinC: -94.8, tMaxC: 234.95 };
+    expect(() => saturationPressure({ ...good, correlations: [wagner] }, 20)).not.toThrow();
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, exponents: [1, 1.5] }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, exponents: [1, 1.5] }] }, 20)).toThrow(/one exponent per coefficient \(4\)/);
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, reducingTempK: 0 }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, reducingTempK: 0 }] }, 20)).toThrow(/reducing temperature/);
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, reducingPressureKPa: -1 }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, reducingPressureKPa: -1 }] }, 20)).toThrow(/reducing pressure/);
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, coefficients: [] , exponents: [] }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, coefficients: [] , exponents: [] }] }, 20)).toThrow(/1 to 8 numbers/);
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, exponents: [1, 1.5, 2.5, -5] }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, exponents: [1, 1.5, 2.5, -5] }] }, 20)).toThrow(/exponent 4 must be a positive number/);
+    expectHazardError(() => saturationPressure({ ...good, correlations: [{ ...wagner, tMinC: 240, tMaxC: 300 }] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [{ ...wagner, tMinC: 240, tMaxC: 300 }] }, 20)).toThrow(/at or above the reducing temperature/);
+    const badLine = { ...wagner, line: 'solid-liquid' } as unknown as VaporPressureCorrelation;
+    expectHazardError(() => saturationPressure({ ...good, correlations: [badLine] }, 20), 'invalid-correlation', /correlations\[0\]/);
+    expect(() => saturationPressure({ ...good, correlations: [badLine] }, 20)).toThrow(/line must be/);
+  });
+
   it('no method available (no correlation, no boiling point)', () => {
     expectHazardError(() => saturationPressure({ molarMassGPerMol: 50 }, 20), 'no-method');
     expectHazardError(() => saturationPressure({ molarMassGPerMol: 50, correlations: [] }, 20), 'no-method');

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { saturationPressure, validateVaporProperties } from '@/lib/hazard';
+import { ghsFlammableCategory, nfpaLiquidClass, saturationPressure, validateVaporProperties } from '@/lib/hazard';
 import { substanceLibrary } from '@/db/seed/substance-library';
 import { propsOf } from './library';
 
@@ -48,12 +48,45 @@ describe('substance library seed', () => {
     }
   });
 
-  it('refrigerator (4 °C) is covered for every liquid that is liquid at 4 °C, except pyridine', () => {
+  it('refrigerator (4 °C) is covered for every liquid that is liquid at 4 °C (pyridine too since the 2026-12-06 edition)', () => {
     const uncovered = substanceLibrary
       .filter((seed) => seed.physicalState === 'liquid' && (seed.meltingPointC ?? -999) < 4)
       .filter((seed) => saturationPressure(propsOf(seed), 4).extrapolated)
       .map((seed) => seed.name);
-    expect(uncovered).toEqual(['pyridine']);
+    expect(uncovered).toEqual([]);
+  });
+
+  it('DMSO has a flash point (87 °C, ICSC 0459) and an LFL (2.6 %, NTP): GHS Category 4 and NFPA 30 Class IIIA; dichloromethane has neither', () => {
+    const dmso = substanceLibrary.find((seed) => seed.cas === '67-68-5')!;
+    expect(dmso.flashPointC).toBe(87);
+    expect(ghsFlammableCategory(dmso.flashPointC!, dmso.normalBoilingPointC)).toBe(4);
+    expect(nfpaLiquidClass(dmso.flashPointC!, dmso.normalBoilingPointC)).toBe('IIIA');
+    expect(dmso.sources.flashPointC).toMatch(/ICSC 0459/);
+    // LEL 2.6 %, UEL 63 % (NTP Chemical Repository data sheet, 1991): with a flash point and an LFL, no missing-data finding.
+    expect([dmso.lflVolPercent, dmso.uflVolPercent]).toEqual([2.6, 63]);
+    const dcm = substanceLibrary.find((seed) => seed.cas === '75-09-2')!;
+    expect(dcm.flashPointC).toBeUndefined();
+    expect(dcm.lflVolPercent).toBeUndefined();
+    expect(dcm.sources.flashPointC).toMatch(/not flammable under normal conditions.*ICSC 0058/);
+    // The published range stays beside it: NIOSH IDLH documentation LEL 13 %; OSHA 62 FR 1494 (1997) LEL 12 %, UEL 19 %.
+    expect(dcm.alternativeFlammability.map((alt) => alt.lflVolPercent).sort()).toEqual([12, 13]);
+  });
+
+  it('dry ice: Span & Wagner sublimation line below the triple point, liquid–vapor line above it', () => {
+    const co2 = substanceLibrary.find((seed) => seed.cas === '124-38-9')!;
+    // Sublimation point −78.5 °C at 101.325 kPa (sources of normalBoilingPointC, rounded to 0.1 K, ±0.4 %).
+    expect(Math.abs(saturationPressure(propsOf(co2), -78.5).pressureKPa / 101.325 - 1)).toBeLessThan(0.005);
+    // Both lines meet at the triple point, 216.592 K and 0.51795 MPa (Span & Wagner 1996).
+    const below = saturationPressure(propsOf(co2), 216.592 - 273.15 - 1e-6).pressureKPa;
+    const above = saturationPressure(propsOf(co2), 216.592 - 273.15 + 1e-6).pressureKPa;
+    expect(Math.abs(above / below - 1)).toBeLessThan(1e-4);
+    // 20 °C on the liquid–vapor line (Span & Wagner Eq. 3.13 evaluated): 5.729 MPa, not an extrapolated sublimation line.
+    expect(saturationPressure(propsOf(co2), 20).pressureKPa).toBeCloseTo(5729.2, 0);
+    // Above the critical point (304.1282 K) the engine holds the critical pressure and says so.
+    const hot = saturationPressure(propsOf(co2), 40);
+    expect(hot.pressureKPa).toBeCloseTo(7377.3, 6);
+    expect(hot.extrapolated).toBe(true);
+    expect(hot.warnings.join(' ')).toMatch(/no liquid is left/);
   });
 
   it('keeps disagreeing flammability values beside the primary ones (acetone UFL 14.3 IEC vs 12.8 NFPA 497)', () => {

@@ -17,11 +17,12 @@ import { CAS, container, designWorstCase, substance, unitSnapshot } from "../ass
 const ETHER_PSAT_20C_KPA = 442 * 0.133322;
 
 /**
- * The seeded ether correlation, Poling, Prausnitz & O'Connell, The Properties of Gases and
- * Liquids 5th ed., Appendix A: log10(P/bar) = 4.10962 − 1090.64/(T/K − 41.95). Worked here at
- * 25 °C: 4.10962 − 1090.64/256.2 = −0.14737 → 0.71225 bar = 71.23 kPa.
+ * The seeded ether correlation, VDI Heat Atlas 2nd ed. (2010), D3.1, Wagner 2.5-5 form:
+ * ln(P/Pc) = (Tc/T)·(n1·τ + n2·τ^1.5 + n3·τ^2.5 + n4·τ^5), Tc = 466.63 K, Pc = 3651 kPa,
+ * n = −7.55709, 2.15613, −3.02766, −2.37858. Worked here at 25 °C: τ = 1 − 298.15/466.63 = 0.36106;
+ * the bracket is −2.51252, × 466.63/298.15 = −3.93231 → P = 3651 × e^−3.93231 = 71.55 kPa.
  */
-const ETHER_PSAT_25C_TEXT = "71.23 kPa";
+const ETHER_PSAT_25C_TEXT = "71.55 kPa";
 
 describe("formatTraceNumber", () => {
   it("keeps a value stored with up to six significant figures and rounds computed ones to four", () => {
@@ -53,7 +54,7 @@ describe("formatTraceNumber", () => {
   it("puts units beside values, temperatures to 0.1 °C and ranges with a true minus", () => {
     expect(formatTraceValue(25, "°C")).toBe("25.0 °C");
     expect(formatTraceValue(-45.12752862729539, "°C")).toBe("−45.1 °C");
-    expect(formatTraceValue(71.2251333286242, "kPa")).toBe(ETHER_PSAT_25C_TEXT);
+    expect(formatTraceValue(71.55374471174727, "kPa")).toBe(ETHER_PSAT_25C_TEXT);
     expect(formatTraceValue("-43.44…55.16", "°C")).toBe("−43.44 to 55.16 °C");
     expect(formatTraceValue(0.7029374125696936, "")).toBe("0.7029");
     expect(formatTraceValue("the largest container", "")).toBe("the largest container");
@@ -80,33 +81,36 @@ describe("the vapor-pressure step", () => {
     const [section] = model.parts;
     expect(section.kind).toBe("vapor-pressure");
     const correlation = section.correlation!;
-    expect(correlation.name).toBe("Antoine");
-    expect(correlation.equation).toBe("log10(P/bar) = A − B/(T/K + C)");
+    expect(correlation.name).toBe("Wagner (2.5-5 form)");
+    expect(correlation.equation).toBe("ln(P/Pc) = (Tc/T)·(n1·τ + n2·τ^1.5 + n3·τ^2.5 + n4·τ^5), τ = 1 − T/Tc, T in K");
     expect(correlation.coefficients.map((c) => [c.symbol, c.text])).toEqual([
-      ["A", "4.10962"],
-      ["B", "1090.64 K"],
-      ["C", "−41.95 K"],
+      ["Tc", "466.63 K"],
+      ["Pc", "3651 kPa"],
+      ["n1", "−7.55709"],
+      ["n2", "2.15613"],
+      ["n3", "−3.02766"],
+      ["n4", "−2.37858"],
     ]);
-    expect(correlation.range).toBe("−43.44 to 55.16 °C");
+    expect(correlation.range).toBe("−116.4 to 193.48 °C");
     expect(correlation.inRange).toBe(true);
     // The long citation is listed once and referred to by number.
     expect(correlation.citation).toBe(1);
-    expect(model.sources[0]).toMatch(/^Poling, Prausnitz & O'Connell, The Properties of Gases and Liquids, 5th ed\./);
+    expect(model.sources[0]).toMatch(/^VDI Heat Atlas, 2nd ed\. \(Springer 2010\), chapter D3\.1/);
     expect(correlation.temperature?.text).toBe("20.0 °C");
     expect(correlation.temperature?.source).toBe("design maximum");
     expect(correlation.pressureKPa! / ETHER_PSAT_20C_KPA - 1).toBeLessThan(0.01);
     expect(correlation.pressureKPa! / ETHER_PSAT_20C_KPA - 1).toBeGreaterThan(-0.01);
-    expect(correlation.pressure?.text).toBe("58.6 kPa");
-    // y, ppm, Vm and mg/m³ follow as concentration steps. Worked here: y = 58.60/101.325 = 0.5783;
-    // Vm = 8.314462618 × 293.15/101.325 = 24.06 L/mol; 578,300 ppm × 74.123/24.06 = 1.782 × 10⁶ mg/m³.
+    expect(correlation.pressure?.text).toBe("58.88 kPa");
+    // y, ppm, Vm and mg/m³ follow as concentration steps. Worked here: y = 58.885/101.325 = 0.5811;
+    // Vm = 8.314462618 × 293.15/101.325 = 24.06 L/mol; 581,100 ppm × 74.123/24.06 = 1.791 × 10⁶ mg/m³.
     expect(section.steps.map((s) => [s.kind, s.result?.text])).toEqual([
-      ["vapor-pressure", "58.6 kPa"],
-      ["mole-fraction", "0.5783"],
-      ["concentration", "578,300 ppm"],
+      ["vapor-pressure", "58.88 kPa"],
+      ["mole-fraction", "0.5811"],
+      ["concentration", "581,100 ppm"],
       ["molar-volume", "24.06 L/mol"],
-      ["concentration", "1.782 × 10⁶ mg/m³"],
+      ["concentration", "1.791 × 10⁶ mg/m³"],
     ]);
-    expect(vaporPressurePoints(model)).toEqual([{ title: "Saturated vapor concentration of diethyl ether (antoine)", tempC: 20, pressureKPa: correlation.pressureKPa }]);
+    expect(vaporPressurePoints(model)).toEqual([{ title: "Saturated vapor concentration of diethyl ether (wagner)", tempC: 20, pressureKPa: correlation.pressureKPa }]);
   });
 });
 
@@ -138,13 +142,13 @@ describe("an enclosure finding's whole working", () => {
     const [bound, lfl] = model.parts;
     expect(bound.correlation?.pressure?.text).toBe(ETHER_PSAT_25C_TEXT);
     expect(bound.correlation?.temperature?.text).toBe("25.0 °C");
-    expect(bound.bound).toEqual({ saturated: "702,900 ppm", inventory: "1 × 10⁶ ppm", used: "702,900 ppm", limitedBy: "saturation" });
+    expect(bound.bound).toEqual({ saturated: "706,200 ppm", inventory: "1 × 10⁶ ppm", used: "706,200 ppm", limitedBy: "saturation" });
     expect(lfl.shares).toEqual({
-      rows: [{ name: "diethyl ether", concentration: "702,900 ppm", limit: "1.7 % by volume", share: "41.35", sharePercentLfl: "4135 % LFL" }],
-      sum: "41.35",
+      rows: [{ name: "diethyl ether", concentration: "706,200 ppm", limit: "1.7 % by volume", share: "41.54", sharePercentLfl: "4154 % LFL" }],
+      sum: "41.54",
     });
     expect(model.rule?.steps.map((s) => [s.kind, s.severity])).toEqual([["severity", "critical"]]);
-    expect(model.rule?.result?.text).toBe("4135 % LFL");
+    expect(model.rule?.result?.text).toBe("4154 % LFL");
     expect(model.containers.map((c) => [c.label, c.content, c.amountText, c.state])).toEqual([
       ["DE-1", "diethyl ether", "2.5 L", "open"],
       ["DE-2", "diethyl ether", "1 L", "sealed"],
@@ -156,7 +160,7 @@ describe("an enclosure finding's whole working", () => {
     const together = finding(findings, "enclosure-lfl", "control_lost", "Open containers");
     expect(traceContainers(together.trace).map((c) => c.label)).toEqual(["DE-1", "AC-1"]);
     const model = traceModel(together.trace);
-    expect(model.parts.filter((p) => p.kind === "vapor-pressure").map((p) => p.correlation?.name)).toEqual(["Antoine", "Antoine"]);
+    expect(model.parts.filter((p) => p.kind === "vapor-pressure").map((p) => p.correlation?.name)).toEqual(["Wagner (2.5-5 form)", "Wagner (2.5-5 form)"]);
     const lfl = model.parts.find((p) => p.kind === "lfl-fraction")!;
     expect(lfl.shares?.rows.map((r) => r.name)).toEqual(["diethyl ether", "acetone"]);
     expect(lfl.shares?.sum).toBe(model.rule?.steps.length ? formatTraceNumber(together.ratio!) : null);

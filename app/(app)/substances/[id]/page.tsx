@@ -16,9 +16,10 @@ import { requirePagePermission } from "@/lib/auth/page";
 import { substanceSds } from "@/lib/files/service";
 import { VAPOR_METHOD_LABELS } from "@/lib/format/labels";
 import { formatNumber, formatQuantity, formatTempC } from "@/lib/format/numbers";
-import { STANDARD_ATMOSPHERE_KPA } from "@/lib/hazard";
+import { correlationCoefficients, correlationEquation } from "@/lib/format/correlations";
+import { STANDARD_ATMOSPHERE_KPA, correlationHandovers } from "@/lib/hazard";
 import { idParam } from "@/lib/http/paging";
-import { classify, vaporAt, vaporPressureCurve } from "@/lib/substances/vapor";
+import { classify, toVaporProperties, vaporAt, vaporPressureCurve } from "@/lib/substances/vapor";
 
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
   const id = idParam((await params).id);
@@ -43,11 +44,20 @@ function rangeText(c: Record<string, unknown>): string {
   return `${formatTempC(c.tMinC as number)} … ${formatTempC(c.tMaxC as number)}`;
 }
 
-function correlationText(c: Record<string, unknown>): string {
-  if (c.kind === "dippr101") return "DIPPR 101: ln(P/Pa) = C1 + C2/T + C3·ln T + C4·T^C5";
-  const log = c.log === "ln" ? "ln" : "log10";
-  const t = c.temperatureUnit === "C" ? "t/°C" : "T/K";
-  return `Antoine: ${log}(P/${String(c.pressureUnit)}) = A − B/(${t} + C)`;
+/** How the curve passes from one correlation to the next over −40 … 60 °C (the library keeps each step under 0.5 %). */
+function handoverText(row: Parameters<typeof toVaporProperties>[0]): string | null {
+  if (row.correlations.length === 0) return null;
+  if (row.correlations.length === 1) return "One correlation draws the whole curve: no hand-over between correlations, so no step in it.";
+  let handovers: ReturnType<typeof correlationHandovers>;
+  try {
+    handovers = correlationHandovers(toVaporProperties(row), -40, 60, 0.1);
+  } catch {
+    return null;
+  }
+  if (handovers.length === 0) return "The first correlation covers −40 … 60 °C: no hand-over between correlations there.";
+  return handovers
+    .map((h) => `From correlation ${h.fromIndex + 1} to ${h.toIndex + 1} at ${formatTempC(h.atC)}: the curve steps by ${h.stepPercent >= 0 ? "+" : "−"}${formatNumber(Math.abs(h.stepPercent), 2)} %.`)
+    .join(" ");
 }
 
 export default async function SubstancePage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ saved?: string }> }) {
@@ -65,6 +75,7 @@ export default async function SubstancePage({ params, searchParams }: { params: 
     at20Error = (error as Error).message;
   }
   const curve = vaporPressureCurve(row);
+  const handovers = handoverText(row);
   const lflPressureKPa = row.lflVolPercent != null ? (row.lflVolPercent / 100) * STANDARD_ATMOSPHERE_KPA : null;
   const values = row as unknown as Record<string, number | null>;
 
@@ -182,12 +193,14 @@ export default async function SubstancePage({ params, searchParams }: { params: 
             <ol className="space-y-3 text-sm">
               {row.correlations.map((corr, index) => (
                 <li key={index}>
-                  <p className="font-medium">{correlationText(corr)}</p>
+                  <p className="font-medium">{correlationEquation(corr)}</p>
+                  <p className="tabular text-xs text-ink-700 [overflow-wrap:anywhere]">{correlationCoefficients(corr)}</p>
                   <p className="tabular text-xs text-ink-700">valid {rangeText(corr)}</p>
                   {corr.source ? <p className="text-xs text-ink-600 [overflow-wrap:anywhere]">{corr.source}</p> : null}
                 </li>
               ))}
             </ol>
+            {handovers ? <p className="mt-3 text-xs text-ink-700">{handovers}</p> : null}
           </Card>
         </div>
       </div>
