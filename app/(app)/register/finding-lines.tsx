@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { SeverityBadge } from "@/components/ui/severity";
 import type { FindingListRow } from "@/db/queries/findings";
-import { formatNumber, formatTempC } from "@/lib/format/numbers";
+import { formatDurationMin, formatNumber, formatTempC } from "@/lib/format/numbers";
 import { valueWithScenario, type FindingLine } from "@/lib/register/grouping";
 import { humaniseRule, STATUS_LABELS } from "@/lib/register/labels";
 import { SelectBox } from "./selection";
@@ -18,6 +18,14 @@ function valueText(f: FindingListRow): string {
 function locationHref(f: FindingListRow): string | null {
   const l = f.location;
   return l.storageUnitId ? `/locations/units/${l.storageUnitId}` : l.roomId ? `/locations/rooms/${l.roomId}` : null;
+}
+
+/** The soonest time to danger among a line's findings: "danger 3 h 10 min after a failure". */
+function dangerText(findings: FindingListRow[]): string | null {
+  let soonest: FindingListRow["timeToDanger"] = null;
+  for (const f of findings) if (f.timeToDanger && (soonest === null || f.timeToDanger.minutes < soonest.minutes)) soonest = f.timeToDanger;
+  if (soonest === null) return null;
+  return soonest.minutes === 0 ? `at the ${soonest.threshold} already in control` : `${soonest.threshold} ${formatDurationMin(soonest.minutes)} after a failure`;
 }
 
 function statusText(status: string): string {
@@ -97,6 +105,7 @@ export function FindingLinesTable({
                     f.location.label
                   )}
                   {f.substance || f.mixture ? ` · ${f.substance?.name ?? f.mixture?.name}` : ""}
+                  {dangerText([f, ...line.others]) ? <span className="font-medium text-ink-800"> · {dangerText([f, ...line.others])}</span> : null}
                   <span className="xl:hidden"> · {statusText(f.status)}</span>
                 </p>
                 {line.others.length ? (

@@ -78,19 +78,39 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const people = can(user.role, "findings.work") ? activeUserOptions().filter((p) => p.role !== "auditor").map((p) => ({ id: p.id, name: p.name })) : [];
   const selectable = bulkKinds.length > 0;
 
+  const withSort = (sort: "severity" | "timeToDanger") => {
+    const params = new URLSearchParams(raw);
+    params.delete("page");
+    params.set("sort", sort);
+    params.set("dir", sort === "timeToDanger" ? "asc" : "desc");
+    return `/register?${params.toString()}`;
+  };
+
   function linesView() {
     const { lines, total, findings } = listFindingLinesPage(user, scope, query);
     const pages = Math.max(1, Math.ceil(total / query.pageSize));
+    const soonest = query.sort === "timeToDanger";
     return (
       <section aria-label="Findings, one line per problem" className="rounded-lg border border-ink-200 bg-white">
-        <p className="border-b border-ink-200 px-3 py-2 text-sm text-ink-700">
-          {formatCount(total)} {total === 1 ? "line" : "lines"} for {formatCount(findings)} {findings === 1 ? "finding" : "findings"}: the scenarios of one problem (in control, control lost, spill) share a line, headed by the worst.
-        </p>
+        <div className="flex flex-wrap items-baseline justify-between gap-2 border-b border-ink-200 px-3 py-2 text-sm text-ink-700">
+          <p>
+            {formatCount(total)} {total === 1 ? "line" : "lines"} for {formatCount(findings)} {findings === 1 ? "finding" : "findings"}: the scenarios of one problem (in control, control lost, spill) share a line, headed by the worst.
+          </p>
+          <p className="flex gap-3 whitespace-nowrap">
+            <span className="text-ink-600">Order:</span>
+            <Link href={withSort("severity")} aria-current={soonest ? undefined : "true"} className={soonest ? "text-accent-800 hover:underline" : "font-semibold text-ink-950"}>
+              worst first
+            </Link>
+            <Link href={withSort("timeToDanger")} aria-current={soonest ? "true" : undefined} className={soonest ? "font-semibold text-ink-950" : "text-accent-800 hover:underline"}>
+              soonest after a failure
+            </Link>
+          </p>
+        </div>
         {lines.length === 0 ? (
           <p className="px-4 py-10 text-center text-sm text-ink-500">No finding matches these filters.</p>
         ) : (
           <div className="overflow-x-auto">
-            <FindingLinesTable lines={lines} ruleLabels={RULE_SHORT_LABELS} selectable={selectable} caption="Findings, one line per problem, worst first" />
+            <FindingLinesTable lines={lines} ruleLabels={RULE_SHORT_LABELS} selectable={selectable} caption={soonest ? "Findings, one line per problem, soonest danger after a failure first" : "Findings, one line per problem, worst first"} />
           </div>
         )}
         {pages > 1 ? (

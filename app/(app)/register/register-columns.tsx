@@ -3,7 +3,7 @@ import { createDataTableColumnHelper, type DataTableFilters } from "@/components
 import { SeverityBadge } from "@/components/ui/severity";
 import { FINDING_STATUSES, SCENARIOS, SEVERITIES } from "@/db/enums";
 import type { FindingListRow } from "@/db/queries/findings";
-import { formatNumber, formatTempC } from "@/lib/format/numbers";
+import { formatDurationMin, formatNumber, formatTempC } from "@/lib/format/numbers";
 import { humaniseRule, SCENARIO_LABELS, STATUS_LABELS } from "@/lib/register/labels";
 import { FINDING_SEARCH_MAX_LENGTH } from "@/lib/register/schemas";
 import { SelectBox } from "./selection";
@@ -11,7 +11,7 @@ import { SelectBox } from "./selection";
 /** A row of `GET /api/v1/findings` as JSON (dates arrive as strings). */
 export type RegisterRow = Omit<FindingListRow, "firstRaisedAt" | "updatedAt"> & { firstRaisedAt: string; updatedAt: string };
 
-export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "age"] as const;
+export const REGISTER_SORTABLE = ["severity", "status", "rule", "location", "ratio", "worstCaseTempC", "timeToDanger", "age"] as const;
 
 type Option = { value: string; label: string };
 
@@ -90,6 +90,16 @@ export function getRegisterColumns(ruleLabels: Record<string, string>, selectabl
       header: "Worst case",
       meta: { align: "end", unit: "°C" },
       cell: ({ row }) => <span title={row.original.worstCaseSource ?? undefined}>{formatTempC(row.original.worstCaseTempC).replace(/ °C$/, "")}</span>,
+    }),
+    column.accessor((r) => r.timeToDanger?.minutes ?? null, {
+      id: "timeToDanger",
+      header: "Time to danger",
+      meta: { align: "end", priority: 3 },
+      cell: ({ row }) => {
+        const t = row.original.timeToDanger;
+        if (t == null) return <span className="text-ink-400">—</span>;
+        return <span title={`${t.threshold} at ${formatTempC(t.tempC)} after a failure`}>{t.minutes === 0 ? "now" : formatDurationMin(t.minutes)}</span>;
+      },
     }),
     column.accessor("ratio", {
       header: "Ratio",

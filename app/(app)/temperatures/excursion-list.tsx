@@ -91,7 +91,9 @@ export function ExcursionList({
                       Ended
                     </span>
                   )}
-                  <span className="font-semibold text-ink-950">Peak {formatTempC(row.peakTempC)}</span>
+                  <Link href={`/temperatures/excursions/${row.id}`} className="font-semibold text-ink-950 hover:underline">
+                    Peak {formatTempC(row.peakTempC)}
+                  </Link>
                   <span className="text-ink-700">
                     above {formatTempC(row.thresholdC)} for {formatDurationMin(row.durationMin)}
                     {open ? " so far" : ""}

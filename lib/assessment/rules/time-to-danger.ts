@@ -40,16 +40,17 @@ export type ThresholdCrossing = {
   minutes: number | null;
 };
 
-/** "3 h 10 min", "45 min", "under 1 min". */
+/** "3 h 10 min", "45 min", "under 1 min" (the register's duration format). */
 export function formatMinutes(minutes: number): string {
-  if (minutes < 1) return minutes === 0 ? "0 min" : "under 1 min";
-  const total = Math.round(minutes);
+  if (minutes > 0 && minutes < 1) return "under 1 min";
+  // As lib/format/numbers formatDurationMin (the rules import nothing from the app).
+  const total = Math.max(0, Math.round(minutes));
+  if (total < 60) return `${total} min`;
   const days = Math.floor(total / 1440);
   const hours = Math.floor((total % 1440) / 60);
   const mins = total % 60;
-  if (days > 0) return hours > 0 ? `${days} d ${hours} h` : `${days} d`;
-  if (hours === 0) return `${mins} min`;
-  return mins === 0 ? `${hours} h` : `${hours} h ${mins} min`;
+  if (days > 0) return `${days} day${days === 1 ? "" : "s"}${hours ? ` ${hours} h` : ""}`;
+  return `${hours} h${mins ? ` ${mins} min` : ""}`;
 }
 
 /** A temperature for a subtraction: negative values in brackets. */
