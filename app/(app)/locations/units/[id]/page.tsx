@@ -18,7 +18,8 @@ import { UnitForm } from "../../location-forms";
 import { toFormValue } from "@/lib/objects";
 import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-temperature-card";
 import { PlaceFindings } from "../../place-findings";
-import { WarmUpCard } from "./warm-up-card";
+import { fittedCurves } from "@/lib/temperatures/warm-up-store";
+import { WarmUpCard, warmUpOverlays } from "./warm-up-card";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -29,6 +30,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   if (!unit || unit.retiredAt) notFound();
   const stored = containersAt({ storageUnitId: unit.id });
   const mayEdit = can(user.role, "locations.write");
+  const warmUpCurves = can(user.role, "temperatures.read") ? fittedCurves(unit.id) : null;
   const owners = mayEdit ? activeUserOptions().map((p) => ({ value: String(p.id), label: p.name })) : [];
   return (
     <div className="space-y-6">
@@ -62,8 +64,8 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         ))}
       </dl>
       <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
-      <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
-      <WarmUpCard user={user} unit={unit} />
+      <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} overlays={warmUpOverlays(warmUpCurves)} />
+      <WarmUpCard user={user} unit={unit} curves={warmUpCurves} />
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>
         <ContainersTable rows={stored} showUnit={false} />
