@@ -232,7 +232,7 @@ export function fitWarmUp(inputs: readonly WarmUpExcursionInput[]): WarmUpFitRes
       initialValues: [bestLnTau],
       minValues: [lnMin],
       maxValues: [lnMax],
-      maxIterations: 100,
+      maxIterations: 25,
       errorTolerance: 1e-12,
       improvementThreshold: 1e-6,
       damping: 1e-3,

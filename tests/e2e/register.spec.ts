@@ -85,6 +85,16 @@ test("a safety officer works a critical finding to resolution by moving the ethe
   const room = (await getJson<{ data: { id: number; code: string }[] }>(page, "/api/v1/rooms?q=B-014")).data.find((r) => r.code === "B-014")!;
   const stillOpen = await getJson<{ data: { storageUnitId: number | null }[] }>(page, `/api/v1/findings?roomId=${room.id}&status=open&pageSize=100`);
   expect(stillOpen.data.filter((f) => f.storageUnitId === null)).toEqual([]);
+
+  // How long after a failure: ordered soonest first, the freezer FZ-1's methanol reaches its LFL
+  // hours after the freezer fails, with the threshold and the warm-up drawn in the working.
+  await page.goto("/register?view=lines&q=FZ-1");
+  await page.getByRole("link", { name: "soonest after a failure" }).click();
+  await expect(page).toHaveURL(/sort=timeToDanger/);
+  await page.getByRole("link", { name: /^Methanol in FZ-1 could reach [\d,]+ % LFL if the freezer fails/ }).click();
+  await expect(page.getByText("Time to danger", { exact: true })).toBeVisible();
+  await expect(page.getByText(/^Reaches the LFL \(6\.\d °C\) this long after a failure\.$/)).toBeVisible();
+  await expect(page.getByText(/Warm-up after a failure \(Newton's law of heating\)/).first()).toBeVisible();
   await new Shell(page).signOut();
 
   // The auditor's workbook.

@@ -1,6 +1,7 @@
 import { Power, TriangleAlert } from "lucide-react";
 import Link from "next/link";
 import { buttonClass } from "@/components/ui/button";
+import type { TraceOverlay } from "@/components/charts/temperature-trace-chart";
 import { Card } from "@/components/ui/card";
 import type { SessionUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
@@ -78,7 +79,16 @@ function SensorLine({ sensor }: { sensor: SensorListRow }) {
  * came from (both "in control" and "control lost" for a unit with a set range), its sensors with
  * a chart, and its excursions with the acknowledgement form for those who may give one.
  */
-export function LocationTemperatureCard({ user, location }: { user: SessionUser; location: { roomId: number } | { storageUnitId: number } }) {
+export function LocationTemperatureCard({
+  user,
+  location,
+  overlays,
+}: {
+  user: SessionUser;
+  location: { roomId: number } | { storageUnitId: number };
+  /** Model curves drawn dashed over a sensor's readings, by sensor id (a unit's fitted warm-up). */
+  overlays?: Record<number, TraceOverlay[]>;
+}) {
   const onUnit = "storageUnitId" in location;
   const days = lookBackDays();
   const mayReadSensors = can(user.role, "temperatures.read");
@@ -150,7 +160,7 @@ export function LocationTemperatureCard({ user, location }: { user: SessionUser;
             </section>
 
             {sensors.length > 0 ? (
-              <SensorTraceSwitcher sensors={sensors.map((s) => ({ id: s.id, label: `${s.externalId} ${s.name}` }))} initial={initial} />
+              <SensorTraceSwitcher sensors={sensors.map((s) => ({ id: s.id, label: `${s.externalId} ${s.name}` }))} initial={initial} overlays={overlays} />
             ) : null}
 
             <section aria-labelledby="location-excursions-heading" className="space-y-3">

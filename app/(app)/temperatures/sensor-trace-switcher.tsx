@@ -1,11 +1,20 @@
 "use client";
 import { useId, useState } from "react";
-import { TemperatureTraceChart } from "@/components/charts/temperature-trace-chart";
+import { TemperatureTraceChart, type TraceOverlay } from "@/components/charts/temperature-trace-chart";
 import { inputClass } from "@/components/ui/field";
 import type { ReadingSeries } from "@/lib/temperatures/series";
 
 /** The chart of one of a location's sensors, with a choice of sensor when there are several. */
-export function SensorTraceSwitcher({ sensors, initial }: { sensors: { id: number; label: string }[]; initial: ReadingSeries | null }) {
+export function SensorTraceSwitcher({
+  sensors,
+  initial,
+  overlays,
+}: {
+  sensors: { id: number; label: string }[];
+  initial: ReadingSeries | null;
+  /** Model curves drawn dashed over a sensor's readings, by sensor id (a unit's fitted warm-up). */
+  overlays?: Record<number, TraceOverlay[]>;
+}) {
   const id = useId();
   const [sensorId, setSensorId] = useState(initial?.sensor.id ?? sensors[0]?.id);
   if (sensorId == null) return null;
@@ -25,7 +34,7 @@ export function SensorTraceSwitcher({ sensors, initial }: { sensors: { id: numbe
           </select>
         </div>
       ) : null}
-      <TemperatureTraceChart key={sensorId} sensorId={sensorId} initial={initial?.sensor.id === sensorId ? initial : null} />
+      <TemperatureTraceChart key={sensorId} sensorId={sensorId} initial={initial?.sensor.id === sensorId ? initial : null} overlays={overlays?.[sensorId]} />
     </div>
   );
 }

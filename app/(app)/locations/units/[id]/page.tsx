@@ -20,7 +20,8 @@ import { LocationTemperatureCard } from "@/app/(app)/temperatures/location-tempe
 import { PlaceFindings } from "../../place-findings";
 import { BrokenBottlesCard } from "@/components/register/broken-bottles-card";
 import { brokenBottlesOfUnit } from "@/lib/assessment/broken-bottles";
-import { WarmUpCard } from "./warm-up-card";
+import { fittedCurves } from "@/lib/temperatures/warm-up-store";
+import { WarmUpCard, warmUpOverlays } from "./warm-up-card";
 
 export const metadata: Metadata = { title: "Storage unit" };
 
@@ -32,6 +33,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   const stored = containersAt({ storageUnitId: unit.id });
   const mayEdit = can(user.role, "locations.write");
   const bottles = brokenBottlesOfUnit(unit);
+  const warmUpCurves = can(user.role, "temperatures.read") ? fittedCurves(unit.id) : null;
   const owners = mayEdit ? activeUserOptions().map((p) => ({ value: String(p.id), label: p.name })) : [];
   return (
     <div className="space-y-6">
@@ -65,8 +67,8 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         ))}
       </dl>
       <PlaceFindings user={user} place={{ kind: "unit", storageUnitId: unit.id }} />
-      <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} />
-      <WarmUpCard user={user} unit={unit} />
+      <LocationTemperatureCard user={user} location={{ storageUnitId: unit.id }} overlays={warmUpOverlays(warmUpCurves)} />
+      <WarmUpCard user={user} unit={unit} curves={warmUpCurves} />
       {bottles ? <BrokenBottlesCard bottles={bottles} unitCode={unit.code} /> : null}
 
       <Card title={`Inventory (${formatCount(stored.length)} containers)`}>

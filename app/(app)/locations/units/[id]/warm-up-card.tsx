@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import { TemperatureTraceChart } from "@/components/charts/temperature-trace-chart";
+import { TemperatureTraceChart, type TraceOverlay } from "@/components/charts/temperature-trace-chart";
 import { Card } from "@/components/ui/card";
 import type { SessionUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
@@ -8,7 +8,23 @@ import { warmUpMinutesToReach } from "@/lib/hazard";
 import { formatCount, formatDateTime, formatNumber, formatTempC } from "@/lib/format/numbers";
 import { readingSeries } from "@/lib/temperatures/series";
 import { formatTauMin } from "@/lib/temperatures/warm-up-defaults";
-import { fittedCurves, unitWarmUpSummary } from "@/lib/temperatures/warm-up-store";
+import { unitWarmUpSummary, type fittedCurves } from "@/lib/temperatures/warm-up-store";
+
+type FittedCurves = ReturnType<typeof fittedCurves>;
+
+/** The fitted warm-up as dashed curves over each sensor's readings, for the unit's temperature charts. */
+export function warmUpOverlays(curves: FittedCurves): Record<number, TraceOverlay[]> {
+  const bySensor: Record<number, TraceOverlay[]> = {};
+  if (!curves) return bySensor;
+  for (const curve of curves.curves) {
+    const list = (bySensor[curve.sensorId] ??= []);
+    list.push({
+      label: list.length === 0 ? `Fitted warm-up, τ = ${formatTauMin(curves.fit.tauMin)} (dashed)` : `Fitted warm-up, failure ${list.length + 1}`,
+      points: curve.points.map((p) => ({ atMs: p.atMs, tempC: p.fittedC })),
+    });
+  }
+  return bySensor;
+}
 
 const HOUR_MS = 3_600_000;
 
@@ -32,7 +48,7 @@ function Block({ label, value, detail }: { label: ReactNode; value: string; deta
  * The unit's warm-up after a failure: τ with where it comes from, the fit's quality and history,
  * and (for those who may read sensors) the fitted curve dashed over the failure it was fitted to.
  */
-export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: number; setMaxC: number | null } }) {
+export function WarmUpCard({ user, unit, curves }: { user: SessionUser; unit: { id: number; setMaxC: number | null }; curves: FittedCurves }) {
   let summary;
   try {
     summary = unitWarmUpSummary(unit.id);
@@ -41,7 +57,6 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
     throw error;
   }
   const mayReadSensors = can(user.role, "temperatures.read");
-  const curves = summary.fitHistory.length > 0 ? fittedCurves(unit.id) : null;
   const latestCurve = curves?.curves.at(-1) ?? null;
   let chart = null;
   if (mayReadSensors && latestCurve) {
@@ -50,12 +65,7 @@ export function WarmUpCard({ user, unit }: { user: SessionUser; unit: { id: numb
     chart = {
       sensorId: latestCurve.sensorId,
       initial: readingSeries(latestCurve.sensorId, { fromMs, toMs }),
-      overlays: curves!.curves
-        .filter((c) => c.sensorId === latestCurve.sensorId)
-        .map((c, i) => ({
-          label: i === 0 ? `Fitted warm-up, τ = ${formatTauMin(curves!.fit.tauMin)} (dashed)` : `Fitted warm-up, failure ${i + 1}`,
-          points: c.points.map((p) => ({ atMs: p.atMs, tempC: p.fittedC })),
-        })),
+      overlays: warmUpOverlays(curves)[latestCurve.sensorId] ?? [],
     };
   }
   const roomTempC = summary.roomTempC;
