@@ -10,9 +10,10 @@ import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@
 import { containerAmountSchema } from "@/lib/inventory/schemas";
 import type { FindingCandidate } from "@/lib/register/store";
 import { optionalId, requiredId } from "@/lib/validation/fields";
-import { componentsOfMixtures, findingIdsVisibleTo, STANDING_STATUSES, standingFindingsAt, type StandingFinding } from "./preview-current";
+import { componentsOfMixtures, findingIdsVisibleTo, STANDING_STATUSES, standingFindingsAt } from "./preview-current";
+import { better, relatedTo, worse } from "./preview-related";
 import { previewVerdict, verdictSentence, type CurrentOutcome, type PreviewMode, type PreviewVerdict } from "./preview-verdict";
-import { assessLocation, createAssessmentCache, severityRank, subjectKey } from "./rules";
+import { assessLocation, createAssessmentCache, severityRank } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
 
 const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
@@ -96,23 +97,7 @@ export type PreviewResult = {
   cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
 };
 
-/** A ratio that moves by less than 1 % has not changed: the same state assessed twice may differ in the last digits. */
-const RATIO_CHANGE_FACTOR = 1.01;
-
-function worse(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) > severityRank(before.severity) || (after.ratio ?? 0) > (before.ratio ?? 0) * RATIO_CHANGE_FACTOR;
-}
-
-function better(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) < severityRank(before.severity) || (after.ratio ?? 0) * RATIO_CHANGE_FACTOR < (before.ratio ?? 0);
-}
-
 const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
-
-/** The subject part of a fingerprint ("rule|location|subject|scenario"), e.g. "substance:7", "open-containers", "limit:3". */
-function subjectOf(fingerprint: string): string {
-  return fingerprint.split("|")[2] ?? "";
-}
 
 /**
  * What-if: the findings that storing this amount in this unit would raise or make worse, computed
@@ -179,25 +164,9 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
 
   // The findings standing where it would go, about the same substance or its group.
   const storedContent = library.content(content.substanceId, content.mixtureId);
-  const substanceIds = new Set<number>(
-    storedContent?.kind === "substance" ? [storedContent.substance.id] : storedContent?.kind === "mixture" ? storedContent.mixture.components.map((c) => c.substance.id) : [],
-  );
   const standing = standingFindingsAt(db, unit);
   const components = componentsOfMixtures(db, [...new Set(standing.flatMap((f) => (f.mixtureId == null ? [] : [f.mixtureId])))]);
-  const flammable = storedContent?.kind === "substance" ? storedContent.substance.lflVolPercent != null : (storedContent?.mixture.components.some((c) => c.substance.lflVolPercent != null) ?? false);
-  const liquidClass = storedContent?.kind === "substance" ? storedContent.substance.nfpaClass : (storedContent?.mixture.nfpaClass ?? null);
-  const cold = storedContent?.kind === "substance" && (storedContent.substance.physicalState === "cryogen" || storedContent.substance.physicalState === "solid");
-  const limitClasses = new Map(settings.quantities.limits.map((l) => [subjectKey({ kind: "quantity-limit", id: l.id }), l.liquidClasses as readonly string[]]));
-  const aboutIt = (f: StandingFinding): "substance" | "group" | null => {
-    const subject = subjectOf(f.fingerprint);
-    if (subject === "open-containers") return flammable || (f.substanceId != null && substanceIds.has(f.substanceId)) ? "group" : null;
-    if (subject.startsWith("limit:")) return liquidClass != null && (limitClasses.get(subject)?.includes(liquidClass) ?? true) ? "group" : null;
-    if (subject === "cryogen-inventory" || subject === "dry-ice") return cold ? "group" : null;
-    if (f.substanceId != null && substanceIds.has(f.substanceId)) return "substance";
-    if (f.mixtureId != null && f.mixtureId === content.mixtureId) return "substance";
-    if (f.mixtureId != null && [...(components.get(f.mixtureId) ?? [])].some((id) => substanceIds.has(id))) return "group";
-    return null;
-  };
+  const aboutIt = relatedTo(storedContent, content.mixtureId, settings, components);
   const related = standing.flatMap((f) => {
     const about = aboutIt(f);
     return about ? [{ f, about }] : [];

@@ -1,0 +1,395 @@
+import "server-only";
+import { and, asc, eq, isNull } from "drizzle-orm";
+import { z } from "zod";
+import { getDb, preparedOn, type DbOrTx } from "@/db/client";
+import { AMOUNT_UNITS, type AmountUnit, type ContainerState, type Severity, type StorageUnitKind } from "@/db/enums";
+import { containers, mixtures, rooms, sites, storageUnits, substances } from "@/db/schema";
+import { scopeFor } from "@/lib/auth/permissions";
+import type { SessionUser } from "@/lib/auth/session";
+import { ConflictError, ForbiddenError, NotFoundError } from "@/lib/errors";
+import { formatNumber } from "@/lib/format/numbers";
+import type { FindingCandidate, TimeToDanger } from "@/lib/register/store";
+import { optionalId, optionalNumber, requiredNumber } from "@/lib/validation/fields";
+import { componentsOfMixtures, STANDING_STATUSES } from "./preview-current";
+import { relatedTo, worse } from "./preview-related";
+import { titleInSentence, type PreviewVerdict } from "./preview-verdict";
+import { assessLocation, createAssessmentCache, severityRank, type AssessmentSettings, type LocationSnapshot, type StoredContent, type StoredLiquid } from "./rules";
+import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
+
+const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
+
+/** At most this many places are answered unless `limit` asks for fewer or more (1–50). */
+export const STORAGE_PLAN_DEFAULT_LIMIT = 20;
+
+export const storagePlanSchema = z
+  .object({
+    substanceId: optionalId("substance"),
+    mixtureId: optionalId("mixture"),
+    amount: requiredNumber({ label: "Amount", exclusiveMin: 0, max: 1e6 }),
+    amountUnit: z.enum(AMOUNT_UNITS, { error: AMOUNT_UNIT_MESSAGE }),
+    /** Only units at this site. */
+    siteId: optionalId("site"),
+    /** The room to be near (else the container's own room). */
+    roomId: optionalId("room"),
+    /** A stored container: plans moving it (its own unit is left out). */
+    containerId: optionalId("container"),
+    limit: optionalNumber({ label: "limit", min: 1, max: 50, integer: true }),
+  })
+  .superRefine((value, ctx) => {
+    if ((value.substanceId == null) === (value.mixtureId == null)) ctx.addIssue({ code: "custom", path: ["substanceId"], message: "Give a substanceId or a mixtureId (one of them)." });
+  });
+export type StoragePlanInput = z.output<typeof storagePlanSchema>;
+
+export type Nearness = "same_room" | "same_site" | "other_site";
+
+/** One place the planner proposes, best first. */
+export type StoragePlanItem = {
+  storageUnitId: number;
+  code: string;
+  name: string;
+  unitKind: StorageUnitKind;
+  roomId: number;
+  roomCode: string;
+  roomName: string;
+  siteId: number;
+  siteName: string;
+  /** From the point of view of this unit: nothing about it flagged, already flagged and kept so, or new or worse findings. */
+  verdict: PreviewVerdict;
+  /** The worst severity among the findings about it that storing it here would raise or keep; null when none. */
+  worstSeverity: Severity | null;
+  /** The highest ratio (value/limit) among them; null when none has a ratio. */
+  maxRatio: number | null;
+  /** The earliest time to danger among the control-lost findings it would raise or keep here; null when none. */
+  timeToDanger: TimeToDanger | null;
+  /** How many findings storing it here would raise or make worse. */
+  raised: number;
+  nearness: Nearness;
+  /** One plain sentence: why this place ranks where it does. */
+  reason: string;
+};
+
+export type StoragePlanResult = {
+  items: StoragePlanItem[];
+  /** Live units looked at (the container's own unit left out). */
+  considered: number;
+  /** Units left out because the new amount would not fit in their internal volume. */
+  tooSmall: number;
+  /** Only when no unit can hold the amount: says so. */
+  message?: string;
+};
+
+/** What the planner places: new contents, or a stored container (`replacesContainerId`) as it would be. */
+export type PlannedContent = {
+  substanceId: number | null;
+  mixtureId: number | null;
+  amount: number;
+  amountUnit: AmountUnit;
+  state?: ContainerState;
+  label: string;
+  replacesContainerId?: number;
+};
+
+export type PlanOptions = {
+  /** The room to be near: same room first, then the same site. */
+  nearRoomId?: number | null;
+  /** Only units at this site. */
+  siteId?: number | null;
+  /** Units left out (the container's own place, the unit the what-if already looks at). */
+  excludeUnitIds?: readonly number[];
+  limit?: number;
+  nowMs?: number;
+  /** Also answers the place of this unit (included in the ranking or not), to compare the others with it. */
+  compareUnitId?: number;
+};
+
+type CandidateUnit = {
+  id: number;
+  code: string;
+  name: string;
+  kind: StorageUnitKind;
+  internalVolumeL: number | null;
+  roomId: number;
+  roomCode: string;
+  roomName: string;
+  siteId: number;
+  siteName: string;
+};
+
+const VERDICT_RANK: Record<PreviewVerdict, number> = { no_findings: 0, already_flagged: 1, raises: 2 };
+const NEARNESS_RANK: Record<Nearness, number> = { same_room: 0, same_site: 1, other_site: 2 };
+
+/** Litres of a stored liquid: volumes as given, masses through the liquid density (kg/m³ is g/L); null when the density is unknown. */
+export function liquidVolumeL(liquid: Pick<StoredLiquid, "amount" | "amountUnit" | "content">): number | null {
+  if (liquid.amountUnit === "mL") return liquid.amount / 1000;
+  if (liquid.amountUnit === "L") return liquid.amount;
+  const density = liquid.content.kind === "substance" ? liquid.content.substance.liquidDensityKgPerM3 : liquid.content.mixture.liquidDensityKgPerM3;
+  if (density == null || !(density > 0)) return null;
+  const grams = liquid.amountUnit === "g" ? liquid.amount : liquid.amount * 1000;
+  return grams / density;
+}
+
+/** The live storage units people may choose for a container: the live units of live rooms at live sites (as the container form lists them). */
+function liveUnits(db: DbOrTx, siteId: number | null | undefined): CandidateUnit[] {
+  return db
+    .select({
+      id: storageUnits.id,
+      code: storageUnits.code,
+      name: storageUnits.name,
+      kind: storageUnits.kind,
+      internalVolumeL: storageUnits.internalVolumeL,
+      roomId: rooms.id,
+      roomCode: rooms.code,
+      roomName: rooms.name,
+      siteId: sites.id,
+      siteName: sites.name,
+    })
+    .from(storageUnits)
+    .innerJoin(rooms, eq(rooms.id, storageUnits.roomId))
+    .innerJoin(sites, eq(sites.id, rooms.siteId))
+    .where(and(isNull(storageUnits.retiredAt), isNull(rooms.retiredAt), isNull(sites.retiredAt), siteId != null ? eq(sites.id, siteId) : undefined))
+    .orderBy(asc(sites.name), asc(rooms.code), asc(storageUnits.code))
+    .all();
+}
+
+type StandingRow = {
+  id: number;
+  fingerprint: string;
+  severity: Severity;
+  title: string;
+  ratio: number | null;
+  roomId: number | null;
+  storageUnitId: number | null;
+  substanceId: number | null;
+  mixtureId: number | null;
+};
+
+/**
+ * The findings standing at these units and among these rooms' own, that may concern the content:
+ * about one of its substances, about a mixture, or about a group (open containers, a limit, the
+ * cryogen inventory) — the classifier then decides. One query through the location indexes.
+ */
+function standingAt(db: DbOrTx, unitIds: number[], roomIds: number[], substanceIds: number[]): StandingRow[] {
+  if (unitIds.length === 0 && roomIds.length === 0) return [];
+  const statuses = JSON.stringify(STANDING_STATUSES);
+  return preparedOn(
+    db,
+    `select id, fingerprint, severity, title, ratio, room_id as roomId, storage_unit_id as storageUnitId, substance_id as substanceId, mixture_id as mixtureId
+       from findings
+      where status in (select value from json_each(?)) and condition_holds = 1
+        and (storage_unit_id in (select value from json_each(?)) or (storage_unit_id is null and room_id in (select value from json_each(?))))
+        and (substance_id in (select value from json_each(?)) or mixture_id is not null or fingerprint not like '%|substance:%')`,
+  ).all(statuses, JSON.stringify(unitIds), JSON.stringify(roomIds), JSON.stringify(substanceIds)) as StandingRow[];
+}
+
+const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
+
+/** Orders two places: the verdict, the worst severity, the time to danger (longest first, none best), nearness, the highest ratio, then by code. */
+export function comparePlaces(a: StoragePlanItem, b: StoragePlanItem): number {
+  const danger = (item: StoragePlanItem) => item.timeToDanger?.minutes ?? Number.POSITIVE_INFINITY;
+  const severity = (item: StoragePlanItem) => (item.worstSeverity ? severityRank(item.worstSeverity) : -1);
+  return (
+    VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] ||
+    severity(a) - severity(b) ||
+    (danger(a) === danger(b) ? 0 : danger(a) > danger(b) ? -1 : 1) ||
+    NEARNESS_RANK[a.nearness] - NEARNESS_RANK[b.nearness] ||
+    (a.maxRatio ?? -1) - (b.maxRatio ?? -1) ||
+    a.siteName.localeCompare(b.siteName) ||
+    a.roomCode.localeCompare(b.roomCode) ||
+    a.code.localeCompare(b.code)
+  );
+}
+
+function reasonFor(verdict: PreviewVerdict, names: string[], raised: { title: string }[], kept: { title: string }[]): string {
+  if (verdict === "no_findings") return "Nothing would be raised here.";
+  if (verdict === "already_flagged") return `Already flagged here: ${titleInSentence(kept[0].title, names)}; storing it keeps it so.`;
+  const more = raised.length - 1;
+  return `Would raise: ${titleInSentence(raised[0].title, names)}${more > 0 ? ` (and ${formatNumber(more)} more)` : ""}.`;
+}
+
+/**
+ * The storage planner: every live unit where the content could go, assessed with it added (a
+ * stored container taken out of its place), ranked best first. Reuses the rules through the same
+ * snapshots as the what-if, built once for every candidate room: each unit is assessed as it is and
+ * with the content, each room's own rules once as they are and once with the content (which unit
+ * of the room holds it does not change the room's contents). Units whose internal volume cannot
+ * hold what is there plus the new amount are left out.
+ */
+export function planPlaces(db: DbOrTx, content: PlannedContent, options: PlanOptions = {}): StoragePlanResult & { compared?: StoragePlanItem } {
+  const nowMs = options.nowMs ?? Date.now();
+  const limit = options.limit ?? STORAGE_PLAN_DEFAULT_LIMIT;
+  const settings: AssessmentSettings = loadAssessmentSettings(db);
+  const library = new SnapshotLibrary(db);
+  library.load(content.substanceId != null ? [content.substanceId] : [], content.mixtureId != null ? [content.mixtureId] : []);
+  const stored: StoredContent | null = library.content(content.substanceId, content.mixtureId);
+  if (!stored) return { items: [], considered: 0, tooSmall: 0 };
+
+  const excluded = new Set(options.excludeUnitIds ?? []);
+  const units = liveUnits(db, options.siteId).filter((u) => !excluded.has(u.id) || u.id === options.compareUnitId);
+  const nearRoom = options.nearRoomId != null ? db.select({ id: rooms.id, siteId: rooms.siteId }).from(rooms).where(eq(rooms.id, options.nearRoomId)).get() : undefined;
+
+  const extra: StoredLiquid | null =
+    content.state === "empty" || content.state === "disposed"
+      ? null
+      : { containerId: content.replacesContainerId ?? 0, label: content.label, content: stored, amount: content.amount, amountUnit: content.amountUnit, state: content.state ?? "sealed" };
+  const newVolumeL = liquidVolumeL({ amount: content.amount, amountUnit: content.amountUnit, content: stored });
+  const replaced = content.replacesContainerId;
+  const withExtra = (contents: readonly StoredLiquid[]) => [...(replaced == null ? contents : contents.filter((c) => c.containerId !== replaced)), ...(extra ? [extra] : [])];
+
+  const snapshots = buildSnapshots(db, [...new Set(units.map((u) => u.roomId))], nowMs, library);
+  const unitSnapshots = new Map<number, Extract<LocationSnapshot, { kind: "unit" }>>();
+  const roomSnapshots = new Map<number, Extract<LocationSnapshot, { kind: "room" }>>();
+  for (const snapshot of snapshots) {
+    if (snapshot.kind === "unit") unitSnapshots.set(snapshot.unit.id, snapshot);
+    else roomSnapshots.set(snapshot.room.id, snapshot);
+  }
+
+  // Capacity: the liquid already in the unit plus the new amount must fit its internal volume.
+  let tooSmall = 0;
+  const fitting = units.filter((u) => {
+    if (u.id === options.compareUnitId) return true;
+    const snapshot = unitSnapshots.get(u.id);
+    if (!snapshot) return false;
+    if (u.internalVolumeL == null || newVolumeL == null) return true;
+    const holdsL = snapshot.contents.reduce((sum, c) => (c.containerId === replaced ? sum : sum + (liquidVolumeL(c) ?? 0)), 0);
+    if (holdsL + newVolumeL <= u.internalVolumeL * (1 + 1e-9)) return true;
+    tooSmall += 1;
+    return false;
+  });
+  const considered = units.filter((u) => u.id !== options.compareUnitId || !excluded.has(u.id)).length;
+
+  const cache = createAssessmentCache();
+  const assess = (snapshot: LocationSnapshot): FindingCandidate[] => assessLocation(snapshot, settings, { cache }).map(toStoredCandidate);
+  const byFingerprint = (list: FindingCandidate[]) => new Map(list.map((c) => [c.fingerprint, c]));
+  type Outcome = { before: Map<string, FindingCandidate>; after: Map<string, FindingCandidate>; raised: FindingCandidate[] };
+  const compare = (snapshot: LocationSnapshot, standingThere: boolean): Outcome => {
+    const afterList = assess({ ...snapshot, contents: withExtra(snapshot.contents) });
+    // Without findings after the change, nor any standing there about it, the place is clear as it is: no need to assess it without the change.
+    const before = afterList.length || standingThere ? byFingerprint(assess(snapshot)) : new Map<string, FindingCandidate>();
+    const raised = afterList.filter((c) => {
+      const old = before.get(c.fingerprint);
+      return !old || worse(c, old);
+    });
+    return { before, after: byFingerprint(afterList), raised };
+  };
+  const roomOutcomes = new Map<number, Outcome>();
+  const roomOutcome = (roomId: number) => {
+    let outcome = roomOutcomes.get(roomId);
+    if (!outcome) {
+      const snapshot = roomSnapshots.get(roomId);
+      outcome = snapshot ? compare(snapshot, standingByRoom.has(roomId)) : { before: new Map(), after: new Map(), raised: [] };
+      roomOutcomes.set(roomId, outcome);
+    }
+    return outcome;
+  };
+
+  // The findings standing there about it, from the register (as the what-if's verdict reads them).
+  const substanceIds = stored.kind === "substance" ? [stored.substance.id] : stored.mixture.components.map((c) => c.substance.id);
+  const standing = standingAt(db, fitting.map((u) => u.id), [...new Set(fitting.map((u) => u.roomId))], substanceIds);
+  const aboutIt = relatedTo(stored, content.mixtureId, settings, componentsOfMixtures(db, [...new Set(standing.flatMap((f) => (f.mixtureId == null ? [] : [f.mixtureId])))]));
+  const standingByUnit = new Map<number, StandingRow[]>();
+  const standingByRoom = new Map<number, StandingRow[]>();
+  for (const f of standing) {
+    if (!aboutIt(f)) continue;
+    const [map, key] = f.storageUnitId != null ? [standingByUnit, f.storageUnitId] : [standingByRoom, f.roomId!];
+    const list = map.get(key) ?? [];
+    list.push(f);
+    map.set(key, list);
+  }
+
+  const names = [stored.kind === "substance" ? stored.substance.name : stored.mixture.name];
+  const items: StoragePlanItem[] = [];
+  let compared: StoragePlanItem | undefined;
+  for (const u of fitting) {
+    const snapshot = unitSnapshots.get(u.id)!;
+    const unitOutcome = compare(snapshot, standingByUnit.has(u.id));
+    const room = roomOutcome(u.roomId);
+    const raised = [...unitOutcome.raised, ...room.raised].sort(byWorst);
+    // Standing findings about it that stay (a finding the change would clear does not count).
+    const kept = [
+      ...(standingByUnit.get(u.id) ?? []).map((f) => ({ f, outcome: unitOutcome })),
+      ...(standingByRoom.get(u.roomId) ?? []).map((f) => ({ f, outcome: room })),
+    ].flatMap(({ f, outcome }) => {
+      const now = outcome.after.get(f.fingerprint);
+      if (!now && outcome.before.has(f.fingerprint)) return [];
+      return [{ title: f.title, severity: now?.severity ?? f.severity, ratio: now ? now.ratio : f.ratio, timeToDanger: now?.timeToDanger ?? null, fingerprint: f.fingerprint }];
+    });
+    const raisedPrints = new Set(raised.map((c) => c.fingerprint));
+    const concerned = [...raised.map((c) => ({ severity: c.severity, ratio: c.ratio, timeToDanger: c.timeToDanger ?? null, scenario: c.scenario })), ...kept.filter((k) => !raisedPrints.has(k.fingerprint)).map((k) => ({ ...k, scenario: k.fingerprint.split("|")[3] }))];
+    const verdict: PreviewVerdict = raised.length > 0 ? "raises" : kept.length > 0 ? "already_flagged" : "no_findings";
+    const worst = [...concerned].sort(byWorst)[0];
+    const ratios = concerned.flatMap((c) => (c.ratio == null || !Number.isFinite(c.ratio) ? [] : [c.ratio]));
+    const dangers = concerned.flatMap((c) => (c.scenario === "control_lost" && c.timeToDanger ? [c.timeToDanger] : []));
+    const nearness: Nearness = nearRoom && u.roomId === nearRoom.id ? "same_room" : nearRoom && u.siteId === nearRoom.siteId ? "same_site" : "other_site";
+    const item: StoragePlanItem = {
+      storageUnitId: u.id,
+      code: u.code,
+      name: u.name,
+      unitKind: u.kind,
+      roomId: u.roomId,
+      roomCode: u.roomCode,
+      roomName: u.roomName,
+      siteId: u.siteId,
+      siteName: u.siteName,
+      verdict,
+      worstSeverity: worst?.severity ?? null,
+      maxRatio: ratios.length ? Math.max(...ratios) : null,
+      timeToDanger: dangers.length ? dangers.reduce((a, b) => (b.minutes < a.minutes ? b : a)) : null,
+      raised: raised.length,
+      nearness,
+      reason: reasonFor(verdict, names, raised, [...kept].sort(byWorst)),
+    };
+    if (u.id === options.compareUnitId) compared = item;
+    if (!excluded.has(u.id)) items.push(item);
+  }
+  items.sort(comparePlaces);
+  const result: StoragePlanResult & { compared?: StoragePlanItem } = { items: items.slice(0, limit), considered, tooSmall, ...(compared ? { compared } : {}) };
+  if (items.length === 0 && considered > 0 && tooSmall === considered) {
+    result.message = `No storage unit has room for ${formatNumber(content.amount)} ${content.amountUnit} more: every live unit's internal volume is already too full for it.`;
+  }
+  return result;
+}
+
+/**
+ * GET /api/v1/storage-plan: where this could go instead, best first. A stored container
+ * (`containerId`) is planned as a move of that container — only by someone who may change it
+ * (researchers: their own); its own unit is left out.
+ */
+export function planStorage(input: StoragePlanInput, user: SessionUser, nowMs = Date.now()): StoragePlanResult {
+  const db = getDb();
+  if (input.substanceId != null && !db.select({ id: substances.id }).from(substances).where(eq(substances.id, input.substanceId)).get()) {
+    throw new NotFoundError(`No substance with id ${input.substanceId}.`);
+  }
+  if (input.mixtureId != null && !db.select({ id: mixtures.id }).from(mixtures).where(eq(mixtures.id, input.mixtureId)).get()) {
+    throw new NotFoundError(`No mixture with id ${input.mixtureId}.`);
+  }
+  if (input.siteId != null && !db.select({ id: sites.id }).from(sites).where(eq(sites.id, input.siteId)).get()) throw new NotFoundError(`No site with id ${input.siteId}.`);
+  if (input.roomId != null && !db.select({ id: rooms.id }).from(rooms).where(eq(rooms.id, input.roomId)).get()) throw new NotFoundError(`No room with id ${input.roomId}.`);
+  const container =
+    input.containerId != null
+      ? db
+          .select({ id: containers.id, label: containers.label, ownerId: containers.ownerId, state: containers.state, storageUnitId: containers.storageUnitId, roomId: storageUnits.roomId })
+          .from(containers)
+          .innerJoin(storageUnits, eq(storageUnits.id, containers.storageUnitId))
+          .where(eq(containers.id, input.containerId))
+          .get()
+      : undefined;
+  if (input.containerId != null) {
+    if (!container) throw new NotFoundError(`No container with id ${input.containerId}.`);
+    // The same rule as moving it: the role must change containers, "own" only one's own.
+    if (scopeFor(user.role, "containers.write") === "own" && container.ownerId !== user.id) throw new ForbiddenError("You can plan moves of your own containers only.");
+    if (container.state === "disposed") throw new ConflictError("This container was disposed of; its record is kept and cannot be moved.");
+  }
+  return planPlaces(
+    db,
+    {
+      substanceId: input.substanceId ?? null,
+      mixtureId: input.mixtureId ?? null,
+      amount: input.amount,
+      amountUnit: input.amountUnit,
+      state: container?.state,
+      label: container?.label ?? "(new container)",
+      replacesContainerId: container?.id,
+    },
+    { nearRoomId: input.roomId ?? container?.roomId ?? null, siteId: input.siteId, excludeUnitIds: container ? [container.storageUnitId] : [], limit: input.limit ?? STORAGE_PLAN_DEFAULT_LIMIT, nowMs },
+  );
+}
