@@ -10,7 +10,11 @@ export type Relatedness = "substance" | "group";
 
 /** The subject part of a fingerprint ("rule|location|subject|scenario"), e.g. "substance:7", "open-containers", "limit:3". */
 export function subjectOf(fingerprint: string): string {
-  return fingerprint.split("|")[2] ?? "";
+  const first = fingerprint.indexOf("|");
+  const second = first < 0 ? -1 : fingerprint.indexOf("|", first + 1);
+  if (second < 0) return "";
+  const third = fingerprint.indexOf("|", second + 1);
+  return fingerprint.slice(second + 1, third < 0 ? undefined : third);
 }
 
 /** The substances a stored content is made of (one, or a mixture's components). */

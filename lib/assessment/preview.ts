@@ -15,6 +15,7 @@ import { better, relatedTo, worse } from "./preview-related";
 import { previewVerdict, verdictSentence, type CurrentOutcome, type PreviewMode, type PreviewVerdict } from "./preview-verdict";
 import { assessLocation, createAssessmentCache, severityRank } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
+import { planPlaces, saferThan, type StoragePlanItem } from "./storage-plan";
 
 const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
 
@@ -95,6 +96,8 @@ export type PreviewResult = {
   verdictSentence: string;
   /** A move's bonus: findings standing at the container's old place that the move would clear, worst first. */
   cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
+  /** Safer places for it, best first (at most five; the storage planner's items): only when the verdict is not "no_findings", else empty. */
+  alternatives: StoragePlanItem[];
 };
 
 const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
@@ -228,6 +231,7 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
     cleared: clearedRows,
     sourceUnitCode: source?.code ?? null,
   };
+  const verdict = previewVerdict(facts);
   return {
     storageUnitId: unit.id,
     findings: withPrevious.map(({ c, previous }) => ({
@@ -248,8 +252,29 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
       trace: c.trace,
     })),
     current,
-    verdict: previewVerdict(facts),
+    verdict,
     verdictSentence: verdictSentence(facts),
     cleared: clearedRows.map((r) => ({ id: r.id, severity: r.severity, title: r.title, canOpen: visible.has(r.id) })),
+    alternatives: verdict === "no_findings" ? [] : saferPlaces(db, { ...content, label: stored?.label ?? "(new container)", replacesContainerId: stored?.id }, unit, source, nowMs),
   };
+}
+
+/** How many safer places the what-if offers. */
+const ALTERNATIVES = 5;
+
+/**
+ * The storage planner's best places for what the what-if looks at, other than the unit it looks at
+ * and the container's own place, that are safer than that unit: near the container's place (or
+ * the unit's room for a new container).
+ */
+function saferPlaces(
+  db: ReturnType<typeof getDb>,
+  content: Parameters<typeof planPlaces>[1],
+  unit: { id: number; roomId: number },
+  source: { id: number; roomId: number } | undefined,
+  nowMs: number,
+): StoragePlanItem[] {
+  const plan = planPlaces(db, content, { nearRoomId: source?.roomId ?? unit.roomId, excludeUnitIds: [unit.id, ...(source ? [source.id] : [])], compareUnitId: unit.id, limit: 50, nowMs });
+  const here = plan.compared;
+  return plan.items.filter((item) => !here || saferThan(item, here)).slice(0, ALTERNATIVES);
 }

@@ -8,13 +8,13 @@ import { scopeFor } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { ConflictError, ForbiddenError, NotFoundError } from "@/lib/errors";
 import { formatNumber } from "@/lib/format/numbers";
-import type { FindingCandidate, TimeToDanger } from "@/lib/register/store";
+import type { TimeToDanger } from "@/lib/register/store";
 import { optionalId, optionalNumber, requiredNumber } from "@/lib/validation/fields";
 import { componentsOfMixtures, STANDING_STATUSES } from "./preview-current";
-import { relatedTo, worse } from "./preview-related";
+import { relatedTo, subjectOf, worse } from "./preview-related";
 import { titleInSentence, type PreviewVerdict } from "./preview-verdict";
-import { assessLocation, createAssessmentCache, severityRank, type AssessmentSettings, type LocationSnapshot, type StoredContent, type StoredLiquid } from "./rules";
-import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
+import { assessLocation, createAssessmentCache, severityRank, type AssessmentSettings, type CandidateFinding, type LocationSnapshot, type StoredContent, type StoredLiquid } from "./rules";
+import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary } from "./service";
 
 const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
 
@@ -151,34 +151,23 @@ function liveUnits(db: DbOrTx, siteId: number | null | undefined): CandidateUnit
     .all();
 }
 
-type StandingRow = {
-  id: number;
-  fingerprint: string;
-  severity: Severity;
-  title: string;
-  ratio: number | null;
-  roomId: number | null;
-  storageUnitId: number | null;
-  substanceId: number | null;
-  mixtureId: number | null;
-};
+type StandingRow = { severity: Severity; ratio: number | null };
 
-/**
- * The findings standing at these units and among these rooms' own, that may concern the content:
- * about one of its substances, about a mixture, or about a group (open containers, a limit, the
- * cryogen inventory) — the classifier then decides. One query through the location indexes.
- */
-function standingAt(db: DbOrTx, unitIds: number[], roomIds: number[], substanceIds: number[]): StandingRow[] {
-  if (unitIds.length === 0 && roomIds.length === 0) return [];
-  const statuses = JSON.stringify(STANDING_STATUSES);
-  return preparedOn(
+/** The register's standing findings (condition holding, not resolved) under these fingerprints, through its unique index. */
+function standingByFingerprint(db: DbOrTx, fingerprints: string[]): Map<string, StandingRow> {
+  if (fingerprints.length === 0) return new Map();
+  const rows = preparedOn(
     db,
-    `select id, fingerprint, severity, title, ratio, room_id as roomId, storage_unit_id as storageUnitId, substance_id as substanceId, mixture_id as mixtureId
-       from findings
-      where status in (select value from json_each(?)) and condition_holds = 1
-        and (storage_unit_id in (select value from json_each(?)) or (storage_unit_id is null and room_id in (select value from json_each(?))))
-        and (substance_id in (select value from json_each(?)) or mixture_id is not null or fingerprint not like '%|substance:%')`,
-  ).all(statuses, JSON.stringify(unitIds), JSON.stringify(roomIds), JSON.stringify(substanceIds)) as StandingRow[];
+    `select fingerprint, severity, ratio from findings
+      where fingerprint in (select value from json_each(?)) and status in (select value from json_each(?)) and condition_holds = 1`,
+  ).all(JSON.stringify([...new Set(fingerprints)]), JSON.stringify(STANDING_STATUSES)) as (StandingRow & { fingerprint: string })[];
+  return new Map(rows.map((row) => [row.fingerprint, row]));
+}
+
+/** A control-lost finding's time to danger, when the rules give one. */
+function timeToDangerOf(c: CandidateFinding): TimeToDanger[] {
+  const value = (c as { timeToDanger?: TimeToDanger | null }).timeToDanger;
+  return value ? [value] : [];
 }
 
 const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
@@ -199,7 +188,20 @@ export function comparePlaces(a: StoragePlanItem, b: StoragePlanItem): number {
   );
 }
 
-function reasonFor(verdict: PreviewVerdict, names: string[], raised: { title: string }[], kept: { title: string }[]): string {
+/**
+ * Whether a place is safer than another: a better verdict, else a lower worst severity, else a
+ * longer time to danger, else a highest ratio lower by more than 1 %. Nearness does not count.
+ */
+export function saferThan(a: StoragePlanItem, b: StoragePlanItem): boolean {
+  const danger = (item: StoragePlanItem) => item.timeToDanger?.minutes ?? Number.POSITIVE_INFINITY;
+  const severity = (item: StoragePlanItem) => (item.worstSeverity ? severityRank(item.worstSeverity) : -1);
+  if (VERDICT_RANK[a.verdict] !== VERDICT_RANK[b.verdict]) return VERDICT_RANK[a.verdict] < VERDICT_RANK[b.verdict];
+  if (severity(a) !== severity(b)) return severity(a) < severity(b);
+  if (danger(a) !== danger(b)) return danger(a) > danger(b);
+  return a.maxRatio != null && b.maxRatio != null && a.maxRatio * 1.01 < b.maxRatio;
+}
+
+function reasonFor(verdict: PreviewVerdict, names: string[], raised: readonly { title: string }[], kept: readonly { title: string }[]): string {
   if (verdict === "no_findings") return "Nothing would be raised here.";
   if (verdict === "already_flagged") return `Already flagged here: ${titleInSentence(kept[0].title, names)}; storing it keeps it so.`;
   const more = raised.length - 1;
@@ -208,11 +210,14 @@ function reasonFor(verdict: PreviewVerdict, names: string[], raised: { title: st
 
 /**
  * The storage planner: every live unit where the content could go, assessed with it added (a
- * stored container taken out of its place), ranked best first. Reuses the rules through the same
- * snapshots as the what-if, built once for every candidate room: each unit is assessed as it is and
- * with the content, each room's own rules once as they are and once with the content (which unit
- * of the room holds it does not change the room's contents). Units whose internal volume cannot
- * hold what is there plus the new amount are left out.
+ * stored container taken out of its place), ranked best first. The rules run through the same
+ * snapshots as the what-if, built once for every candidate room: each unit once with the content,
+ * and each room's own rules once with it (which unit of the room holds it does not change the
+ * room's contents). What they find about it is compared with the register's standing findings
+ * under the same fingerprints — the places as they are now, which every change re-assesses — in
+ * one query: a finding not standing, or worse than it stands, is raised; one standing and no worse
+ * keeps the place flagged. Units whose internal volume cannot hold what is there plus the new
+ * amount are left out before any rule runs.
  */
 export function planPlaces(db: DbOrTx, content: PlannedContent, options: PlanOptions = {}): StoragePlanResult & { compared?: StoragePlanItem } {
   const nowMs = options.nowMs ?? Date.now();
@@ -258,67 +263,54 @@ export function planPlaces(db: DbOrTx, content: PlannedContent, options: PlanOpt
   const considered = units.filter((u) => u.id !== options.compareUnitId || !excluded.has(u.id)).length;
 
   const cache = createAssessmentCache();
-  const assess = (snapshot: LocationSnapshot): FindingCandidate[] => assessLocation(snapshot, settings, { cache }).map(toStoredCandidate);
-  const byFingerprint = (list: FindingCandidate[]) => new Map(list.map((c) => [c.fingerprint, c]));
-  type Outcome = { before: Map<string, FindingCandidate>; after: Map<string, FindingCandidate>; raised: FindingCandidate[] };
-  const compare = (snapshot: LocationSnapshot, standingThere: boolean): Outcome => {
-    const afterList = assess({ ...snapshot, contents: withExtra(snapshot.contents) });
-    // Without findings after the change, nor any standing there about it, the place is clear as it is: no need to assess it without the change.
-    const before = afterList.length || standingThere ? byFingerprint(assess(snapshot)) : new Map<string, FindingCandidate>();
-    const raised = afterList.filter((c) => {
-      const old = before.get(c.fingerprint);
-      return !old || worse(c, old);
-    });
-    return { before, after: byFingerprint(afterList), raised };
+  const names = [stored.kind === "substance" ? stored.substance.name : stored.mixture.name];
+  const substanceIds = new Set(stored.kind === "substance" ? [stored.substance.id] : stored.mixture.components.map((c) => c.substance.id));
+  const extraId = extra?.containerId ?? -1;
+  /**
+   * The findings that storing it can raise or change: those about it or a group it takes part in,
+   * and those about the place itself (missing data of a unit that held no liquid before). A finding
+   * about another substance, mixture or container stays as it is whatever is added beside it.
+   */
+  const mayConcern = (c: CandidateFinding) => {
+    const subject = subjectOf(c.fingerprint).split("/")[0];
+    if (subject.startsWith("substance:")) return substanceIds.has(Number(subject.slice("substance:".length)));
+    if (subject.startsWith("mixture:")) return Number(subject.slice("mixture:".length)) === content.mixtureId;
+    if (subject.startsWith("container:")) return Number(subject.slice("container:".length)) === extraId;
+    return true;
   };
-  const roomOutcomes = new Map<number, Outcome>();
-  const roomOutcome = (roomId: number) => {
-    let outcome = roomOutcomes.get(roomId);
-    if (!outcome) {
-      const snapshot = roomSnapshots.get(roomId);
-      outcome = snapshot ? compare(snapshot, standingByRoom.has(roomId)) : { before: new Map(), after: new Map(), raised: [] };
-      roomOutcomes.set(roomId, outcome);
+  const afterAt = (snapshot: LocationSnapshot): CandidateFinding[] => assessLocation({ ...snapshot, contents: withExtra(snapshot.contents) }, settings, { cache }).filter(mayConcern);
+  const roomAfter = new Map<number, CandidateFinding[]>();
+  const unitAfter = new Map<number, CandidateFinding[]>();
+  for (const u of fitting) {
+    unitAfter.set(u.id, afterAt(unitSnapshots.get(u.id)!));
+    if (!roomAfter.has(u.roomId)) {
+      const room = roomSnapshots.get(u.roomId);
+      roomAfter.set(u.roomId, room ? afterAt(room) : []);
     }
-    return outcome;
-  };
-
-  // The findings standing there about it, from the register (as the what-if's verdict reads them).
-  const substanceIds = stored.kind === "substance" ? [stored.substance.id] : stored.mixture.components.map((c) => c.substance.id);
-  const standing = standingAt(db, fitting.map((u) => u.id), [...new Set(fitting.map((u) => u.roomId))], substanceIds);
-  const aboutIt = relatedTo(stored, content.mixtureId, settings, componentsOfMixtures(db, [...new Set(standing.flatMap((f) => (f.mixtureId == null ? [] : [f.mixtureId])))]));
-  const standingByUnit = new Map<number, StandingRow[]>();
-  const standingByRoom = new Map<number, StandingRow[]>();
-  for (const f of standing) {
-    if (!aboutIt(f)) continue;
-    const [map, key] = f.storageUnitId != null ? [standingByUnit, f.storageUnitId] : [standingByRoom, f.roomId!];
-    const list = map.get(key) ?? [];
-    list.push(f);
-    map.set(key, list);
   }
 
-  const names = [stored.kind === "substance" ? stored.substance.name : stored.mixture.name];
+  // What stands in the register under the same fingerprints: the place as it is now, which every change re-assesses.
+  const all = [...unitAfter.values(), ...roomAfter.values()].flat();
+  const mixturesSeen = [...new Set(all.flatMap((c) => (c.mixtureId == null ? [] : [c.mixtureId])))];
+  const aboutIt = relatedTo(stored, content.mixtureId, settings, componentsOfMixtures(db, mixturesSeen));
+  const standing = standingByFingerprint(db, all.map((c) => c.fingerprint));
+
   const items: StoragePlanItem[] = [];
   let compared: StoragePlanItem | undefined;
   for (const u of fitting) {
-    const snapshot = unitSnapshots.get(u.id)!;
-    const unitOutcome = compare(snapshot, standingByUnit.has(u.id));
-    const room = roomOutcome(u.roomId);
-    const raised = [...unitOutcome.raised, ...room.raised].sort(byWorst);
-    // Standing findings about it that stay (a finding the change would clear does not count).
-    const kept = [
-      ...(standingByUnit.get(u.id) ?? []).map((f) => ({ f, outcome: unitOutcome })),
-      ...(standingByRoom.get(u.roomId) ?? []).map((f) => ({ f, outcome: room })),
-    ].flatMap(({ f, outcome }) => {
-      const now = outcome.after.get(f.fingerprint);
-      if (!now && outcome.before.has(f.fingerprint)) return [];
-      return [{ title: f.title, severity: now?.severity ?? f.severity, ratio: now ? now.ratio : f.ratio, timeToDanger: now?.timeToDanger ?? null, fingerprint: f.fingerprint }];
-    });
-    const raisedPrints = new Set(raised.map((c) => c.fingerprint));
-    const concerned = [...raised.map((c) => ({ severity: c.severity, ratio: c.ratio, timeToDanger: c.timeToDanger ?? null, scenario: c.scenario })), ...kept.filter((k) => !raisedPrints.has(k.fingerprint)).map((k) => ({ ...k, scenario: k.fingerprint.split("|")[3] }))];
+    const raised: CandidateFinding[] = [];
+    const kept: CandidateFinding[] = [];
+    for (const c of [...unitAfter.get(u.id)!, ...roomAfter.get(u.roomId)!]) {
+      const now = standing.get(c.fingerprint);
+      if (!now || worse(c, now)) raised.push(c);
+      else if (aboutIt(c)) kept.push(c);
+    }
+    raised.sort(byWorst);
+    kept.sort(byWorst);
+    const concerned = [...raised, ...kept];
     const verdict: PreviewVerdict = raised.length > 0 ? "raises" : kept.length > 0 ? "already_flagged" : "no_findings";
-    const worst = [...concerned].sort(byWorst)[0];
     const ratios = concerned.flatMap((c) => (c.ratio == null || !Number.isFinite(c.ratio) ? [] : [c.ratio]));
-    const dangers = concerned.flatMap((c) => (c.scenario === "control_lost" && c.timeToDanger ? [c.timeToDanger] : []));
+    const dangers = concerned.flatMap((c) => (c.scenario === "control_lost" ? timeToDangerOf(c) : []));
     const nearness: Nearness = nearRoom && u.roomId === nearRoom.id ? "same_room" : nearRoom && u.siteId === nearRoom.siteId ? "same_site" : "other_site";
     const item: StoragePlanItem = {
       storageUnitId: u.id,
@@ -331,12 +323,12 @@ export function planPlaces(db: DbOrTx, content: PlannedContent, options: PlanOpt
       siteId: u.siteId,
       siteName: u.siteName,
       verdict,
-      worstSeverity: worst?.severity ?? null,
+      worstSeverity: [...concerned].sort(byWorst)[0]?.severity ?? null,
       maxRatio: ratios.length ? Math.max(...ratios) : null,
       timeToDanger: dangers.length ? dangers.reduce((a, b) => (b.minutes < a.minutes ? b : a)) : null,
       raised: raised.length,
       nearness,
-      reason: reasonFor(verdict, names, raised, [...kept].sort(byWorst)),
+      reason: reasonFor(verdict, names, raised, kept),
     };
     if (u.id === options.compareUnitId) compared = item;
     if (!excluded.has(u.id)) items.push(item);
