@@ -31,13 +31,15 @@ function groupUnits(units: UnitOption[]) {
  * there, what is already flagged there about its contents, what leaves the old place), then
  * confirm. A modal dialog: Escape or Cancel closes it, focus returns to the button that opened it.
  */
-export function MoveDialog({ container, units }: { container: MovedContainer; units: UnitOption[] }) {
+export function MoveDialog({ container, units, initialTarget }: { container: MovedContainer; units: UnitOption[]; initialTarget?: number }) {
   const dialogRef = useRef<HTMLDialogElement>(null);
   const openerRef = useRef<HTMLButtonElement>(null);
   const titleId = useId();
   const selectId = useId();
-  const [open, setOpen] = useState(false);
-  const [target, setTarget] = useState("");
+  // Opened from a suggestion (?moveTo=): the dialog opens with that unit chosen; nothing moves until the person confirms.
+  const suggested = initialTarget != null && initialTarget !== container.storageUnitId && units.some((u) => u.id === initialTarget) ? initialTarget : null;
+  const [open, setOpen] = useState(suggested != null);
+  const [target, setTarget] = useState(suggested != null ? String(suggested) : "");
   const [state, dispatch, pending] = useActionState(moveContainerAction, undefined);
   // The action's answer before this opening of the dialog: only a newer one is shown in it.
   const [stateAtOpen, setStateAtOpen] = useState<FormState | undefined>(undefined);
@@ -46,6 +48,10 @@ export function MoveDialog({ container, units }: { container: MovedContainer; un
   const request = open && Number.isInteger(targetId) && targetId > 0 ? { storageUnitId: targetId, containerId: container.id } : null;
   const whatIf = useWhatIf(request);
   const targetUnit = units.find((u) => u.id === targetId);
+
+  useEffect(() => {
+    if (suggested != null) dialogRef.current?.showModal();
+  }, [suggested]);
 
   // A finished move closes the dialog and leaves its message on the page; an error stays in the dialog.
   useEffect(() => {
@@ -116,7 +122,12 @@ export function MoveDialog({ container, units }: { container: MovedContainer; un
           </div>
           <section aria-label="What the move would change" className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-4 py-3">
             <div aria-live="polite" aria-busy={whatIf.kind === "loading"} className="text-sm text-ink-700">
-              <WhatIfBody state={whatIf} idleText="Choose a storage unit to see what moving it there would raise." afterword="You can still move it; the register lists what is raised." />
+              <WhatIfBody
+                state={whatIf}
+                idleText="Choose a storage unit to see what moving it there would raise."
+                afterword="You can still move it; the register lists what is raised."
+                choose={{ onChoose: (unitId) => setTarget(String(unitId)) }}
+              />
             </div>
             <Caution />
           </section>
