@@ -189,23 +189,31 @@ export function comparePlaces(a: StoragePlanItem, b: StoragePlanItem): number {
 }
 
 /**
- * Whether a place is safer than another: a better verdict, else a lower worst severity, else a
+ * Whether a place is safer than another: a lower worst severity, else a better verdict, else a
  * longer time to danger, else a highest ratio lower by more than 1 %. Nearness does not count.
+ * Severity comes first here: where a container stands, moving it there again raises nothing new by
+ * definition, so its own place reads "already flagged" however bad it is.
  */
 export function saferThan(a: StoragePlanItem, b: StoragePlanItem): boolean {
   const danger = (item: StoragePlanItem) => item.timeToDanger?.minutes ?? Number.POSITIVE_INFINITY;
   const severity = (item: StoragePlanItem) => (item.worstSeverity ? severityRank(item.worstSeverity) : -1);
-  if (VERDICT_RANK[a.verdict] !== VERDICT_RANK[b.verdict]) return VERDICT_RANK[a.verdict] < VERDICT_RANK[b.verdict];
   if (severity(a) !== severity(b)) return severity(a) < severity(b);
+  if (VERDICT_RANK[a.verdict] !== VERDICT_RANK[b.verdict]) return VERDICT_RANK[a.verdict] < VERDICT_RANK[b.verdict];
   if (danger(a) !== danger(b)) return danger(a) > danger(b);
   return a.maxRatio != null && b.maxRatio != null && a.maxRatio * 1.01 < b.maxRatio;
 }
 
+/** A finding's title after a colon: the library's names lower-case as in the what-if's sentences, and "A 1 L spill…" as "a 1 L spill…". */
+function inSentence(title: string, names: string[]): string {
+  const text = titleInSentence(title, names);
+  return text.startsWith("A ") ? `a${text.slice(1)}` : text;
+}
+
 function reasonFor(verdict: PreviewVerdict, names: string[], raised: readonly { title: string }[], kept: readonly { title: string }[]): string {
   if (verdict === "no_findings") return "Nothing would be raised here.";
-  if (verdict === "already_flagged") return `Already flagged here: ${titleInSentence(kept[0].title, names)}; storing it keeps it so.`;
+  if (verdict === "already_flagged") return `Already flagged here: ${inSentence(kept[0].title, names)}; storing it keeps it so.`;
   const more = raised.length - 1;
-  return `Would raise: ${titleInSentence(raised[0].title, names)}${more > 0 ? ` (and ${formatNumber(more)} more)` : ""}.`;
+  return `Would raise: ${inSentence(raised[0].title, names)}${more > 0 ? ` (and ${formatNumber(more)} more)` : ""}.`;
 }
 
 /**

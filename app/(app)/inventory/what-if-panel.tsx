@@ -264,6 +264,8 @@ export function WhatIfVerdict({ data, afterword, choose }: { data: PreviewData; 
           <p className="text-ink-900">{data.verdictSentence}</p>
         </div>
       </div>
+      {/* Right under the verdict: where it could go instead, before the details of this place. */}
+      {data.alternatives?.length ? <SaferPlaces places={data.alternatives} onChoose={choose?.onChoose} hrefFor={choose?.hrefFor} /> : null}
       {raised.length > 0 ? (
         <div className="space-y-1.5">
           <h3 className="text-xs font-semibold tracking-wide text-ink-700 uppercase">New or worse</h3>
@@ -307,7 +309,6 @@ export function WhatIfVerdict({ data, afterword, choose }: { data: PreviewData; 
           </ul>
         </div>
       ) : null}
-      {data.alternatives?.length ? <SaferPlaces places={data.alternatives} onChoose={choose?.onChoose} hrefFor={choose?.hrefFor} /> : null}
       {afterword && data.verdict !== "no_findings" ? <p className="text-xs text-ink-600">{afterword}</p> : null}
     </div>
   );
