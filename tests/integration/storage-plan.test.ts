@@ -7,12 +7,13 @@
  * flammable-storage refrigerator FSR-1 is in room 2.115 of the same site).
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed/demo";
-import { rooms, sites, storageUnits, substances, users, type User } from "@/db/schema";
+import { containers, findings, rooms, sites, storageUnits, substances, users, type User } from "@/db/schema";
 import * as planRoute from "@/app/api/v1/storage-plan/route";
 import * as previewRoute from "@/app/api/v1/assessments/preview/route";
+import { moveSuggestionsForFinding } from "@/lib/assessment/move-suggestions";
 import { severityRank } from "@/lib/assessment/rules";
 import { containerCreateSchema } from "@/lib/inventory/schemas";
 import { createContainer } from "@/lib/inventory/service";
@@ -213,5 +214,30 @@ describe("POST /api/v1/assessments/preview: safer places", () => {
 
     const water = await preview(researcher, { storageUnitId: unitId("FC-3"), substanceId: substanceId(WATER), amount: 0.5, amountUnit: "L" });
     expect(water.body.data).toMatchObject({ verdict: "no_findings", alternatives: [] });
+  });
+});
+
+describe("the finding page's moves", () => {
+  it("offers the largest contributing containers a safer unit, to the people who may move them", async () => {
+    const finding = getDb()
+      .select()
+      .from(findings)
+      .where(and(eq(findings.storageUnitId, unitId("FR-1")), eq(findings.rule, "enclosure-lfl"), eq(findings.scenario, "control_lost"), eq(findings.substanceId, substanceId(ETHER))))
+      .get()!;
+    const ether = getDb().select().from(containers).where(and(eq(containers.storageUnitId, unitId("FR-1")), eq(containers.substanceId, substanceId(ETHER)))).all();
+    const ids = ether.map((c) => c.id);
+    const asUser = (user: User) => ({ id: user.id, email: user.email, name: user.name, role: user.role });
+    const before = counts();
+    const moves = moveSuggestionsForFinding(asUser(makeUser("safety_officer")), finding, ids);
+    // The demo's two diethyl ether bottles in FR-1, largest first (0.5 L sealed, 0.444 L opened); FR-1 is critical for them, FSR-1 high.
+    expect(moves.map((m) => m.label)).toEqual(["CV-00095", "CV-00094"]);
+    expect(moves[0]).toMatchObject({ place: { code: "FSR-1", roomCode: "2.115", worstSeverity: "high" }, summary: "already high there" });
+    expect(moves[0].href).toBe(`/inventory/${moves[0].containerId}?moveTo=${unitId("FSR-1")}`);
+    expect(moves.every((m) => m.place.worstSeverity !== "critical")).toBe(true);
+    // The owner may move them; another researcher and facilities staff get no suggestion.
+    expect(moveSuggestionsForFinding(asUser(researcher), finding, ids).map((m) => m.label)).toEqual(["CV-00095", "CV-00094"]);
+    expect(moveSuggestionsForFinding(asUser(makeUser("researcher")), finding, ids)).toEqual([]);
+    expect(moveSuggestionsForFinding(asUser(makeUser("facilities")), finding, ids)).toEqual([]);
+    expect(counts()).toBe(before);
   });
 });
