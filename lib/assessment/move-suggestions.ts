@@ -5,7 +5,7 @@ import { containers } from "@/db/schema";
 import { scopeFor } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { toBaseAmount } from "@/lib/inventory/schemas";
-import { planPlaces, saferThan, type StoragePlanItem } from "./storage-plan";
+import { saferPlacesThan, type StoragePlanItem } from "./storage-plan";
 
 /** A move the finding page offers: a contributing container and the best place for it that is safer than where it stands. */
 export type MoveSuggestion = {
@@ -46,13 +46,11 @@ export function moveSuggestionsForFinding(user: SessionUser, finding: { storageU
     .sort((a, b) => toBaseAmount(b.amount, b.amountUnit) - toBaseAmount(a.amount, a.amountUnit) || a.label.localeCompare(b.label))
     .slice(0, LARGEST);
   return rows.flatMap((c) => {
-    const plan = planPlaces(
+    const [place] = saferPlacesThan(
       db,
       { substanceId: c.substanceId, mixtureId: c.mixtureId, amount: c.amount, amountUnit: c.amountUnit, state: c.state, label: c.label, replacesContainerId: c.id },
-      { nearRoomId: finding.roomId, excludeUnitIds: [unitId], compareUnitId: unitId, limit: 50, nowMs },
+      { unitId, nearRoomId: finding.roomId, excludeUnitIds: [unitId], limit: 1, nowMs },
     );
-    const here = plan.compared;
-    const place = plan.items.find((item) => !here || saferThan(item, here));
     if (!place) return [];
     return [{ containerId: c.id, label: c.label, place, summary: placeSummary(place), href: `/inventory/${c.id}?moveTo=${place.storageUnitId}` }];
   });

@@ -15,7 +15,7 @@ import { better, relatedTo, worse } from "./preview-related";
 import { previewVerdict, verdictSentence, type CurrentOutcome, type PreviewMode, type PreviewVerdict } from "./preview-verdict";
 import { assessLocation, createAssessmentCache, severityRank } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
-import { planPlaces, saferThan, type StoragePlanItem } from "./storage-plan";
+import { saferPlacesThan, type PlannedContent, type StoragePlanItem } from "./storage-plan";
 
 const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
 
@@ -263,18 +263,16 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
 const ALTERNATIVES = 5;
 
 /**
- * The storage planner's best places for what the what-if looks at, other than the unit it looks at
- * and the container's own place, that are safer than that unit: near the container's place (or
- * the unit's room for a new container).
+ * The storage planner's best places for what the what-if looks at, safer than the unit it looks at,
+ * other than that unit and the container's own place: near the container's place (a new
+ * container: the unit's room), at that site first.
  */
 function saferPlaces(
   db: ReturnType<typeof getDb>,
-  content: Parameters<typeof planPlaces>[1],
+  content: PlannedContent,
   unit: { id: number; roomId: number },
   source: { id: number; roomId: number } | undefined,
   nowMs: number,
 ): StoragePlanItem[] {
-  const plan = planPlaces(db, content, { nearRoomId: source?.roomId ?? unit.roomId, excludeUnitIds: [unit.id, ...(source ? [source.id] : [])], compareUnitId: unit.id, limit: 50, nowMs });
-  const here = plan.compared;
-  return plan.items.filter((item) => !here || saferThan(item, here)).slice(0, ALTERNATIVES);
+  return saferPlacesThan(db, content, { unitId: unit.id, nearRoomId: source?.roomId ?? unit.roomId, excludeUnitIds: [unit.id, ...(source ? [source.id] : [])], limit: ALTERNATIVES, nowMs });
 }

@@ -350,6 +350,27 @@ export function planPlaces(db: DbOrTx, content: PlannedContent, options: PlanOpt
 }
 
 /**
+ * The places safer than the unit something is (or would be) in, best first: first among the units
+ * of the site of `nearRoomId` — nearby, and a few hundred units at most however large the
+ * organisation — and only when none there is safer, among all. For the what-if's alternatives and
+ * the finding page's moves.
+ */
+export function saferPlacesThan(
+  db: DbOrTx,
+  content: PlannedContent,
+  options: { unitId: number; nearRoomId: number | null; excludeUnitIds: readonly number[]; limit: number; nowMs?: number },
+): StoragePlanItem[] {
+  const site = options.nearRoomId != null ? db.select({ siteId: rooms.siteId }).from(rooms).where(eq(rooms.id, options.nearRoomId)).get() : undefined;
+  const search = (siteId: number | null) => {
+    const plan = planPlaces(db, content, { nearRoomId: options.nearRoomId, siteId, excludeUnitIds: options.excludeUnitIds, compareUnitId: options.unitId, limit: 50, nowMs: options.nowMs });
+    const here = plan.compared;
+    return plan.items.filter((item) => !here || saferThan(item, here));
+  };
+  const nearby = site ? search(site.siteId) : [];
+  return (nearby.length > 0 ? nearby : search(null)).slice(0, options.limit);
+}
+
+/**
  * GET /api/v1/storage-plan: where this could go instead, best first. A stored container
  * (`containerId`) is planned as a move of that container — only by someone who may change it
  * (researchers: their own); its own unit is left out.

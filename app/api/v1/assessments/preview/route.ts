@@ -23,7 +23,7 @@ import { limit } from "@/lib/rate-limit";
  *   canOpen }`), else empty;
  * - `alternatives`: when the verdict is not `"no_findings"`, up to five places safer than this unit,
  *   best first, in the storage planner's shape (GET /api/v1/storage-plan), near the container's
- *   place (a new container: this unit's room); else empty.
+ *   place (a new container: this unit's room), at that site first; else empty.
  */
 export const POST = route({ action: "assessments.preview", schema: assessmentPreviewSchema }, async ({ user, input }) => {
   await limit("whatIfUser", user.id);
