@@ -189,18 +189,16 @@ export function comparePlaces(a: StoragePlanItem, b: StoragePlanItem): number {
 }
 
 /**
- * Whether a place is safer than another: a lower worst severity, else a better verdict, else a
- * longer time to danger, else a highest ratio lower by more than 1 %. Nearness does not count.
- * Severity comes first here: where a container stands, moving it there again raises nothing new by
- * definition, so its own place reads "already flagged" however bad it is.
+ * Whether a place is safer than another: a lower worst severity (nothing flagged about it counts
+ * lowest), or the same with a longer time to danger. The verdict does not count here: where a
+ * container stands, storing it there again raises nothing new by definition, so its own place
+ * reads "already flagged" however bad it is; nor does nearness.
  */
 export function saferThan(a: StoragePlanItem, b: StoragePlanItem): boolean {
   const danger = (item: StoragePlanItem) => item.timeToDanger?.minutes ?? Number.POSITIVE_INFINITY;
   const severity = (item: StoragePlanItem) => (item.worstSeverity ? severityRank(item.worstSeverity) : -1);
   if (severity(a) !== severity(b)) return severity(a) < severity(b);
-  if (VERDICT_RANK[a.verdict] !== VERDICT_RANK[b.verdict]) return VERDICT_RANK[a.verdict] < VERDICT_RANK[b.verdict];
-  if (danger(a) !== danger(b)) return danger(a) > danger(b);
-  return a.maxRatio != null && b.maxRatio != null && a.maxRatio * 1.01 < b.maxRatio;
+  return danger(a) > danger(b);
 }
 
 /** A finding's title after a colon: the library's names lower-case as in the what-if's sentences, and "A 1 L spill…" as "a 1 L spill…". */
