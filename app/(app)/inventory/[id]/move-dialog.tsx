@@ -6,11 +6,20 @@ import { inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
 import { moveContainerAction } from "../actions";
+import { SaferPlaces } from "../safer-places";
 import { useWhatIf, WhatIfBody } from "../what-if-panel";
 
 type UnitOption = { id: number; code: string; name: string; roomCode: string; roomName: string; siteName: string };
 
-export type MovedContainer = { id: number; label: string; storageUnitId: number; roomCode: string; unitCode: string };
+export type MovedContainer = {
+  id: number;
+  label: string;
+  storageUnitId: number;
+  roomCode: string;
+  unitCode: string;
+  /** What it holds: with it, the dialog suggests safer places before a unit is chosen. */
+  contents?: { substanceId: number | null; mixtureId: number | null; amount: number; amountUnit: string };
+};
 
 function errorsOf(state: FormState | undefined): string[] | undefined {
   const errors = state?.error ? Object.values(state.error).flat().filter((m): m is string => Boolean(m)) : undefined;
@@ -47,6 +56,19 @@ export function MoveDialog({ container, units, initialTarget }: { container: Mov
   const targetId = Number(target);
   const request = open && Number.isInteger(targetId) && targetId > 0 ? { storageUnitId: targetId, containerId: container.id } : null;
   const whatIf = useWhatIf(request);
+  // Before a unit is chosen: the places safer than where it stands (the what-if of the container as it is, there).
+  const contents = container.contents;
+  const hereRequest =
+    open && !request && contents && (contents.substanceId != null || contents.mixtureId != null)
+      ? {
+          storageUnitId: container.storageUnitId,
+          containerId: container.id,
+          ...(contents.substanceId != null ? { substanceId: contents.substanceId } : { mixtureId: contents.mixtureId! }),
+          amount: contents.amount,
+          amountUnit: contents.amountUnit,
+        }
+      : null;
+  const here = useWhatIf(hereRequest);
   const targetUnit = units.find((u) => u.id === targetId);
 
   useEffect(() => {
@@ -122,6 +144,12 @@ export function MoveDialog({ container, units, initialTarget }: { container: Mov
           </div>
           <section aria-label="What the move would change" className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-4 py-3">
             <div aria-live="polite" aria-busy={whatIf.kind === "loading"} className="text-sm text-ink-700">
+              {!request && here.kind === "loading" ? <p className="mb-2 text-ink-600">Looking for safer places…</p> : null}
+              {!request && here.kind === "done" && here.data.alternatives?.length ? (
+                <div className="mb-3">
+                  <SaferPlaces places={here.data.alternatives} onChoose={(unitId) => setTarget(String(unitId))} />
+                </div>
+              ) : null}
               <WhatIfBody
                 state={whatIf}
                 idleText="Choose a storage unit to see what moving it there would raise."

@@ -160,7 +160,7 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </Card>
           <div className="space-y-6">
             <Card title="Move">
-              <MoveDialog container={{ id: container.id, label: container.label, storageUnitId: container.storageUnitId, roomCode: container.roomCode, unitCode: container.unitCode }} units={units} initialTarget={idParam(moveTo ?? "") ?? undefined} />
+              <MoveDialog container={{ id: container.id, label: container.label, storageUnitId: container.storageUnitId, roomCode: container.roomCode, unitCode: container.unitCode, contents: { substanceId: container.substanceId, mixtureId: container.mixtureId, amount: container.amount, amountUnit: container.amountUnit } }} units={units} initialTarget={idParam(moveTo ?? "") ?? undefined} />
             </Card>
             <Card title="State">
               <ContainerStateButtons id={container.id} current={container.state} />
