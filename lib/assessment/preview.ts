@@ -10,10 +10,12 @@ import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@
 import { containerAmountSchema } from "@/lib/inventory/schemas";
 import type { FindingCandidate } from "@/lib/register/store";
 import { optionalId, requiredId } from "@/lib/validation/fields";
-import { componentsOfMixtures, findingIdsVisibleTo, STANDING_STATUSES, standingFindingsAt, type StandingFinding } from "./preview-current";
+import { componentsOfMixtures, findingIdsVisibleTo, STANDING_STATUSES, standingFindingsAt } from "./preview-current";
+import { better, relatedTo, worse } from "./preview-related";
 import { previewVerdict, verdictSentence, type CurrentOutcome, type PreviewMode, type PreviewVerdict } from "./preview-verdict";
-import { assessLocation, createAssessmentCache, severityRank, subjectKey } from "./rules";
+import { assessLocation, createAssessmentCache, severityRank } from "./rules";
 import { buildSnapshots, loadAssessmentSettings, SnapshotLibrary, toStoredCandidate } from "./service";
+import { saferPlacesThan, type PlannedContent, type StoragePlanItem } from "./storage-plan";
 
 const AMOUNT_UNIT_MESSAGE = `amountUnit must be one of: ${AMOUNT_UNITS.join(", ")}.`;
 
@@ -94,25 +96,11 @@ export type PreviewResult = {
   verdictSentence: string;
   /** A move's bonus: findings standing at the container's old place that the move would clear, worst first. */
   cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
+  /** Safer places for it, best first (at most five; the storage planner's items): only when the verdict is not "no_findings", else empty. */
+  alternatives: StoragePlanItem[];
 };
 
-/** A ratio that moves by less than 1 % has not changed: the same state assessed twice may differ in the last digits. */
-const RATIO_CHANGE_FACTOR = 1.01;
-
-function worse(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) > severityRank(before.severity) || (after.ratio ?? 0) > (before.ratio ?? 0) * RATIO_CHANGE_FACTOR;
-}
-
-function better(after: { severity: Severity; ratio: number | null }, before: { severity: Severity; ratio: number | null }): boolean {
-  return severityRank(after.severity) < severityRank(before.severity) || (after.ratio ?? 0) * RATIO_CHANGE_FACTOR < (before.ratio ?? 0);
-}
-
 const byWorst = <T extends { severity: Severity; ratio: number | null }>(a: T, b: T) => severityRank(b.severity) - severityRank(a.severity) || (b.ratio ?? -1) - (a.ratio ?? -1);
-
-/** The subject part of a fingerprint ("rule|location|subject|scenario"), e.g. "substance:7", "open-containers", "limit:3". */
-function subjectOf(fingerprint: string): string {
-  return fingerprint.split("|")[2] ?? "";
-}
 
 /**
  * What-if: the findings that storing this amount in this unit would raise or make worse, computed
@@ -179,25 +167,9 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
 
   // The findings standing where it would go, about the same substance or its group.
   const storedContent = library.content(content.substanceId, content.mixtureId);
-  const substanceIds = new Set<number>(
-    storedContent?.kind === "substance" ? [storedContent.substance.id] : storedContent?.kind === "mixture" ? storedContent.mixture.components.map((c) => c.substance.id) : [],
-  );
   const standing = standingFindingsAt(db, unit);
   const components = componentsOfMixtures(db, [...new Set(standing.flatMap((f) => (f.mixtureId == null ? [] : [f.mixtureId])))]);
-  const flammable = storedContent?.kind === "substance" ? storedContent.substance.lflVolPercent != null : (storedContent?.mixture.components.some((c) => c.substance.lflVolPercent != null) ?? false);
-  const liquidClass = storedContent?.kind === "substance" ? storedContent.substance.nfpaClass : (storedContent?.mixture.nfpaClass ?? null);
-  const cold = storedContent?.kind === "substance" && (storedContent.substance.physicalState === "cryogen" || storedContent.substance.physicalState === "solid");
-  const limitClasses = new Map(settings.quantities.limits.map((l) => [subjectKey({ kind: "quantity-limit", id: l.id }), l.liquidClasses as readonly string[]]));
-  const aboutIt = (f: StandingFinding): "substance" | "group" | null => {
-    const subject = subjectOf(f.fingerprint);
-    if (subject === "open-containers") return flammable || (f.substanceId != null && substanceIds.has(f.substanceId)) ? "group" : null;
-    if (subject.startsWith("limit:")) return liquidClass != null && (limitClasses.get(subject)?.includes(liquidClass) ?? true) ? "group" : null;
-    if (subject === "cryogen-inventory" || subject === "dry-ice") return cold ? "group" : null;
-    if (f.substanceId != null && substanceIds.has(f.substanceId)) return "substance";
-    if (f.mixtureId != null && f.mixtureId === content.mixtureId) return "substance";
-    if (f.mixtureId != null && [...(components.get(f.mixtureId) ?? [])].some((id) => substanceIds.has(id))) return "group";
-    return null;
-  };
+  const aboutIt = relatedTo(storedContent, content.mixtureId, settings, components);
   const related = standing.flatMap((f) => {
     const about = aboutIt(f);
     return about ? [{ f, about }] : [];
@@ -259,6 +231,7 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
     cleared: clearedRows,
     sourceUnitCode: source?.code ?? null,
   };
+  const verdict = previewVerdict(facts);
   return {
     storageUnitId: unit.id,
     findings: withPrevious.map(({ c, previous }) => ({
@@ -279,8 +252,27 @@ export function previewStoring(input: AssessmentPreviewInput, user: SessionUser,
       trace: c.trace,
     })),
     current,
-    verdict: previewVerdict(facts),
+    verdict,
     verdictSentence: verdictSentence(facts),
     cleared: clearedRows.map((r) => ({ id: r.id, severity: r.severity, title: r.title, canOpen: visible.has(r.id) })),
+    alternatives: verdict === "no_findings" ? [] : saferPlaces(db, { ...content, label: stored?.label ?? "(new container)", replacesContainerId: stored?.id }, unit, source, nowMs),
   };
+}
+
+/** How many safer places the what-if offers. */
+const ALTERNATIVES = 5;
+
+/**
+ * The storage planner's best places for what the what-if looks at, safer than the unit it looks at,
+ * other than that unit and the container's own place: near the container's place (a new
+ * container: the unit's room), at that site first.
+ */
+function saferPlaces(
+  db: ReturnType<typeof getDb>,
+  content: PlannedContent,
+  unit: { id: number; roomId: number },
+  source: { id: number; roomId: number } | undefined,
+  nowMs: number,
+): StoragePlanItem[] {
+  return saferPlacesThan(db, content, { unitId: unit.id, nearRoomId: source?.roomId ?? unit.roomId, excludeUnitIds: [unit.id, ...(source ? [source.id] : [])], limit: ALTERNATIVES, nowMs });
 }

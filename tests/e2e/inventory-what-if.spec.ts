@@ -36,3 +36,33 @@ test("a researcher logging diethyl ether into the domestic-type refrigerator FR-
   await expect(whatIf.getByText(/FSR-1/).first()).toBeVisible();
   await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1/)).toHaveCount(0);
 });
+
+test("a researcher whose placement is flagged gets a safer unit in one click", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("researcher@example.org", DEMO_PASSWORD);
+  await expect(page).toHaveURL(/\/$/);
+
+  const form = new LogContainerPage(page);
+  await form.goto();
+  await form.fillLabel(`SP-${Date.now().toString().slice(-6)}`);
+  await form.chooseSubstance("68-12-2", /dimethylformamide/);
+  await form.setAmount("1", "L");
+  await form.chooseStorageUnit("FR-1 Refrigerator (domestic type)");
+
+  // A domestic-type refrigerator is flagged for it; the under-hood cabinet in the same room is not.
+  const whatIf = form.whatIf();
+  await expect(whatIf.getByText("Would raise findings here")).toBeVisible();
+  const safer = form.saferPlaces();
+  await expect(safer.getByRole("heading", { name: "Safer places nearby" })).toBeVisible();
+  await expect(safer.getByRole("listitem").first()).toContainText("FC-3");
+  await expect(safer.getByRole("listitem").first()).toContainText("Nothing raised");
+  await expect(safer.getByRole("listitem").first()).toContainText("Nothing would be raised here.");
+
+  await form.choosePlace("FC-3", "2.107");
+  await expect(form.chosenStorageUnit()).toHaveText("FC-3 Under-hood flammable cabinet");
+  // The what-if runs again for the chosen unit.
+  await expect(whatIf.getByText("Nothing flagged about this here")).toBeVisible();
+  await expect(form.saferPlaces()).toHaveCount(0);
+  await expect(form.saveButton()).toBeEnabled();
+});

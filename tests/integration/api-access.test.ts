@@ -87,6 +87,7 @@ const ROUTES: Entry[] = [
   { file: "findings/[id]/events/route.ts", method: "POST", path: "/api/v1/findings/999/events", action: "findings.comment", params: { id: "999" }, body: {} },
   { file: "findings/events/route.ts", method: "POST", path: "/api/v1/findings/events", action: "findings.comment", body: {} },
   { file: "assessments/preview/route.ts", method: "POST", path: "/api/v1/assessments/preview", action: "assessments.preview", body: {} },
+  { file: "storage-plan/route.ts", method: "GET", path: "/api/v1/storage-plan?substanceId=1&amount=1&amountUnit=L", action: "containers.write" },
   { file: "settings/assessment/route.ts", method: "GET", path: "/api/v1/settings/assessment", action: "findings.read" },
   { file: "settings/assessment/route.ts", method: "PUT", path: "/api/v1/settings/assessment", action: "hazardSettings.write", body: {} },
   // A binary download: an impossible site id keeps the allowed roles' answer JSON (400); the workbook itself is tested in register-export.test.ts.

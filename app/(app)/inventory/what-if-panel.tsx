@@ -6,6 +6,7 @@ import { Caution } from "@/components/ui/caution";
 import { SEVERITY_STYLE, SeverityBadge } from "@/components/ui/severity";
 import type { FindingStatus, Severity } from "@/db/enums";
 import { formatCount, formatNumber } from "@/lib/format/numbers";
+import { SaferPlaces, type SaferPlace } from "./safer-places";
 
 export type PreviewFinding = {
   rule: string;
@@ -38,7 +39,12 @@ export type PreviewData = {
   verdict: PreviewVerdict;
   verdictSentence: string;
   cleared: { id: number; severity: Severity; title: string; canOpen: boolean }[];
+  /** Safer places, best first (empty when nothing is flagged here). */
+  alternatives?: SaferPlace[];
 };
+
+/** What a chosen safer place does: sets the unit where it is chosen (`onChoose`), or links to where it is (`hrefFor`). */
+export type ChoosePlace = { onChoose?: (unitId: number) => void; hrefFor?: (unitId: number) => string };
 
 export type PreviewRequest = { storageUnitId: number; substanceId?: number; mixtureId?: number; amount?: number; amountUnit?: string; containerId?: number; state?: string };
 
@@ -183,6 +189,19 @@ export function WhatIfPanel({ formId, edited: editedProp }: { formId: string; ed
 
   const state = useWhatIf(request);
   const editing = editedId != null;
+  // A new container's unit is the form's own choice; an edited one moves through its Move dialog.
+  const choose: ChoosePlace = editing
+    ? { hrefFor: (unitId) => `/inventory/${editedId}?moveTo=${unitId}` }
+    : {
+        onChoose: (unitId) => {
+          const form = document.getElementById(formId);
+          const select = form instanceof HTMLFormElement ? form.elements.namedItem("storageUnitId") : null;
+          if (!(select instanceof HTMLSelectElement)) return;
+          select.value = String(unitId);
+          select.dispatchEvent(new Event("input", { bubbles: true }));
+          select.dispatchEvent(new Event("change", { bubbles: true }));
+        },
+      };
   return (
     <section aria-labelledby={`${formId}-whatif`} className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-4 py-3">
       <h2 id={`${formId}-whatif`} className="text-sm font-semibold text-ink-900">
@@ -193,6 +212,7 @@ export function WhatIfPanel({ formId, edited: editedProp }: { formId: string; ed
           state={state}
           idleText={editing ? "Give the substance or mixture and the amount to see what these changes would raise." : "Choose the storage unit, the substance or mixture and the amount to see what storing it here would raise."}
           afterword={`You can still save; the register lists what is raised.`}
+          choose={choose}
         />
       </div>
       <Caution />
@@ -201,11 +221,11 @@ export function WhatIfPanel({ formId, edited: editedProp }: { formId: string; ed
 }
 
 /** The what-if's state in words: waiting, checking, an error, or the verdict. */
-export function WhatIfBody({ state, idleText, afterword }: { state: WhatIfState; idleText: string; afterword?: string }) {
+export function WhatIfBody({ state, idleText, afterword, choose }: { state: WhatIfState; idleText: string; afterword?: string; choose?: ChoosePlace }) {
   if (state.kind === "idle") return <p className="text-ink-600">{idleText}</p>;
   if (state.kind === "loading") return <p className="text-ink-600">Checking what this would raise…</p>;
   if (state.kind === "error") return <p className="text-ink-600">{state.message}{afterword ? ` ${afterword}` : ""}</p>;
-  return <WhatIfVerdict data={state.data} afterword={afterword} />;
+  return <WhatIfVerdict data={state.data} afterword={afterword} choose={choose} />;
 }
 
 function FindingLink({ id, title, canOpen }: { id: number; title: string; canOpen: boolean }) {
@@ -222,7 +242,7 @@ function FindingLink({ id, title, canOpen }: { id: number; title: string; canOpe
  * colour), its sentence, what would be new or worse, what already stands here (linked to the
  * register), and for a move what leaves the old place.
  */
-export function WhatIfVerdict({ data, afterword }: { data: PreviewData; afterword?: string }) {
+export function WhatIfVerdict({ data, afterword, choose }: { data: PreviewData; afterword?: string; choose?: ChoosePlace }) {
   const severity = verdictSeverity(data);
   const style = severity ? SEVERITY_STYLE[severity] : null;
   const Icon = style ? style.icon : CircleCheck;
@@ -244,6 +264,8 @@ export function WhatIfVerdict({ data, afterword }: { data: PreviewData; afterwor
           <p className="text-ink-900">{data.verdictSentence}</p>
         </div>
       </div>
+      {/* Right under the verdict: where it could go instead, before the details of this place. */}
+      {data.alternatives?.length ? <SaferPlaces places={data.alternatives} onChoose={choose?.onChoose} hrefFor={choose?.hrefFor} /> : null}
       {raised.length > 0 ? (
         <div className="space-y-1.5">
           <h3 className="text-xs font-semibold tracking-wide text-ink-700 uppercase">New or worse</h3>

@@ -33,6 +33,21 @@ export class LogContainerPage {
     return this.page.getByRole("region", { name: "Before you save" });
   }
 
+  /** The what-if's "Safer places nearby" list. */
+  saferPlaces() {
+    return this.whatIf().getByTestId("safer-places");
+  }
+
+  /** Chooses a safer place in one click: it becomes the form's storage unit. */
+  async choosePlace(unitCode: string, roomCode: string) {
+    await this.saferPlaces().getByRole("button", { name: `Choose ${unitCode} in room ${roomCode}` }).click();
+  }
+
+  /** The storage unit the form has chosen, as its option reads. */
+  chosenStorageUnit() {
+    return this.page.getByLabel("Storage unit").locator("option:checked");
+  }
+
   saveButton() {
     return this.page.getByRole("button", { name: "Log container" });
   }

@@ -6,10 +6,19 @@ import { inputClass } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FormState } from "@/lib/auth/form-action";
 import { moveContainerAction } from "../actions";
+import { SaferPlaces } from "../safer-places";
 import { StorageUnitOptions, type StorageUnitChoice } from "../storage-unit-options";
 import { useWhatIf, WhatIfBody } from "../what-if-panel";
 
-export type MovedContainer = { id: number; label: string; storageUnitId: number; roomCode: string; unitCode: string };
+export type MovedContainer = {
+  id: number;
+  label: string;
+  storageUnitId: number;
+  roomCode: string;
+  unitCode: string;
+  /** What it holds: with it, the dialog suggests safer places before a unit is chosen. */
+  contents?: { substanceId: number | null; mixtureId: number | null; amount: number; amountUnit: string };
+};
 
 function errorsOf(state: FormState | undefined): string[] | undefined {
   const errors = state?.error ? Object.values(state.error).flat().filter((m): m is string => Boolean(m)) : undefined;
@@ -21,13 +30,15 @@ function errorsOf(state: FormState | undefined): string[] | undefined {
  * there, what is already flagged there about its contents, what leaves the old place), then
  * confirm. A modal dialog: Escape or Cancel closes it, focus returns to the button that opened it.
  */
-export function MoveDialog({ container, units }: { container: MovedContainer; units: StorageUnitChoice[] }) {
+export function MoveDialog({ container, units, initialTarget }: { container: MovedContainer; units: StorageUnitChoice[]; initialTarget?: number }) {
   const dialogRef = useRef<HTMLDialogElement>(null);
   const openerRef = useRef<HTMLButtonElement>(null);
   const titleId = useId();
   const selectId = useId();
-  const [open, setOpen] = useState(false);
-  const [target, setTarget] = useState("");
+  // Opened from a suggestion (?moveTo=): the dialog opens with that unit chosen; nothing moves until the person confirms.
+  const suggested = initialTarget != null && initialTarget !== container.storageUnitId && units.some((u) => u.id === initialTarget) ? initialTarget : null;
+  const [open, setOpen] = useState(suggested != null);
+  const [target, setTarget] = useState(suggested != null ? String(suggested) : "");
   const [state, dispatch, pending] = useActionState(moveContainerAction, undefined);
   // The action's answer before this opening of the dialog: only a newer one is shown in it.
   const [stateAtOpen, setStateAtOpen] = useState<FormState | undefined>(undefined);
@@ -35,7 +46,24 @@ export function MoveDialog({ container, units }: { container: MovedContainer; un
   const targetId = Number(target);
   const request = open && Number.isInteger(targetId) && targetId > 0 ? { storageUnitId: targetId, containerId: container.id } : null;
   const whatIf = useWhatIf(request);
+  // Before a unit is chosen: the places safer than where it stands (the what-if of the container as it is, there).
+  const contents = container.contents;
+  const hereRequest =
+    open && !request && contents && (contents.substanceId != null || contents.mixtureId != null)
+      ? {
+          storageUnitId: container.storageUnitId,
+          containerId: container.id,
+          ...(contents.substanceId != null ? { substanceId: contents.substanceId } : { mixtureId: contents.mixtureId! }),
+          amount: contents.amount,
+          amountUnit: contents.amountUnit,
+        }
+      : null;
+  const here = useWhatIf(hereRequest);
   const targetUnit = units.find((u) => u.id === targetId);
+
+  useEffect(() => {
+    if (suggested != null) dialogRef.current?.showModal();
+  }, [suggested]);
 
   // A finished move closes the dialog and leaves its message on the page; an error stays in the dialog.
   useEffect(() => {
@@ -98,7 +126,18 @@ export function MoveDialog({ container, units }: { container: MovedContainer; un
           </div>
           <section aria-label="What the move would change" className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-4 py-3">
             <div aria-live="polite" aria-busy={whatIf.kind === "loading"} className="text-sm text-ink-700">
-              <WhatIfBody state={whatIf} idleText="Choose a storage unit to see what moving it there would raise." afterword="You can still move it; the register lists what is raised." />
+              {!request && here.kind === "loading" ? <p className="mb-2 text-ink-600">Looking for safer places…</p> : null}
+              {!request && here.kind === "done" && here.data.alternatives?.length ? (
+                <div className="mb-3">
+                  <SaferPlaces places={here.data.alternatives} onChoose={(unitId) => setTarget(String(unitId))} />
+                </div>
+              ) : null}
+              <WhatIfBody
+                state={whatIf}
+                idleText="Choose a storage unit to see what moving it there would raise."
+                afterword="You can still move it; the register lists what is raised."
+                choose={{ onChoose: (unitId) => setTarget(String(unitId)) }}
+              />
             </div>
             <Caution />
           </section>

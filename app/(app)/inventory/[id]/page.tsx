@@ -24,12 +24,12 @@ export const metadata: Metadata = { title: "Container" };
 
 const isoDate = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : null);
 
-export default async function ContainerPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ saved?: string }> }) {
+export default async function ContainerPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ saved?: string; moveTo?: string }> }) {
   const { user } = await requirePagePermission("inventory.read");
   const id = idParam((await params).id);
   const container = id ? getContainer(id) : null;
   if (!container) notFound();
-  const { saved } = await searchParams;
+  const { saved, moveTo } = await searchParams;
   const scope = scopeFor(user.role, "containers.write");
   const mayChange = container.state !== "disposed" && (scope === "all" || (scope === "own" && container.ownerId === user.id));
   const units = mayChange ? storageUnitOptions() : [];
@@ -160,7 +160,7 @@ export default async function ContainerPage({ params, searchParams }: { params: 
           </Card>
           <div className="space-y-6">
             <Card title="Move">
-              <MoveDialog container={{ id: container.id, label: container.label, storageUnitId: container.storageUnitId, roomCode: container.roomCode, unitCode: container.unitCode }} units={units} />
+              <MoveDialog container={{ id: container.id, label: container.label, storageUnitId: container.storageUnitId, roomCode: container.roomCode, unitCode: container.unitCode, contents: { substanceId: container.substanceId, mixtureId: container.mixtureId, amount: container.amount, amountUnit: container.amountUnit } }} units={units} initialTarget={idParam(moveTo ?? "") ?? undefined} />
             </Card>
             <Card title="State">
               <ContainerStateButtons id={container.id} current={container.state} />

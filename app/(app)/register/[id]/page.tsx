@@ -10,6 +10,7 @@ import { SeverityBadge } from "@/components/ui/severity";
 import { getFinding } from "@/db/queries/findings";
 import { activeUserOptions } from "@/db/queries/options";
 import { getSubstance } from "@/db/queries/substances";
+import { moveSuggestionsForFinding } from "@/lib/assessment/move-suggestions";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime, formatTempC } from "@/lib/format/numbers";
@@ -61,6 +62,8 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
   const curve = substance ? vaporPressureCurve(substance) : [];
   const model = traceModel(finding.trace);
   const contributors = contributingContainers(finding);
+  // The mitigation at hand for a finding about a unit: its largest containers there, each with a safer place.
+  const moves = finding.status !== "resolved" ? moveSuggestionsForFinding(user, finding, contributors.rows.map((r) => r.id)) : [];
   // The (T, Psat) of this finding's substance as the trace used it.
   const points = vaporPressurePoints(model);
   const used = substance ? (points.find((p) => p.title.toLowerCase().includes(substance.name.toLowerCase())) ?? (points.length === 1 ? points[0] : null)) : null;
@@ -163,6 +166,25 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
         </div>
         <div className="contents lg:sticky lg:top-4 lg:block lg:space-y-6">
           <Card title="Work on it" className="order-2">
+            {moves.length > 0 ? (
+              <section aria-labelledby="safer-places" className="mb-4 space-y-2 border-b border-ink-200 pb-4">
+                <h3 id="safer-places" className="text-sm font-semibold text-ink-900">
+                  Safer places for its containers
+                </h3>
+                <ul className="space-y-2 text-sm">
+                  {moves.map((move) => (
+                    <li key={move.containerId}>
+                      <Link href={move.href} className="font-medium text-accent-700 hover:underline">
+                        Move {move.label} to {move.place.code}: {move.summary}
+                      </Link>
+                      <p className="text-xs text-ink-600">
+                        Room {move.place.roomCode}, {move.place.siteName}. {move.place.reason} Opens the move for you to confirm.
+                      </p>
+                    </li>
+                  ))}
+                </ul>
+              </section>
+            ) : null}
             <FindingSteps findingId={finding.id} steps={steps} people={people} />
           </Card>
           <Card title="History" className="order-3">

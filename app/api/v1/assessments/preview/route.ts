@@ -10,7 +10,7 @@ import { limit } from "@/lib/rate-limit";
  * its place and assessed at storageUnitId. A stored container needs the right to change it
  * (researchers: their own, else 403).
  *
- * Answer: `{ data: { storageUnitId, findings, current, verdict, verdictSentence, cleared } }`:
+ * Answer: `{ data: { storageUnitId, findings, current, verdict, verdictSentence, cleared, alternatives } }`:
  * - `findings`: the new or worse findings the change would raise (`isNew`, `previous`);
  * - `current`: the findings standing at that unit and among its room's own about the same
  *   substance or its group (a mixture holding it, open containers together, a quantity limit),
@@ -20,7 +20,10 @@ import { limit } from "@/lib/rate-limit";
  * - `verdict`: `"raises"` (some finding new or worse), `"already_flagged"` (none, but findings
  *   about it stand there and stay) or `"no_findings"`; `verdictSentence` says it in plain words;
  * - `cleared`: for a move, the findings at the old place that would go (`{ id, severity, title,
- *   canOpen }`), else empty.
+ *   canOpen }`), else empty;
+ * - `alternatives`: when the verdict is not `"no_findings"`, up to five places safer than this unit,
+ *   best first, in the storage planner's shape (GET /api/v1/storage-plan), near the container's
+ *   place (a new container: this unit's room), at that site first; else empty.
  */
 export const POST = route({ action: "assessments.preview", schema: assessmentPreviewSchema }, async ({ user, input }) => {
   await limit("whatIfUser", user.id);
