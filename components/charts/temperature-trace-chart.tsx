@@ -181,7 +181,9 @@ export function TemperatureTraceChart({
   const { fromMs, toMs } = series;
   const spanMs = toMs - fromMs;
   const anchorMs = series.extent.lastAtMs;
-  const { domain, ticks: temperatureTicks } = temperatureAxis(series);
+  // Overlays in the window (a fitted or projected warm-up) widen the axis so that they stay in view.
+  const overlayTemps = overlays.flatMap((overlay) => overlay.points.filter((p) => p.atMs >= series.fromMs && p.atMs <= series.toMs).map((p) => p.tempC));
+  const { domain, ticks: temperatureTicks } = temperatureAxis(series, 10, overlayTemps);
   const { ticks, unit } = timeTicks(fromMs, toMs);
   const { setMinC, setMaxC, thresholdC } = series.location;
   const rangeLabel = setRangeText(setMinC, setMaxC);

@@ -40,8 +40,8 @@ export type TemperatureAxis = { domain: [number, number]; ticks: number[] };
  * The temperature axis: the readings, the set range and the threshold with at least a degree of
  * room, on steps of 1, 2, 5, 10 or 20 °C so the ticks are evenly spaced whole numbers.
  */
-export function temperatureAxis(series: Pick<ReadingSeries, "summary" | "location">, maxTicks = 10): TemperatureAxis {
-  const values = [series.summary.minC, series.summary.maxC, series.location.setMinC, series.location.setMaxC, series.location.thresholdC].filter(
+export function temperatureAxis(series: Pick<ReadingSeries, "summary" | "location">, maxTicks = 10, extraC: readonly number[] = []): TemperatureAxis {
+  const values = [series.summary.minC, series.summary.maxC, series.location.setMinC, series.location.setMaxC, series.location.thresholdC, ...extraC].filter(
     (v): v is number => v != null && Number.isFinite(v),
   );
   const low = values.length ? Math.min(...values) - 1 : 0;

@@ -8,7 +8,7 @@ import { SeverityBadge } from "@/components/ui/severity";
 import { getDb } from "@/db/client";
 import { requirePagePermission } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
-import { formatDateTime, formatTempC } from "@/lib/format/numbers";
+import { formatDateTime, formatDurationMin, formatTempC } from "@/lib/format/numbers";
 import { idParam } from "@/lib/http/paging";
 import { projectOpenExcursion, crossingText } from "@/lib/temperatures/projection";
 import { listExcursions } from "@/lib/temperatures/queries";
@@ -36,7 +36,7 @@ export default async function ExcursionPage({ params }: { params: Promise<{ id: 
   const endMs = projection ? projection.curve.at(-1)!.atMs : (row.endAt?.getTime() ?? nowMs);
   const series = readingSeries(row.sensorId, { fromMs: startMs - 6 * HOUR_MS, toMs: endMs + HOUR_MS }, nowMs);
   const overlays: TraceOverlay[] = projection
-    ? [{ label: `Projected warm-up from the latest reading (${projection.tauReason}; towards ${formatTempC(projection.roomTempC)})`, points: projection.curve }]
+    ? [{ label: `Projected warm-up from the latest reading (τ = ${formatDurationMin(projection.tauMin)}, towards ${formatTempC(projection.roomTempC)})`, points: projection.curve }]
     : [];
   const news = projection ? projection.crossings.filter((c) => !c.inControl) : [];
   const known = projection ? projection.crossings.filter((c) => c.inControl) : [];
@@ -59,8 +59,8 @@ export default async function ExcursionPage({ params }: { params: Promise<{ id: 
         <Card title="If it keeps warming">
           <p className="mb-3 text-sm text-ink-700">
             Latest reading {formatTempC(projection.latest.tempC)} at {formatDateTime(projection.latest.at)}. Projected with Newton&apos;s law of heating
-            towards the room&apos;s worst case of {formatTempC(projection.roomTempC)}: {projection.tauReason}. Times are UTC, rounded down to five
-            minutes.
+            towards the room&apos;s worst case of {formatTempC(projection.roomTempC)}: {projection.tauReason.replace(/\.$/, "")}. Times are UTC,
+            rounded down to five minutes.
           </p>
           {news.length === 0 ? (
             <p className="text-sm text-ink-700">Nothing in it crosses a threshold before it reaches the room&apos;s temperature.</p>
