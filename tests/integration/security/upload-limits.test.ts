@@ -3,7 +3,9 @@
  * hold millions of rows, overlong cells, too many columns, and uploads that stream on past their
  * limit without a Content-Length. Each is refused with its code and message, nothing is written,
  * no temporary file is left behind, and the server stops reading at the limit. Good files still
- * preview and import. Data is invented.
+ * preview and import. Data is invented. How fast a bomb is refused, and the memory it costs, are
+ * measured by bench/uploads.ts and bench/abuse.ts, not asserted here: a wall-clock bound fails on a
+ * busy machine without saying anything about the code.
  */
 import fs from "node:fs";
 import os from "node:os";
@@ -148,7 +150,6 @@ describe("workbooks that unpack to far more than they weigh", () => {
           "Split the data into smaller files.",
       },
     });
-    expect(response.ms).toBeLessThan(2000);
   });
 
   it("the same bomb declaring a small size is stopped while inflating, at the cell limit: 400 cell_too_long", async () => {
@@ -160,7 +161,6 @@ describe("workbooks that unpack to far more than they weigh", () => {
         "Line 2, column A (cell A2): the value has more than 32,767 characters; a cell may hold at most 32,767 (as in Excel). " +
         "Shorten it, or split it over several cells.",
     });
-    expect(response.ms).toBeLessThan(2000);
   });
 
   it("shared strings that unpack past 100 times their packed size, whatever they declare, are refused as a bomb: 400 zip_bomb", async () => {
