@@ -16,13 +16,20 @@ import type { SessionUser } from "@/lib/auth/session";
  * facilities staff, the rooms they are the contact for and the units they own.
  */
 export function findingsVisibleTo(user: SessionUser, scope: Scope): SQL | undefined {
+  return visibleTo(user, scope, contributedBy);
+}
+
+/** `contributed(condition, key)`: the findings the containers picked by `condition` contribute to; `key` names those containers. */
+type Contributed = (containerCondition: SQL, key: string) => SQL;
+
+function visibleTo(user: SessionUser, scope: Scope, contributed: Contributed): SQL | undefined {
   if (scope === "all") return undefined;
   const db = getDb();
   if (user.role === "researcher") {
     return or(
       inArray(findings.containerId, db.select({ id: containers.id }).from(containers).where(eq(containers.ownerId, user.id))),
       inArray(findings.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.ownerId, user.id))),
-      contributedBy(rawSql`c.owner_id = ${user.id}`),
+      contributed(rawSql`c.owner_id = ${user.id}`, `owner ${user.id}`),
     );
   }
   return or(
@@ -72,6 +79,31 @@ export type FindingListRow = {
  * contribute nothing.
  */
 function contributedBy(containerCondition: SQL): SQL {
+  return rawSql`${findings.id} in (${contributedIds(containerCondition)})`;
+}
+
+/**
+ * contributedBy read once, as a list of ids: the statements of one register call (counts, lines,
+ * the lines' findings) then share one reading instead of each repeating it — for a person with
+ * hundreds of containers it reads thousands of findings rows.
+ */
+function contributedByOnce(): Contributed {
+  const read = new Map<string, SQL>();
+  return (containerCondition, key) => {
+    let condition = read.get(key);
+    if (!condition) {
+      const ids = getDb()
+        .all<{ id: number }>(contributedIds(containerCondition))
+        .map((row) => row.id);
+      condition = rawSql`${findings.id} in (select value from json_each(${JSON.stringify(ids)}))`;
+      read.set(key, condition);
+    }
+    return condition;
+  };
+}
+
+/** The ids of the findings the containers `containerCondition` picks contribute to (see contributedBy). */
+function contributedIds(containerCondition: SQL): SQL {
   // From the containers to the findings, by the findings' indexes (unit; room and unit): never a
   // check of every finding against every container, which for a person with thousands of
   // containers and a register of 100,000 findings would take minutes.
@@ -80,7 +112,7 @@ function contributedBy(containerCondition: SQL): SQL {
       or (f2.rule = 'enclosure-lfl' and f2.substance_id is null and f2.mixture_id is null and mine.is_open)
       or f2.rule = 'quantity-limit'
       or (f2.rule in ('oxygen-depletion', 'co2-exposure') and mine.physical_state in ('cryogen', 'solid')))`);
-  return rawSql`${findings.id} in (
+  return rawSql`
     with mine as (
       select distinct c.storage_unit_id, cu.room_id, c.substance_id, c.mixture_id, c.state in ('opened', 'in_use') as is_open, cs.physical_state
       from containers c
@@ -92,14 +124,14 @@ function contributedBy(containerCondition: SQL): SQL {
     union
     select f2.id from mine cross join findings f2 on f2.room_id = mine.room_id and f2.storage_unit_id is null where ${matches}
     union
-    select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')
-  )`;
+    select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')`;
 }
 
 function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): SQL | undefined {
   const like = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const contributed = contributedByOnce();
   return and(
-    findingsVisibleTo(user, scope),
+    visibleTo(user, scope, contributed),
     query.severity?.length ? inArray(findings.severity, query.severity) : undefined,
     query.status?.length ? inArray(findings.status, query.status) : undefined,
     query.scenario?.length ? inArray(findings.scenario, query.scenario) : undefined,
@@ -107,14 +139,14 @@ function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingL
     // A unit's findings carry its room too: a room's filter includes its units' findings.
     query.roomId ? eq(findings.roomId, query.roomId) : undefined,
     query.storageUnitId ? eq(findings.storageUnitId, query.storageUnitId) : undefined,
-    query.containerId ? contributedBy(rawSql`c.id = ${query.containerId}`) : undefined,
+    query.containerId ? contributed(rawSql`c.id = ${query.containerId}`, `container ${query.containerId}`) : undefined,
     query.substanceId
       ? or(
           eq(findings.substanceId, query.substanceId),
           inArray(findings.mixtureId, rawSql`(select mixture_id from mixture_components where substance_id = ${query.substanceId})`),
         )
       : undefined,
-    query.mine ? contributedBy(rawSql`c.owner_id = ${user.id}`) : undefined,
+    query.mine ? contributed(rawSql`c.owner_id = ${user.id}`, `owner ${user.id}`) : undefined,
     query.rule ? eq(findings.rule, query.rule) : undefined,
     query.q
       ? or(
@@ -245,9 +277,15 @@ export function listFindingLinesPage(
       : query.sort === "ratio"
         ? [rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`, desc(worst)]
         : [up ? asc(worst) : desc(worst), rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`];
-  const totals = db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get();
-  const keys = db
-    .select({ key: GROUP_KEY })
+  // One pass over the filtered findings: the page's lines with their findings' ids, and the totals
+  // (window functions run before LIMIT). The findings are then read by id.
+  const page = db
+    .select({
+      key: GROUP_KEY,
+      ids: rawSql<string>`json_group_array(${findings.id})`,
+      lines: rawSql<number>`count(*) over ()`,
+      findings: rawSql<number>`sum(count(*)) over ()`,
+    })
     .from(findings)
     .leftJoin(rooms, eq(rooms.id, findings.roomId))
     .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
@@ -256,10 +294,17 @@ export function listFindingLinesPage(
     .orderBy(...order, asc(GROUP_KEY))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize)
-    .all()
-    .map((r) => r.key);
-  const rank = new Map(keys.map((key, i) => [key, i]));
-  const rows = keys.length ? readListRows(and(where, inArray(GROUP_KEY, keys)), [desc(SEVERITY_ORDER)]) : [];
+    .all();
+  // A page past the last has no rows to carry the totals.
+  const totals =
+    page.length > 0
+      ? { lines: page[0].lines, findings: page[0].findings }
+      : query.page > 1
+        ? db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get()
+        : { lines: 0, findings: 0 };
+  const rank = new Map(page.map((line, i) => [line.key, i]));
+  const ids = page.flatMap((line) => JSON.parse(line.ids) as number[]);
+  const rows = ids.length ? readListRows(rawSql`${findings.id} in (select value from json_each(${JSON.stringify(ids)}))`, [desc(SEVERITY_ORDER)]) : [];
   const lines = groupFindings(rows).sort((a, b) => rank.get(a.key)! - rank.get(b.key)!);
   return { lines, total: totals?.lines ?? 0, findings: totals?.findings ?? 0 };
 }
