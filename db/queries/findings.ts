@@ -127,13 +127,27 @@ function contributedIds(containerCondition: SQL): SQL {
     select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')`;
 }
 
-function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): SQL | undefined {
+/**
+ * How the statuses are matched: "index" lets SQLite use the (status, severity) index — right for
+ * counts, which it answers from the index alone; "scan" keeps it from that index — right for a
+ * statement that reads most findings' rows anyway: the default views hold about two thirds of the
+ * register, and reading those rows in the index's order, one by one, costs far more than reading
+ * the table through.
+ */
+type StatusMatch = "index" | "scan";
+
+function findingFilters(
+  user: SessionUser,
+  scope: Scope,
+  query: Partial<FindingListQuery>,
+  statusMatch: StatusMatch = "index",
+  contributed: Contributed = contributedByOnce(),
+): SQL | undefined {
   const like = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-  const contributed = contributedByOnce();
   return and(
     visibleTo(user, scope, contributed),
     query.severity?.length ? inArray(findings.severity, query.severity) : undefined,
-    query.status?.length ? inArray(findings.status, query.status) : undefined,
+    query.status?.length ? (statusMatch === "scan" ? inArray(rawSql`+${findings.status}`, query.status) : inArray(findings.status, query.status)) : undefined,
     query.scenario?.length ? inArray(findings.scenario, query.scenario) : undefined,
     query.siteId ? eq(findings.siteId, query.siteId) : undefined,
     // A unit's findings carry its room too: a room's filter includes its units' findings.
@@ -237,7 +251,8 @@ function readListRows(where: SQL | undefined, order: SQL[], paging?: { limit: nu
 }
 
 export function listFindingsPage(user: SessionUser, scope: Scope, query: FindingListQuery): { rows: FindingListRow[]; total: number } {
-  const where = findingFilters(user, scope, query);
+  const contributed = contributedByOnce();
+  const where = findingFilters(user, scope, query, "scan", contributed);
   const dir = query.dir === "desc" ? desc : asc;
   const order: SQL[] = {
     severity: [dir(SEVERITY_ORDER), desc(findings.ratio)],
@@ -249,7 +264,7 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
     age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
     updated: [dir(findings.updatedAt)],
   }[query.sort].map((o) => o as SQL);
-  const total = getDb().select({ n: count() }).from(findings).where(where).get()?.n ?? 0;
+  const total = getDb().select({ n: count() }).from(findings).where(findingFilters(user, scope, query, "index", contributed)).get()?.n ?? 0;
   return { total, rows: readListRows(where, order, { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }) };
 }
 
@@ -267,7 +282,7 @@ export function listFindingLinesPage(
   query: FindingListQuery,
 ): { lines: FindingLine<FindingListRow>[]; total: number; findings: number } {
   const db = getDb();
-  const where = findingFilters(user, scope, query);
+  const where = findingFilters(user, scope, query, "scan");
   const worst = rawSql<number>`max(${SEVERITY_ORDER})`;
   const maxRatio = rawSql<number | null>`max(${findings.ratio})`;
   const up = query.dir === "asc";
@@ -332,7 +347,11 @@ const SEVERITY_OF_RANK: Record<number, Severity> = { 4: "critical", 3: "high", 2
  * locations add up to the findings in the filters (each finding has one room and at most one unit).
  */
 export function listFindingLocations(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): LocationSummary[] {
-  const where = findingFilters(user, scope, query);
+  const where = findingFilters(user, scope, query, "scan");
+  // "+" keeps SQLite from walking the (room, unit) index to group: that reads every finding's row
+  // in the index's order, one by one; reading the table through and sorting costs far less.
+  const roomId = rawSql<number | null>`+${findings.roomId}`;
+  const storageUnitId = rawSql<number | null>`+${findings.storageUnitId}`;
   const bySeverity = (severity: Severity) => rawSql<number>`sum(case when ${findings.severity} = ${severity} then 1 else 0 end)`;
   const ranked = getDb()
     .select({
@@ -341,7 +360,7 @@ export function listFindingLocations(user: SessionUser, scope: Scope, query: Par
       storageUnitId: findings.storageUnitId,
       title: findings.title,
       severity: findings.severity,
-      place: rawSql<number>`row_number() over (partition by ${findings.roomId}, ${findings.storageUnitId} order by ${SEVERITY_ORDER} desc, ${findings.ratio} desc nulls last, ${findings.id})`.as("place"),
+      place: rawSql<number>`row_number() over (partition by ${roomId}, ${storageUnitId} order by ${SEVERITY_ORDER} desc, ${findings.ratio} desc nulls last, ${findings.id})`.as("place"),
     })
     .from(findings)
     .where(where)
@@ -370,10 +389,10 @@ export function listFindingLocations(user: SessionUser, scope: Scope, query: Par
       total: count(),
     })
     .from(findings)
-    .innerJoin(rooms, eq(rooms.id, findings.roomId))
+    .innerJoin(rooms, eq(rooms.id, roomId))
     .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
     .where(where)
-    .groupBy(findings.roomId, findings.storageUnitId)
+    .groupBy(roomId, storageUnitId)
     .orderBy(desc(rawSql`max(${SEVERITY_ORDER})`), desc(bySeverity("critical")), desc(bySeverity("high")), desc(count()), asc(rooms.code), asc(storageUnits.code))
     .all();
   return rows.map((r) => {
