@@ -106,7 +106,9 @@ function contributedByOnce(): Contributed {
 function contributedIds(containerCondition: SQL): SQL {
   // From the containers to the findings, by the findings' indexes (unit; room and unit): never a
   // check of every finding against every container, which for a person with thousands of
-  // containers and a register of 100,000 findings would take minutes.
+  // containers and a register of 100,000 findings would take minutes. Each unit's (and room's)
+  // findings are read once, then matched against that place's containers: a unit holding a
+  // person's bottles of several substances is not read once per substance.
   const matches = rawSql.raw(`(f2.substance_id = mine.substance_id
       or f2.mixture_id = mine.mixture_id
       or (f2.rule = 'enclosure-lfl' and f2.substance_id is null and f2.mixture_id is null and mine.is_open)
@@ -120,9 +122,11 @@ function contributedIds(containerCondition: SQL): SQL {
       left join substances cs on cs.id = c.substance_id
       where ${containerCondition} and c.state not in ('empty', 'disposed')
     )
-    select f2.id from mine cross join findings f2 on f2.storage_unit_id = mine.storage_unit_id where ${matches}
+    select f2.id from (select distinct storage_unit_id from mine) here cross join findings f2 on f2.storage_unit_id = here.storage_unit_id
+      where exists (select 1 from mine where mine.storage_unit_id = f2.storage_unit_id and ${matches})
     union
-    select f2.id from mine cross join findings f2 on f2.room_id = mine.room_id and f2.storage_unit_id is null where ${matches}
+    select f2.id from (select distinct room_id from mine) here cross join findings f2 on f2.room_id = here.room_id and f2.storage_unit_id is null
+      where exists (select 1 from mine where mine.room_id = f2.room_id and ${matches})
     union
     select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')`;
 }
