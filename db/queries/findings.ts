@@ -140,6 +140,17 @@ function contributedIds(containerCondition: SQL): SQL {
  */
 type StatusMatch = "index" | "scan";
 
+/**
+ * How a count matches the statuses: from the (status, severity) index alone when nothing else
+ * narrows it (the whole register by status); otherwise "scan", so that SQLite starts from a
+ * narrower index (room, unit) or reads the table through rather than look up most findings' rows
+ * one by one from the status index to test the rest (a search, a scope, mine=true).
+ */
+function countStatusMatch(scope: Scope, query: Partial<FindingListQuery>): StatusMatch {
+  const narrowed = query.scenario?.length || query.siteId || query.roomId || query.storageUnitId || query.containerId || query.substanceId || query.mine || query.rule || query.q;
+  return scope === "all" && !narrowed ? "index" : "scan";
+}
+
 function findingFilters(
   user: SessionUser,
   scope: Scope,
@@ -268,7 +279,7 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
     age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
     updated: [dir(findings.updatedAt)],
   }[query.sort].map((o) => o as SQL);
-  const total = getDb().select({ n: count() }).from(findings).where(findingFilters(user, scope, query, "index", contributed)).get()?.n ?? 0;
+  const total = getDb().select({ n: count() }).from(findings).where(findingFilters(user, scope, query, countStatusMatch(scope, query), contributed)).get()?.n ?? 0;
   return { total, rows: readListRows(where, order, { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }) };
 }
 
@@ -446,7 +457,7 @@ export function countFindingsBySeverity(user: SessionUser, scope: Scope, query: 
   const rows = getDb()
     .select({ severity: findings.severity, n: count() })
     .from(findings)
-    .where(findingFilters(user, scope, { ...query, severity: undefined }))
+    .where(findingFilters(user, scope, { ...query, severity: undefined }, countStatusMatch(scope, query)))
     .groupBy(findings.severity)
     .all();
   for (const row of rows) counts[row.severity] = row.n;
