@@ -70,13 +70,8 @@ const MAX_SHARED_CHARS = 4_000_000;
 /** Longer text is written inline: sharing it saves little and costs memory. */
 const MAX_SHARED_LENGTH = 1000;
 
-/** Row XML is collected into strings of about this many characters before it is encoded. */
+/** Rows are collected into chunks of about this many characters before they go to the stream. */
 const CHUNK_CHARS = 16 * 1024;
-/**
- * Encoded rows are collected into buffers of about this many bytes before they go to the zip
- * entry: the size exceljs's own worksheet stream hands on, so the compressor sees the same writes.
- */
-const CHUNK_BYTES = 64 * 1024;
 /** The deflate backlog (bytes) past which writing waits for the compressor. */
 const MAX_BACKLOG_BYTES = 4 * 2 ** 20;
 
@@ -93,11 +88,9 @@ type WorkbookInternals = {
  * The worksheet's zip-entry stream (a StreamBuf). It writes everything it is given into
  * `pipes[0]` — the PassThrough archiver puts in front of the entry (archiver-utils
  * normalizeInputSource) — without waiting, so that is where a backlog collects while the
- * compressor or the reader is behind, or while earlier entries are still being zipped. In batch
- * mode it copies what it is given into 64 KB buffers of its own first; `uncork()` hands on what
- * it holds at once.
+ * compressor or the reader is behind, or while earlier entries are still being zipped.
  */
-type SheetStream = { write(chunk: string | Buffer): void; uncork(): void; pipes?: BufferedStream[] };
+type SheetStream = { write(chunk: string | Buffer): void; pipes?: BufferedStream[] };
 
 /** A readable-stream 2.x stream (archiver's): it has no writableLength, only the states. */
 type BufferedStream = Writable & { _writableState?: { length: number }; _readableState?: { length: number } };
@@ -236,24 +229,7 @@ export class SharedText {
   }
 }
 
-/**
- * A column with the fixed parts of its cells' XML: `open` + row number + one of the tails + the
- * value + the end. Built once, so that a row costs one conversion of its number.
- */
-type Prepared<R> = Column<R> & {
-  letters: string;
-  styleAttr: string;
-  /** `<c r="B` */
-  open: string;
-  /** `" s="3"><v>`: a number or a date. */
-  numberTail: string;
-  /** `" s="4" t="s"><v>`: a shared string. */
-  sharedTail: string;
-  /** `" s="4" t="inlineStr"><is><t`: an inline string (then `>` or ` xml:space="preserve">`). */
-  inlineTail: string;
-  /** `" t="b"><v>`: a boolean. */
-  booleanTail: string;
-};
+type Prepared<R> = Column<R> & { letters: string; styleAttr: string };
 
 export class TableSheet<R> {
   private readonly columns: Prepared<R>[];
@@ -261,12 +237,7 @@ export class TableSheet<R> {
   private readonly numberStyleAttr: string;
   private sheet!: ExcelJS.Worksheet;
   private stream!: SheetStream;
-  /** Where the data rows go: the zip entry's PassThrough (see SheetStream), or the sheet's stream. */
-  private entry!: { write(chunk: Buffer): unknown };
   private chunk = "";
-  /** Encoded text and copied bytes waiting to go to the entry as one buffer. */
-  private parts: (string | Buffer)[] = [];
-  private partsBytes = 0;
   private lastRow = 0;
   private part = 0;
   private closed = false;
@@ -295,17 +266,7 @@ export class TableSheet<R> {
       else if (c.kind === "datetime") styleAttr = attr({ numFmt: DATETIME_NUM_FMT }, ExcelJS.ValueType.Date);
       else if (c.numFmt) styleAttr = attr({ numFmt: c.numFmt }, ExcelJS.ValueType.Number);
       else if (c.kind === "boolean") styleAttr = "";
-      const letters = columnLetters(i + 1);
-      return {
-        ...c,
-        letters,
-        styleAttr,
-        open: `<c r="${letters}`,
-        numberTail: `"${styleAttr}><v>`,
-        sharedTail: `"${this.textStyleAttr} t="s"><v>`,
-        inlineTail: `"${this.textStyleAttr} t="inlineStr"><is><t`,
-        booleanTail: `" t="b"><v>`,
-      };
+      return { ...c, letters: columnLetters(i + 1), styleAttr };
     });
     this.open();
   }
@@ -325,99 +286,63 @@ export class TableSheet<R> {
     // Committing the header through exceljs writes the columns and opens sheetData.
     header.commit();
     this.stream = streamOf(this.sheet);
-    // The data rows go straight to the entry, already in buffers of CHUNK_BYTES: the sheet's
-    // stream would copy them into buffers of its own first. What it holds so far goes first.
-    const entry = this.stream.pipes?.[0];
-    if (entry) this.stream.uncork();
-    this.entry = entry ?? this.stream;
     this.lastRow = 1;
   }
 
-  private textCell(column: Prepared<R>, row: string, text: string): string {
+  private textCell(ref: string, text: string, column: Prepared<R>): string {
     const shared = column.unique ? null : this.shared.indexOf(text);
-    if (shared !== null) return column.open + row + column.sharedTail + shared + "</v></c>";
-    const space = isSpace(text.charCodeAt(0)) || isSpace(text.charCodeAt(text.length - 1)) ? ' xml:space="preserve">' : ">";
-    return column.open + row + column.inlineTail + space + xmlText(text) + "</t></is></c>";
+    if (shared !== null) return `<c r="${ref}"${this.textStyleAttr} t="s"><v>${shared}</v></c>`;
+    const space = isSpace(text.charCodeAt(0)) || isSpace(text.charCodeAt(text.length - 1)) ? ' xml:space="preserve"' : "";
+    return `<c r="${ref}"${this.textStyleAttr} t="inlineStr"><is><t${space}>${xmlText(text)}</t></is></c>`;
   }
 
-  /** One cell's XML; `row` is the row number as text. */
-  private cell(column: Prepared<R>, row: string, value: unknown): string {
+  private cell(column: Prepared<R>, rowNumber: number, value: unknown): string {
+    const ref = column.letters + rowNumber;
     switch (column.kind) {
       case "text": {
         const text = safeText(value);
-        return text === null ? "" : this.textCell(column, row, text);
+        return text === null ? "" : this.textCell(ref, text, column);
       }
       case "number": {
         const n = finite(value);
-        return n === null ? "" : column.open + row + column.numberTail + n + "</v></c>";
+        return n === null ? "" : `<c r="${ref}"${column.styleAttr}><v>${n}</v></c>`;
       }
       case "date":
       case "datetime": {
         const ms = epochMs(value);
-        return ms === null ? "" : column.open + row + column.numberTail + excelSerial(ms) + "</v></c>";
+        return ms === null ? "" : `<c r="${ref}"${column.styleAttr}><v>${excelSerial(ms)}</v></c>`;
       }
       case "boolean":
-        return typeof value === "boolean" ? column.open + row + column.booleanTail + (value ? "1" : "0") + "</v></c>" : "";
+        return typeof value === "boolean" ? `<c r="${ref}" t="b"><v>${value ? 1 : 0}</v></c>` : "";
       case "value": {
         const n = finite(value);
-        if (n !== null) return column.open + row + column.numberTail + n + "</v></c>";
-        if (typeof value === "boolean") return column.open + row + column.booleanTail + (value ? "1" : "0") + "</v></c>";
+        if (n !== null) return `<c r="${ref}"${column.styleAttr}><v>${n}</v></c>`;
+        if (typeof value === "boolean") return `<c r="${ref}" t="b"><v>${value ? 1 : 0}</v></c>`;
         const text = safeText(value);
-        return text === null ? "" : this.textCell(column, row, text);
+        return text === null ? "" : this.textCell(ref, text, column);
       }
     }
   }
 
-  /** Bytes that went to the entry since the last drain(). */
+  /** Characters (or bytes) that went to the stream since the last drain(). */
   private pending = 0;
 
-  /** The XML collected so far, encoded, joins the parts waiting for the entry. */
-  private encodeChunk(): void {
-    if (!this.chunk) return;
-    this.parts.push(this.chunk);
-    this.partsBytes += Buffer.byteLength(this.chunk);
+  private flush(): void {
+    if (this.chunk) {
+      this.stream.write(this.chunk);
+      this.pending += this.chunk.length;
+    }
     this.chunk = "";
   }
 
-  /** Bytes copied as they are (see XmlSafeBytes) join the parts waiting for the entry. */
-  private addBytes(bytes: Buffer): void {
-    this.encodeChunk();
-    this.parts.push(bytes);
-    this.partsBytes += bytes.length;
-    if (this.partsBytes >= CHUNK_BYTES) this.writeParts();
-  }
-
-  /** Everything waiting goes to the entry as one buffer, text encoded straight into it. */
-  private writeParts(): void {
-    if (this.parts.length === 0) return;
-    let buffer: Buffer;
-    if (this.parts.length === 1) {
-      const [part] = this.parts;
-      buffer = typeof part === "string" ? Buffer.from(part, "utf8") : part;
-    } else {
-      buffer = Buffer.allocUnsafe(this.partsBytes);
-      let offset = 0;
-      for (const part of this.parts) offset += typeof part === "string" ? buffer.write(part, offset, "utf8") : part.copy(buffer, offset);
-    }
-    this.parts = [];
-    this.partsBytes = 0;
-    this.entry.write(buffer);
-    this.pending += buffer.length;
-  }
-
-  private flush(): void {
-    this.encodeChunk();
-    this.writeParts();
-  }
-
   /**
-   * True once a buffer of rows went to the entry since the last drain(): call drain() then. The
-   * compressor works on the thread pool, but this thread hands it each buffer; a turn of the event
-   * loop per buffer lets it compress one while the next rows are built (draining once per page of
-   * rows instead made the two take turns, and the export a third slower).
+   * True once a chunk's worth of rows went to the stream since the last drain(): call drain()
+   * then. The compressor works on the thread pool, but this thread hands it each chunk; a turn of
+   * the event loop per chunk lets it compress one chunk while the next rows are built (draining
+   * once per page of rows instead made the two take turns, and the export a third slower).
    */
   get wantsDrain(): boolean {
-    return this.pending > 0;
+    return this.pending >= CHUNK_CHARS;
   }
 
   private commitPart(): void {
@@ -440,9 +365,9 @@ export class TableSheet<R> {
       this.commitPart();
       this.open();
     }
-    const row = String(++this.lastRow);
+    const rowNumber = ++this.lastRow;
     this.rowCount += 1;
-    let xml = '<row r="' + row + '">';
+    let xml = `<row r="${rowNumber}">`;
     for (const column of this.columns) {
       let value = column.value(record);
       if (value === null || value === undefined) continue;
@@ -452,20 +377,19 @@ export class TableSheet<R> {
         if (bytes === null) {
           value = Buffer.from(value.buffer, value.byteOffset, value.length).toString("utf8");
         } else {
-          const space = isSpace(bytes[0]) || isSpace(bytes[bytes.length - 1]) ? ' xml:space="preserve">' : ">";
-          this.chunk += xml + column.open + row + column.inlineTail + space;
-          this.addBytes(bytes);
+          const space = isSpace(bytes[0]) || isSpace(bytes[bytes.length - 1]) ? ' xml:space="preserve"' : "";
+          this.chunk += `${xml}<c r="${column.letters}${rowNumber}"${this.textStyleAttr} t="inlineStr"><is><t${space}>`;
+          this.flush();
+          this.stream.write(bytes);
+          this.pending += bytes.length;
           xml = "</t></is></c>";
           continue;
         }
       }
-      xml += this.cell(column, row, value);
+      xml += this.cell(column, rowNumber, value);
     }
-    this.chunk += xml + "</row>";
-    if (this.chunk.length >= CHUNK_CHARS) {
-      this.encodeChunk();
-      if (this.partsBytes >= CHUNK_BYTES) this.writeParts();
-    }
+    this.chunk += `${xml}</row>`;
+    if (this.chunk.length >= CHUNK_CHARS) this.flush();
   }
 
   /** Waits while the compressor or the reader is behind (see Pace). */

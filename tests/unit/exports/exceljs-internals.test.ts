@@ -22,9 +22,8 @@ describe("the exceljs internals the register workbook uses", () => {
     expect(typeof internals.styles.addStyleModel).toBe("function");
     expect(typeof internals.sharedStrings.add).toBe("function");
     const sheet = workbook.addWorksheet("x");
-    const stream = (sheet as unknown as { stream: { write: unknown; uncork: unknown; pipes: { _writableState?: { length: number } }[] } }).stream;
+    const stream = (sheet as unknown as { stream: { write: unknown; pipes: { _writableState?: { length: number } }[] } }).stream;
     expect(typeof stream.write).toBe("function");
-    expect(typeof stream.uncork).toBe("function");
     expect(stream.pipes).toHaveLength(1);
     expect(typeof stream.pipes[0]._writableState?.length).toBe("number");
   });
