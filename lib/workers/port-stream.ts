@@ -2,9 +2,8 @@
  * A byte stream from a worker thread to the main thread over a MessagePort, with backpressure and
  * cancellation both ways:
  *
- * - the worker side is a Writable (`PortWritable`): chunks are gathered up to `BATCH_BYTES`, copied
- *   into one buffer and transferred (not cloned again) — a zip's compressor writes some 8 KB at a
- *   time, and each message costs both threads more than the copy; once `maxInFlightBytes` are sent and not yet taken by the
+ * - the worker side is a Writable (`PortWritable`): each chunk is copied into its own buffer and
+ *   transferred (not cloned again); once `maxInFlightBytes` are sent and not yet taken by the
  *   reader, its write callback waits, so the producer (exceljs and its zip) feels the same
  *   backpressure as from a slow socket;
  * - the main side is a ReadableStream (`readableFromPort`) that hands a chunk on only when its
@@ -21,8 +20,6 @@ import { Writable } from "node:stream";
 import type { MessagePort } from "node:worker_threads";
 
 export const DEFAULT_MAX_IN_FLIGHT_BYTES = 4 * 1024 * 1024;
-/** Bytes gathered before they go to the main thread as one message (the rest goes at the end). */
-export const BATCH_BYTES = 256 * 1024;
 
 type ToMain = { type: "chunk"; bytes: Uint8Array } | { type: "end" } | { type: "error"; message: string };
 type ToWorker = { type: "ack"; bytes: number } | { type: "cancel" };
@@ -30,8 +27,6 @@ type ToWorker = { type: "ack"; bytes: number } | { type: "cancel" };
 export class PortWritable extends Writable {
   private inFlight = 0;
   private waiting: ((error?: Error | null) => void) | null = null;
-  private batch: Buffer[] = [];
-  private batchBytes = 0;
 
   constructor(
     private readonly port: MessagePort,
@@ -61,23 +56,9 @@ export class PortWritable extends Writable {
   }
 
   override _write(chunk: Buffer, _encoding: BufferEncoding, callback: (error?: Error | null) => void): void {
-    this.batch.push(chunk);
-    this.batchBytes += chunk.byteLength;
-    if (this.batchBytes < BATCH_BYTES) callback();
-    else this.send(callback);
-  }
-
-  /** Sends the gathered chunks as one message; `callback` runs once the reader is near enough. */
-  private send(callback: (error?: Error | null) => void): void {
     // A copy of its own: a small Buffer may share its memory with others, which a transfer would detach.
-    const bytes = new Uint8Array(this.batchBytes);
-    let offset = 0;
-    for (const chunk of this.batch) {
-      bytes.set(chunk, offset);
-      offset += chunk.byteLength;
-    }
-    this.batch = [];
-    this.batchBytes = 0;
+    const bytes = new Uint8Array(chunk.byteLength);
+    bytes.set(chunk);
     this.inFlight += bytes.byteLength; // before the transfer empties it
     this.port.postMessage({ type: "chunk", bytes } satisfies ToMain, [bytes.buffer]);
     if (this.inFlight < this.maxInFlightBytes) callback();
@@ -85,19 +66,12 @@ export class PortWritable extends Writable {
   }
 
   override _final(callback: (error?: Error | null) => void): void {
-    const end = (error?: Error | null) => {
-      if (error) return callback(error);
-      this.port.postMessage({ type: "end" } satisfies ToMain);
-      callback();
-    };
-    if (this.batchBytes > 0) this.send(end);
-    else end();
+    this.port.postMessage({ type: "end" } satisfies ToMain);
+    callback();
   }
 
   override _destroy(error: Error | null, callback: (error?: Error | null) => void): void {
     this.waiting = null;
-    this.batch = [];
-    this.batchBytes = 0;
     if (error && !this.writableFinished) {
       try {
         this.port.postMessage({ type: "error", message: error.message } satisfies ToMain);
