@@ -14,7 +14,8 @@
 // a site has: the facilities user is the contact for 10 of the 100 rooms (and owns the units the
 // builder gave them, about 400); one researcher keeps the builder's share (about 4,000 live and
 // disposed containers and 400 units, a fifth of everything: the heaviest case), the other a
-// typical one (about 200 containers and 20 units). Then a fresh Node process (so nothing is cached
+// typical one (about 160 live containers and 15 units; the rest go to a sixth person, the rest of the
+// group). Then a fresh Node process (so nothing is cached
 // from the build) runs, for each role, the pages' data calls:
 //
 // - Register, "One line per problem" (the default view): countFindingsBySeverity and
