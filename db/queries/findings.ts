@@ -16,13 +16,20 @@ import type { SessionUser } from "@/lib/auth/session";
  * facilities staff, the rooms they are the contact for and the units they own.
  */
 export function findingsVisibleTo(user: SessionUser, scope: Scope): SQL | undefined {
+  return visibleTo(user, scope, contributedBy);
+}
+
+/** `contributed(condition, key)`: the findings the containers picked by `condition` contribute to; `key` names those containers. */
+type Contributed = (containerCondition: SQL, key: string) => SQL;
+
+function visibleTo(user: SessionUser, scope: Scope, contributed: Contributed): SQL | undefined {
   if (scope === "all") return undefined;
   const db = getDb();
   if (user.role === "researcher") {
     return or(
       inArray(findings.containerId, db.select({ id: containers.id }).from(containers).where(eq(containers.ownerId, user.id))),
       inArray(findings.storageUnitId, db.select({ id: storageUnits.id }).from(storageUnits).where(eq(storageUnits.ownerId, user.id))),
-      contributedBy(rawSql`c.owner_id = ${user.id}`),
+      contributed(rawSql`c.owner_id = ${user.id}`, `owner ${user.id}`),
     );
   }
   return or(
@@ -74,15 +81,42 @@ export type FindingListRow = {
  * contribute nothing.
  */
 function contributedBy(containerCondition: SQL): SQL {
+  return rawSql`${findings.id} in (${contributedIds(containerCondition)})`;
+}
+
+/**
+ * contributedBy read once, as a list of ids: the statements of one register call (counts, lines,
+ * the lines' findings) then share one reading instead of each repeating it — for a person with
+ * hundreds of containers it reads thousands of findings rows.
+ */
+function contributedByOnce(): Contributed {
+  const read = new Map<string, SQL>();
+  return (containerCondition, key) => {
+    let condition = read.get(key);
+    if (!condition) {
+      const ids = getDb()
+        .all<{ id: number }>(contributedIds(containerCondition))
+        .map((row) => row.id);
+      condition = rawSql`${findings.id} in (select value from json_each(${JSON.stringify(ids)}))`;
+      read.set(key, condition);
+    }
+    return condition;
+  };
+}
+
+/** The ids of the findings the containers `containerCondition` picks contribute to (see contributedBy). */
+function contributedIds(containerCondition: SQL): SQL {
   // From the containers to the findings, by the findings' indexes (unit; room and unit): never a
   // check of every finding against every container, which for a person with thousands of
-  // containers and a register of 100,000 findings would take minutes.
+  // containers and a register of 100,000 findings would take minutes. Each unit's (and room's)
+  // findings are read once, then matched against that place's containers: a unit holding a
+  // person's bottles of several substances is not read once per substance.
   const matches = rawSql.raw(`(f2.substance_id = mine.substance_id
       or f2.mixture_id = mine.mixture_id
       or (f2.rule = 'enclosure-lfl' and f2.substance_id is null and f2.mixture_id is null and mine.is_open)
       or f2.rule = 'quantity-limit'
       or (f2.rule in ('oxygen-depletion', 'co2-exposure') and mine.physical_state in ('cryogen', 'solid')))`);
-  return rawSql`${findings.id} in (
+  return rawSql`
     with mine as (
       select distinct c.storage_unit_id, cu.room_id, c.substance_id, c.mixture_id, c.state in ('opened', 'in_use') as is_open, cs.physical_state
       from containers c
@@ -90,33 +124,60 @@ function contributedBy(containerCondition: SQL): SQL {
       left join substances cs on cs.id = c.substance_id
       where ${containerCondition} and c.state not in ('empty', 'disposed')
     )
-    select f2.id from mine cross join findings f2 on f2.storage_unit_id = mine.storage_unit_id where ${matches}
+    select f2.id from (select distinct storage_unit_id from mine) here cross join findings f2 on f2.storage_unit_id = here.storage_unit_id
+      where exists (select 1 from mine where mine.storage_unit_id = f2.storage_unit_id and ${matches})
     union
-    select f2.id from mine cross join findings f2 on f2.room_id = mine.room_id and f2.storage_unit_id is null where ${matches}
+    select f2.id from (select distinct room_id from mine) here cross join findings f2 on f2.room_id = here.room_id and f2.storage_unit_id is null
+      where exists (select 1 from mine where mine.room_id = f2.room_id and ${matches})
     union
-    select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')
-  )`;
+    select f2.id from containers c cross join findings f2 on f2.container_id = c.id where ${containerCondition} and c.state not in ('empty', 'disposed')`;
 }
 
-function findingFilters(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): SQL | undefined {
+/**
+ * How the statuses are matched: "index" lets SQLite use the (status, severity) index — right for
+ * counts, which it answers from the index alone; "scan" keeps it from that index — right for a
+ * statement that reads most findings' rows anyway: the default views hold about two thirds of the
+ * register, and reading those rows in the index's order, one by one, costs far more than reading
+ * the table through.
+ */
+type StatusMatch = "index" | "scan";
+
+/**
+ * How a count matches the statuses: from the (status, severity) index alone when nothing else
+ * narrows it (the whole register by status); otherwise "scan", so that SQLite starts from a
+ * narrower index (room, unit) or reads the table through rather than look up most findings' rows
+ * one by one from the status index to test the rest (a search, a scope, mine=true).
+ */
+function countStatusMatch(scope: Scope, query: Partial<FindingListQuery>): StatusMatch {
+  const narrowed = query.scenario?.length || query.siteId || query.roomId || query.storageUnitId || query.containerId || query.substanceId || query.mine || query.rule || query.q;
+  return scope === "all" && !narrowed ? "index" : "scan";
+}
+
+function findingFilters(
+  user: SessionUser,
+  scope: Scope,
+  query: Partial<FindingListQuery>,
+  statusMatch: StatusMatch = "index",
+  contributed: Contributed = contributedByOnce(),
+): SQL | undefined {
   const like = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   return and(
-    findingsVisibleTo(user, scope),
+    visibleTo(user, scope, contributed),
     query.severity?.length ? inArray(findings.severity, query.severity) : undefined,
-    query.status?.length ? inArray(findings.status, query.status) : undefined,
+    query.status?.length ? (statusMatch === "scan" ? inArray(rawSql`+${findings.status}`, query.status) : inArray(findings.status, query.status)) : undefined,
     query.scenario?.length ? inArray(findings.scenario, query.scenario) : undefined,
     query.siteId ? eq(findings.siteId, query.siteId) : undefined,
     // A unit's findings carry its room too: a room's filter includes its units' findings.
     query.roomId ? eq(findings.roomId, query.roomId) : undefined,
     query.storageUnitId ? eq(findings.storageUnitId, query.storageUnitId) : undefined,
-    query.containerId ? contributedBy(rawSql`c.id = ${query.containerId}`) : undefined,
+    query.containerId ? contributed(rawSql`c.id = ${query.containerId}`, `container ${query.containerId}`) : undefined,
     query.substanceId
       ? or(
           eq(findings.substanceId, query.substanceId),
           inArray(findings.mixtureId, rawSql`(select mixture_id from mixture_components where substance_id = ${query.substanceId})`),
         )
       : undefined,
-    query.mine ? contributedBy(rawSql`c.owner_id = ${user.id}`) : undefined,
+    query.mine ? contributed(rawSql`c.owner_id = ${user.id}`, `owner ${user.id}`) : undefined,
     query.rule ? eq(findings.rule, query.rule) : undefined,
     query.q
       ? or(
@@ -212,7 +273,8 @@ function readListRows(where: SQL | undefined, order: SQL[], paging?: { limit: nu
 }
 
 export function listFindingsPage(user: SessionUser, scope: Scope, query: FindingListQuery): { rows: FindingListRow[]; total: number } {
-  const where = findingFilters(user, scope, query);
+  const contributed = contributedByOnce();
+  const where = findingFilters(user, scope, query, "scan", contributed);
   const dir = query.dir === "desc" ? desc : asc;
   const order: SQL[] = {
     severity: [dir(SEVERITY_ORDER), desc(findings.ratio)],
@@ -226,7 +288,7 @@ export function listFindingsPage(user: SessionUser, scope: Scope, query: Finding
     age: [query.dir === "desc" ? asc(findings.firstRaisedAt) : desc(findings.firstRaisedAt)],
     updated: [dir(findings.updatedAt)],
   }[query.sort].map((o) => o as SQL);
-  const total = getDb().select({ n: count() }).from(findings).where(where).get()?.n ?? 0;
+  const total = getDb().select({ n: count() }).from(findings).where(findingFilters(user, scope, query, countStatusMatch(scope, query), contributed)).get()?.n ?? 0;
   return { total, rows: readListRows(where, order, { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }) };
 }
 
@@ -244,7 +306,7 @@ export function listFindingLinesPage(
   query: FindingListQuery,
 ): { lines: FindingLine<FindingListRow>[]; total: number; findings: number } {
   const db = getDb();
-  const where = findingFilters(user, scope, query);
+  const where = findingFilters(user, scope, query, "scan");
   const worst = rawSql<number>`max(${SEVERITY_ORDER})`;
   const maxRatio = rawSql<number | null>`max(${findings.ratio})`;
   const up = query.dir === "asc";
@@ -256,9 +318,15 @@ export function listFindingLinesPage(
         : query.sort === "timeToDanger"
           ? [rawSql`min(${findings.timeToDangerMin}) ${rawSql.raw(up ? "asc" : "desc")} nulls last`, desc(worst)]
         : [up ? asc(worst) : desc(worst), rawSql`${maxRatio} ${rawSql.raw(up ? "asc" : "desc")} nulls last`];
-  const totals = db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get();
-  const keys = db
-    .select({ key: GROUP_KEY })
+  // One pass over the filtered findings: the page's lines with their findings' ids, and the totals
+  // (window functions run before LIMIT). The findings are then read by id.
+  const page = db
+    .select({
+      key: GROUP_KEY,
+      ids: rawSql<string>`json_group_array(${findings.id})`,
+      lines: rawSql<number>`count(*) over ()`,
+      findings: rawSql<number>`sum(count(*)) over ()`,
+    })
     .from(findings)
     .leftJoin(rooms, eq(rooms.id, findings.roomId))
     .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
@@ -267,10 +335,17 @@ export function listFindingLinesPage(
     .orderBy(...order, asc(GROUP_KEY))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize)
-    .all()
-    .map((r) => r.key);
-  const rank = new Map(keys.map((key, i) => [key, i]));
-  const rows = keys.length ? readListRows(and(where, inArray(GROUP_KEY, keys)), [desc(SEVERITY_ORDER)]) : [];
+    .all();
+  // A page past the last has no rows to carry the totals.
+  const totals =
+    page.length > 0
+      ? { lines: page[0].lines, findings: page[0].findings }
+      : query.page > 1
+        ? db.select({ lines: rawSql<number>`count(distinct ${GROUP_KEY})`, findings: count() }).from(findings).where(where).get()
+        : { lines: 0, findings: 0 };
+  const rank = new Map(page.map((line, i) => [line.key, i]));
+  const ids = page.flatMap((line) => JSON.parse(line.ids) as number[]);
+  const rows = ids.length ? readListRows(rawSql`${findings.id} in (select value from json_each(${JSON.stringify(ids)}))`, [desc(SEVERITY_ORDER)]) : [];
   const lines = groupFindings(rows).sort((a, b) => rank.get(a.key)! - rank.get(b.key)!);
   return { lines, total: totals?.lines ?? 0, findings: totals?.findings ?? 0 };
 }
@@ -298,7 +373,11 @@ const SEVERITY_OF_RANK: Record<number, Severity> = { 4: "critical", 3: "high", 2
  * locations add up to the findings in the filters (each finding has one room and at most one unit).
  */
 export function listFindingLocations(user: SessionUser, scope: Scope, query: Partial<FindingListQuery>): LocationSummary[] {
-  const where = findingFilters(user, scope, query);
+  const where = findingFilters(user, scope, query, "scan");
+  // "+" keeps SQLite from walking the (room, unit) index to group: that reads every finding's row
+  // in the index's order, one by one; reading the table through and sorting costs far less.
+  const roomId = rawSql<number | null>`+${findings.roomId}`;
+  const storageUnitId = rawSql<number | null>`+${findings.storageUnitId}`;
   const bySeverity = (severity: Severity) => rawSql<number>`sum(case when ${findings.severity} = ${severity} then 1 else 0 end)`;
   const ranked = getDb()
     .select({
@@ -307,7 +386,7 @@ export function listFindingLocations(user: SessionUser, scope: Scope, query: Par
       storageUnitId: findings.storageUnitId,
       title: findings.title,
       severity: findings.severity,
-      place: rawSql<number>`row_number() over (partition by ${findings.roomId}, ${findings.storageUnitId} order by ${SEVERITY_ORDER} desc, ${findings.ratio} desc nulls last, ${findings.id})`.as("place"),
+      place: rawSql<number>`row_number() over (partition by ${roomId}, ${storageUnitId} order by ${SEVERITY_ORDER} desc, ${findings.ratio} desc nulls last, ${findings.id})`.as("place"),
     })
     .from(findings)
     .where(where)
@@ -336,10 +415,10 @@ export function listFindingLocations(user: SessionUser, scope: Scope, query: Par
       total: count(),
     })
     .from(findings)
-    .innerJoin(rooms, eq(rooms.id, findings.roomId))
+    .innerJoin(rooms, eq(rooms.id, roomId))
     .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
     .where(where)
-    .groupBy(findings.roomId, findings.storageUnitId)
+    .groupBy(roomId, storageUnitId)
     .orderBy(desc(rawSql`max(${SEVERITY_ORDER})`), desc(bySeverity("critical")), desc(bySeverity("high")), desc(count()), asc(rooms.code), asc(storageUnits.code))
     .all();
   return rows.map((r) => {
@@ -389,7 +468,7 @@ export function countFindingsBySeverity(user: SessionUser, scope: Scope, query: 
   const rows = getDb()
     .select({ severity: findings.severity, n: count() })
     .from(findings)
-    .where(findingFilters(user, scope, { ...query, severity: undefined }))
+    .where(findingFilters(user, scope, { ...query, severity: undefined }, countStatusMatch(scope, query)))
     .groupBy(findings.severity)
     .all();
   for (const row of rows) counts[row.severity] = row.n;

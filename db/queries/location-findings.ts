@@ -23,21 +23,24 @@ function scopeParams(user: Pick<SessionUser, "id" | "role">, scope: Scope) {
 }
 
 // The findings the reader's own live containers contribute to: the same rule as contributedBy in
-// db/queries/findings.ts, on the alias f.
-const CONTRIBUTED_BY_OWN = `exists (
-    select 1 from containers c
-    join storage_units cu on cu.id = c.storage_unit_id
-    left join substances cs on cs.id = c.substance_id
-    where c.owner_id = @userId and c.state not in ('empty', 'disposed') and (
-      f.container_id = c.id
-      or ((f.storage_unit_id = c.storage_unit_id or (f.storage_unit_id is null and f.room_id = cu.room_id)) and (
-        f.substance_id = c.substance_id
-        or f.mixture_id = c.mixture_id
+// db/queries/findings.ts, on the alias f. Three lookups, each from the finding's own container,
+// unit or room to the containers there ("+" keeps SQLite from starting at the reader's
+// containers instead: for a person with thousands of them, every finding would read them all).
+const CONTRIBUTION = `(
+        c.substance_id = f.substance_id
+        or c.mixture_id = f.mixture_id
         or (f.rule = 'enclosure-lfl' and f.substance_id is null and f.mixture_id is null and c.state in ('opened', 'in_use'))
         or f.rule = 'quantity-limit'
         or (f.rule in ('oxygen-depletion', 'co2-exposure') and cs.physical_state in ('cryogen', 'solid'))
-      ))
-    ))`;
+      )`;
+const CONTRIBUTED_BY_OWN = `(
+    exists (select 1 from containers c
+      where c.id = f.container_id and c.owner_id = @userId and c.state not in ('empty', 'disposed'))
+    or exists (select 1 from containers c left join substances cs on cs.id = c.substance_id
+      where c.storage_unit_id = f.storage_unit_id and +c.owner_id = @userId and c.state not in ('empty', 'disposed') and ${CONTRIBUTION})
+    or exists (select 1 from storage_units cu join containers c on c.storage_unit_id = cu.id left join substances cs on cs.id = c.substance_id
+      where f.storage_unit_id is null and cu.room_id = f.room_id and +c.owner_id = @userId and c.state not in ('empty', 'disposed') and ${CONTRIBUTION})
+  )`;
 
 // The same rule as findingsVisibleTo, as a column: 1 when the reader may open the finding.
 const VISIBLE = `case @mode

@@ -125,6 +125,10 @@ export function sitesWithRoomCounts() {
 export function locationsClosestToLimits(user: SessionUser, scope: Scope, limit = 6) {
   const db = getDb();
   const ratio = max(findings.ratio);
+  // "+" keeps SQLite from walking the status or (room, unit) index, reading most findings' rows
+  // one by one in its order: the open findings are most of the register, read faster in one pass.
+  const roomId = sql<number | null>`+${findings.roomId}`;
+  const storageUnitId = sql<number | null>`+${findings.storageUnitId}`;
   return db
     .select({
       roomId: findings.roomId,
@@ -137,8 +141,8 @@ export function locationsClosestToLimits(user: SessionUser, scope: Scope, limit 
     .from(findings)
     .leftJoin(rooms, eq(rooms.id, findings.roomId))
     .leftJoin(storageUnits, eq(storageUnits.id, findings.storageUnitId))
-    .where(and(inArray(findings.status, OPEN_STATUSES), isNotNull(findings.ratio), findingsVisibleTo(user, scope)))
-    .groupBy(findings.roomId, findings.storageUnitId)
+    .where(and(inArray(sql`+${findings.status}`, OPEN_STATUSES), isNotNull(findings.ratio), findingsVisibleTo(user, scope)))
+    .groupBy(roomId, storageUnitId)
     .orderBy(desc(ratio))
     .limit(limit)
     .all();
