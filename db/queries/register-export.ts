@@ -69,6 +69,10 @@ export type FindingExportRow = {
   mitigationPlan: string | null;
   riskAcceptedUntil: number | null;
   fingerprint: string;
+  /** Control-lost findings: minutes after a failure at which the finding's severity is reached, its threshold and temperature. */
+  timeToDangerMin: number | null;
+  timeToDangerThreshold: string | null;
+  timeToDangerTempC: number | null;
 };
 
 export type ContainerExportRow = {
@@ -108,7 +112,7 @@ const FINDING_SELECT = `f.id, f.severity, f.status, f.rule, f.scenario, f.title,
             f.worst_case_source, f.first_raised_at,
             case when f.condition_holds and r.assessed_at > f.last_evaluated_at then r.assessed_at else f.last_evaluated_at end,
             f.resolved_at, a.name, f.mitigation_plan,
-            f.risk_accepted_until, f.fingerprint`;
+            f.risk_accepted_until, f.fingerprint, f.time_to_danger_min, f.time_to_danger_threshold, f.time_to_danger_temp_c`;
 
 /** A row of FINDING_SELECT. */
 export function findingExportRow(r: unknown[]): FindingExportRow {
@@ -139,6 +143,9 @@ export function findingExportRow(r: unknown[]): FindingExportRow {
     mitigationPlan: r[23],
     riskAcceptedUntil: r[24],
     fingerprint: r[25],
+    timeToDangerMin: r[26],
+    timeToDangerThreshold: r[27],
+    timeToDangerTempC: r[28],
   } as FindingExportRow;
 }
 

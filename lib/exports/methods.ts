@@ -32,6 +32,18 @@ export const METHODS: MethodStatement[] = [
     source: "Integrated Clausius–Clapeyron equation (e.g. OpenStax Chemistry 2e §10.3; Atkins, Physical Chemistry); Trouton's rule is common practice",
   },
   {
+    item: "Warm-up after a failure (time to danger)",
+    statement:
+      "A refrigerator, freezer or other unit with a set range warms after its cooling fails towards its room's worst case as T(t) = T_room − (T_room − T_start) · e^(−t / τ), from its in-control worst case. τ is set for the unit by a person, else fitted by least squares to the rising part of its own recorded excursions (against its room's readings or design maximum), else the default of its kind. A control-lost finding's time to danger is the time at which the unit reaches the temperature where the finding's severity is first reached: the LFL alarm fraction where Psat(T) / Patm reaches it (the rule solved for T), the flash point or the margin below it, the boiling point; 0 when it is reached already in control. A screening estimate from one time constant.",
+    source: "Newton's law of heating (cooling); Levenberg–Marquardt least squares; default τ per kind of unit as on the thresholds page (USDA FSIS \"Keeping Food Safe During an Emergency\" holding times taken as τ, a lower bound)",
+  },
+  {
+    item: "A broken bottle in a closed unit",
+    statement:
+      "The largest bottle of each liquid with an LFL, spilled inside a closed unit at its in-control worst case: pool area V / 1 cm capped at the unit's floor (the face of a cube of its internal volume), evaporating at the Eq. D-1 rate slowed by the vapor-pressure deficit, so p(t) = Psat · (1 − e^(−t / θ)) with θ = Psat · V · M / (R · T · QR₀), capped by what the bottle holds; the times to 25 % LFL and to the LFL follow.",
+    source: "US EPA, RMP Offsite Consequence Analysis Guidance (EPA 550-B-99-009), App. D Eq. D-1, on its mass-transfer basis (Mackay & Matsugu 1973); ideal gas",
+  },
+  {
     item: "Equilibrium concentration",
     statement:
       "Mole fraction y = Psat / Patm (local atmospheric pressure of the site); ppm = 10⁶ · y; mg/m³ = ppm × M / Vm with Vm = R · T / P, the ideal-gas molar volume (24.45 L/mol at 25 °C and 1 atm).",

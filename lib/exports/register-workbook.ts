@@ -21,6 +21,7 @@ import {
 import { NotFoundError } from "@/lib/errors";
 import { CONTAINER_KIND_LABELS, CONTAINER_STATE_LABELS } from "@/lib/format/container-labels";
 import { ROOM_KIND_LABELS, STORAGE_UNIT_KIND_LABELS } from "@/lib/format/labels";
+import { formatTempC } from "@/lib/format/numbers";
 import { correlationCoefficients, correlationEquation } from "@/lib/format/correlations";
 import { lookBackDays } from "@/lib/temperatures/queries";
 import { locationWorstCases } from "./location-worst-cases";
@@ -131,6 +132,8 @@ const FINDING_COLUMNS: Column<FindingExportRow>[] = [
   { header: "Value unit", width: 10, kind: "text", value: (r) => r.unit },
   { header: "Worst case (°C)", width: 12, kind: "number", numFmt: "0.0", value: (r) => r.worstCaseTempC },
   { header: "Worst-case source", width: 50, kind: "text", value: (r) => r.worstCaseSource },
+  { header: "Time to danger after a failure (min)", width: 14, kind: "number", numFmt: "#,##0", value: (r) => (r.timeToDangerMin == null ? null : Math.round(r.timeToDangerMin)) },
+  { header: "Time-to-danger threshold", width: 18, kind: "text", value: (r) => (r.timeToDangerThreshold == null ? null : `${r.timeToDangerThreshold} at ${formatTempC(r.timeToDangerTempC)}`) },
   { header: "First raised (UTC)", width: 17, kind: "datetime", value: (r) => r.firstRaisedAt },
   { header: "Last evaluated (UTC)", width: 17, kind: "datetime", value: (r) => r.lastEvaluatedAt },
   { header: "Resolved (UTC)", width: 17, kind: "datetime", value: (r) => r.resolvedAt },

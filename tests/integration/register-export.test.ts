@@ -238,7 +238,7 @@ describe("GET /api/v1/exports/register.xlsx", () => {
     expect(headers(workbook.getWorksheet("Findings")!)).toEqual([
       "Finding ID", "Severity", "Status", "Rule", "Scenario", "Title", "Site", "Room", "Storage unit", "Container",
       "Substance or mixture", "CAS number", "Value", "Limit", "Value ÷ limit (%)", "Value unit", "Worst case (°C)",
-      "Worst-case source", "First raised (UTC)", "Last evaluated (UTC)", "Resolved (UTC)", "Assignee", "Mitigation plan",
+      "Worst-case source", "Time to danger after a failure (min)", "Time-to-danger threshold", "First raised (UTC)", "Last evaluated (UTC)", "Resolved (UTC)", "Assignee", "Mitigation plan",
       "Risk accepted until (UTC)", "Fingerprint",
     ]);
     expect(headers(workbook.getWorksheet("Inventory")!)).toEqual(expect.arrayContaining(["Container", "Amount", "Amount unit", "Received (UTC)"]));
