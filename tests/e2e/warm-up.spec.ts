@@ -34,5 +34,8 @@ test("facilities sees the warm-up fitted to the demo refrigerator's weekend fail
   await page.getByLabel("Warm-up time constant τ (min)").fill("");
   await page.getByRole("button", { name: "Save storage unit" }).click();
   await expect(card.getByText("Fitted to this unit's recorded failures")).toBeVisible();
+  await expect(card.getByText(/Door seal worn/)).toHaveCount(0);
+  // The note went with the set τ: the stored unit has none.
+  await page.reload();
   await expect(page.getByLabel("Why this τ")).toHaveValue("");
 });
