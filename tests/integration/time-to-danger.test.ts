@@ -11,6 +11,7 @@ import { seedDemo } from "@/db/seed/demo";
 import { findings, storageUnits, substances, users, type User } from "@/db/schema";
 import * as findingsRoute from "@/app/api/v1/findings/route";
 import * as findingRoute from "@/app/api/v1/findings/[id]/route";
+import * as planRoute from "@/app/api/v1/storage-plan/route";
 import { warmUpsOfUnits } from "@/lib/temperatures/warm-up";
 import { call, sessionCookieFor } from "./helpers/world";
 
@@ -65,3 +66,16 @@ describe("time to danger of control-lost findings", () => {
     expect(minutes.indexOf(null)).toBe(known.length === minutes.length ? -1 : known.length);
   });
 });
+
+describe("the storage planner reads the time to danger", () => {
+  it("a litre of methanol: places where it would be flagged after a failure carry when, and rank after those where it would not", async () => {
+    const response = await call(planRoute.GET, { path: `/api/v1/storage-plan?substanceId=${substanceId("67-56-1")}&amount=1&amountUnit=L&limit=50`, cookie: await sessionCookieFor(officer) });
+    expect(response.status).toBe(200);
+    const items = response.body.data as { code: string; verdict: string; worstSeverity: string | null; timeToDanger: Ttd }[];
+    const freezer = items.find((i) => i.code === "FZ-1");
+    // FZ-1 already holds methanol: its LFL after a failure, from the unit's own warm-up.
+    expect(freezer?.timeToDanger?.threshold).toBe("LFL");
+    expect(freezer!.timeToDanger!.minutes).toBeGreaterThan(0);
+  });
+});
+
