@@ -452,7 +452,7 @@ export class Finding implements CandidateFinding {
   timeToDanger: TimeToDanger | null = null;
   /** Control-lost findings: every severity threshold on the way up, with its temperature (time-to-danger.ts; not stored). */
   thresholdTemps: readonly { severity: Severity; threshold: string; tempC: number }[] | null = null;
-  private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[] }) | null = null;
+  private timeToDangerTrace: (() => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[]; crossings?: FindingTrace["crossings"] }) | null = null;
   constructor(
     readonly fingerprint: string,
     readonly rule: RuleId,
@@ -481,7 +481,7 @@ export class Finding implements CandidateFinding {
   }
 
   /** Records when after a failure this finding's severity is reached, with the trace steps that show it. */
-  setTimeToDanger(value: TimeToDanger | null, trace: () => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[] }): void {
+  setTimeToDanger(value: TimeToDanger | null, trace: () => { steps: TraceStep[]; inputs: TraceValue[]; warnings: string[]; parts?: Trace[]; crossings?: FindingTrace["crossings"] }): void {
     this.timeToDanger = value;
     this.timeToDangerTrace = trace;
     this.traceCache = null;
@@ -496,6 +496,7 @@ export class Finding implements CandidateFinding {
       steps: [...trace.steps, ...extra.steps],
       warnings: [...trace.warnings, ...extra.warnings],
       parts: [...trace.parts, ...(extra.parts ?? [])],
+      ...(extra.crossings ? { crossings: extra.crossings } : {}),
     };
   }
 

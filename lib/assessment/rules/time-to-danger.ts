@@ -190,7 +190,10 @@ export function attachTimeToDanger(
       own !== null && own.minutes !== null ? { minutes: Math.round(own.minutes * 10) / 10, threshold: own.threshold, tempC: Math.round(own.tempC * 100) / 100 } : null;
     finding.thresholdTemps = kept.map((c) => ({ severity: c.severity, threshold: c.threshold, tempC: c.tempC }));
     finding.setTimeToDanger(value, () => {
-      const trace = timeToDangerTrace({ crossings: kept, startTempC, roomTempC, warmUp, views, warm });
+      const trace = {
+        ...timeToDangerTrace({ crossings: kept, startTempC, roomTempC, warmUp, views, warm }),
+        crossings: kept.map((c) => ({ severity: c.severity, threshold: c.threshold, tempC: c.tempC, minutes: c.minutes === null ? null : Math.round(c.minutes * 10) / 10 })),
+      };
       const bottle = finding.rule === "enclosure-lfl" && finding.substanceId !== null ? bottles().find((b) => b.substanceId === finding.substanceId) : undefined;
       if (!bottle) return trace;
       return { ...trace, steps: [...trace.steps, brokenBottleStep(bottle)], parts: [bottle.result.trace] };

@@ -292,6 +292,8 @@ export type FindingTrace = Trace & {
   readonly parts: readonly Trace[];
   /** Every container the finding concerns, as the assessment saw it (the finding page lists them). */
   readonly containers?: readonly TraceContainer[];
+  /** Control-lost findings: each severity threshold on the way up, its temperature and when after a failure it is reached (time-to-danger.ts). */
+  readonly crossings?: readonly { readonly severity: Severity; readonly threshold: string; readonly tempC: number; readonly minutes: number | null }[];
 };
 
 /** One contributing container in a finding's trace: what the rules read of it. */

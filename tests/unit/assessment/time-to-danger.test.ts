@@ -40,6 +40,13 @@ describe("time to danger", () => {
     expect(steps.some((d) => d.startsWith("Threshold temperatures"))).toBe(true);
     expect(steps.some((d) => d.startsWith("Warm-up after a failure (Newton's law of heating)"))).toBe(true);
     expect(vapor!.trace.inputs.find((i) => i.symbol === "τ")?.value).toBe(240);
+    // Every threshold on the way up, for the finding page: 10 % and 25 % LFL, then the LFL itself.
+    expect(vapor!.trace.crossings?.map((c) => [c.threshold, c.severity])).toEqual([
+      ["10 % LFL", "moderate"],
+      ["25 % LFL", "high"],
+      ["LFL", "critical"],
+    ]);
+    expect(vapor!.trace.crossings?.at(-1)?.minutes).toBe(vapor!.timeToDanger!.minutes);
   });
 
   it("flash point: exact threshold temperatures, analytic times", () => {

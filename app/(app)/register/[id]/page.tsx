@@ -58,6 +58,9 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
   const found = id ? getFinding(user, scope, id) : null;
   if (!found) notFound();
   const { finding, events } = found;
+  const crossings = ((finding.trace as { crossings?: { severity: string; threshold: string; tempC: number; minutes: number | null }[] } | null)?.crossings ?? []).filter(
+    (c) => typeof c.tempC === "number",
+  );
   const substance = finding.substanceId ? getSubstance(finding.substanceId) : null;
   const curve = substance ? vaporPressureCurve(substance) : [];
   const model = traceModel(finding.trace);
@@ -129,6 +132,19 @@ export default async function FindingPage({ params }: { params: Promise<{ id: st
               ) : null}
               <Figure label="Containers" value={contributors.rows.length} note={contributors.rows.length === 1 ? "contributes" : "contribute"} />
             </dl>
+            {crossings.length > 0 ? (
+              <div className="mt-4 border-t border-ink-100 pt-3">
+                <h3 className="text-xs font-medium uppercase tracking-wide text-ink-600">After a failure, each threshold</h3>
+                <ul className="mt-1 space-y-0.5 text-sm text-ink-900">
+                  {crossings.map((c) => (
+                    <li key={`${c.severity}-${c.threshold}`} className="tabular">
+                      <span className="font-medium">{c.threshold}</span> ({c.severity}) at {formatTempC(c.tempC)}:{" "}
+                      {c.minutes === 0 ? "already in control" : c.minutes == null ? "not reached by warming to the room" : `after ${formatMinutes(c.minutes)}`}
+                    </li>
+                  ))}
+                </ul>
+              </div>
+            ) : null}
           </section>
           <div className="order-4 space-y-6">
             <Caution />
