@@ -21,7 +21,7 @@ test("a researcher logging diethyl ether into the domestic-type refrigerator FR-
   // The demo's two ether bottles already saturate FR-1 if it fails: one more litre raises nothing
   // new, and the panel says so plainly instead of "nothing new".
   const whatIf = form.whatIf();
-  await expect(whatIf.getByText("Already flagged here", { exact: true })).toBeVisible();
+  await expect(whatIf.getByText(/^Already flagged here \(severity critical\)$/)).toBeVisible();
   await expect(whatIf.getByText(/^Already critical here: diethyl ether in FR-1 could reach 4,650 % LFL if the refrigerator fails \(control lost, 28\.0 °C\)\. Storing more keeps it so\./)).toBeVisible();
   await expect(whatIf.getByText("Critical").first()).toBeVisible();
   await expect(whatIf.getByText(/Nothing new/)).toHaveCount(0);
