@@ -17,7 +17,8 @@
 // is in the future. Latencies are wall time seen by this process, on the same machine (they
 // include waiting for a CPU). An untimed 8 s round of batches of 100 (dated 2018) warms the server
 // first. Options: `--seconds N` per case (default 25), `--loggers N`
-// (default 20), `--findings N` for the register (default 1,000), `--keep-files`. The script
+// (default 20), `--findings N` for the register (default 1,000), `--port N` (default: a free
+// port), `--keep-files`. The script
 // reports; it does not fail.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
@@ -109,7 +110,7 @@ async function main(): Promise<void> {
   closeDb();
   if (sensorIds.length < LOGGERS) throw new Error(`only ${sensorIds.length} sensors in the bench register`);
 
-  const port = await freePort();
+  const port = argValue("--port") ? Number(argValue("--port")) : await freePort();
   const base = `http://127.0.0.1:${port}`;
   const serverLog = fs.openSync(path.join(tempDir, "server.log"), "w");
   const server: ChildProcess = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
