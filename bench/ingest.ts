@@ -22,9 +22,9 @@
 // reports; it does not fail.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
+import { freePort, treeRss } from "./lib/process";
 
 const argValue = (name: string) => {
   const index = process.argv.indexOf(name);
@@ -48,45 +48,6 @@ const MiB = 1024 * 1024;
 const ms = (value: number) => `${value.toFixed(0)} ms`;
 const thousands = (n: number) => Math.round(n).toLocaleString("en-GB");
 const load = () => os.loadavg().map((l) => l.toFixed(2)).join(" ");
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once("error", reject);
-    server.listen(0, "127.0.0.1", () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
-
-/** RSS in bytes of a process and its descendants, from /proc (as bench/abuse.ts). */
-function treeRss(rootPid: number): number {
-  const children = new Map<number, number[]>();
-  for (const entry of fs.readdirSync("/proc")) {
-    if (!/^\d+$/.test(entry)) continue;
-    try {
-      const stat = fs.readFileSync(`/proc/${entry}/stat`, "utf8");
-      const ppid = Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]);
-      children.set(ppid, [...(children.get(ppid) ?? []), Number(entry)]);
-    } catch {
-      // the process ended meanwhile
-    }
-  }
-  let total = 0;
-  const pending = [rootPid];
-  while (pending.length) {
-    const pid = pending.pop()!;
-    try {
-      const match = /VmRSS:\s+(\d+) kB/.exec(fs.readFileSync(`/proc/${pid}/status`, "utf8"));
-      if (match) total += Number(match[1]) * 1024;
-    } catch {
-      // ended
-    }
-    pending.push(...(children.get(pid) ?? []));
-  }
-  return total;
-}
 
 async function main(): Promise<void> {
   const { quantile } = await import("./lib/stats");
