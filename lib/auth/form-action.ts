@@ -3,6 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import type { SubmissionResult } from "@conform-to/react";
 import type { z } from "zod";
 import { DomainError } from "@/lib/errors";
+import { withClearedFields } from "@/lib/validation/cleared-fields";
 import { log } from "@/lib/log";
 import { workerWritesDone } from "@/lib/workers/write-gate";
 import { authorizeAction } from "./guard";
@@ -19,7 +20,8 @@ type Ctx<T> = { user: SessionUser; scope: Scope; input: T };
  * the form keeps what the user typed. Returning a string shows it as a success message.
  */
 export function formAction<S extends z.ZodType>(
-  spec: { action: Action | "public"; schema: S },
+  /** `emptiedClears`: an edit form that sends every field it shows; an optional field sent empty is cleared (null), not left unchanged. */
+  spec: { action: Action | "public"; schema: S; emptiedClears?: boolean },
   handler: (ctx: Ctx<z.output<S>>) => Promise<string | void>,
 ) {
   return async (previous: FormState | FormData | undefined, formData?: FormData): Promise<FormState> => {
@@ -38,7 +40,8 @@ export function formAction<S extends z.ZodType>(
       if (submission.status !== "success") return submission.reply();
       // Wait (without blocking other requests) while a worker is inside a long write.
       await workerWritesDone();
-      const message = await handler({ user: user!, scope, input: submission.value as z.output<S> });
+      const input = spec.emptiedClears ? withClearedFields(spec.schema, formData, submission.value) : submission.value;
+      const message = await handler({ user: user!, scope, input: input as z.output<S> });
       log.info({ action: spec.action, userId: user?.id, outcome: "ok" }, "server action");
       return { ...submission.reply({ resetForm: false }), message: message ?? undefined };
     } catch (error) {

@@ -16,9 +16,10 @@ export const createContainerAction = formAction({ action: "containers.write", sc
   redirect(`/inventory/${container.id}?saved=created`);
 });
 
-export const updateContainerAction = formAction({ action: "containers.write", schema: containerEditFormSchema }, async ({ user, scope, input }) => {
+export const updateContainerAction = formAction({ action: "containers.write", schema: containerEditFormSchema, emptiedClears: true }, async ({ user, scope, input }) => {
   const { id, ...changes } = input;
-  updateContainer(user, scope, id, changes);
+  // The owner list's empty choice reads "Me".
+  updateContainer(user, scope, id, changes.ownerId === null ? { ...changes, ownerId: user.id } : changes);
   revalidatePath(`/inventory/${id}`);
   return "Saved.";
 });

@@ -17,7 +17,7 @@ export const createRoomAction = formAction({ action: "locations.write", schema: 
   redirect(`/locations/rooms/${room.id}`);
 });
 
-export const updateRoomAction = formAction({ action: "locations.write", schema: roomEditFormSchema }, async ({ user, input }) => {
+export const updateRoomAction = formAction({ action: "locations.write", schema: roomEditFormSchema, emptiedClears: true }, async ({ user, input }) => {
   const { id, ...changes } = input;
   updateRoom(user, id, changes);
   revalidatePath(`/locations/rooms/${id}`);
@@ -30,11 +30,10 @@ export const createUnitAction = formAction({ action: "locations.write", schema: 
   return `Added storage unit ${unit.code}.`;
 });
 
-export const updateUnitAction = formAction({ action: "locations.write", schema: storageUnitEditFormSchema }, async ({ user, input }) => {
+export const updateUnitAction = formAction({ action: "locations.write", schema: storageUnitEditFormSchema, emptiedClears: true }, async ({ user, input }) => {
   const { id, ...changes } = input;
-  // The form always shows τ and its note, and Conform reads an emptied field as absent: here empty
-  // means "back to the fitted or default value", not "unchanged".
-  updateStorageUnit(user, id, { ...changes, warmUpTauMin: changes.warmUpTauMin ?? null, warmUpTauNote: changes.warmUpTauNote ?? null });
+  // An emptied τ reads as null: back to the fitted or default value.
+  updateStorageUnit(user, id, changes);
   revalidatePath(`/locations/units/${id}`);
   return "Saved.";
 });

@@ -10,7 +10,7 @@ export const createSubstanceAction = formAction({ action: "substances.write", sc
   redirect(`/substances/${created.id}`);
 });
 
-export const updateSubstanceAction = formAction({ action: "substances.write", schema: substanceEditFormSchema }, async ({ user, input }) => {
+export const updateSubstanceAction = formAction({ action: "substances.write", schema: substanceEditFormSchema, emptiedClears: true }, async ({ user, input }) => {
   const { id, ...values } = input;
   updateSubstance(user, id, values);
   revalidatePath(`/substances/${id}`);
