@@ -6,7 +6,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { and, desc, eq } from "drizzle-orm";
 import { unsealData } from "iron-session";
 import { getDb } from "@/db/client";
-import { auditEvents, rateLimits, settings, sessions, userTokens, users } from "@/db/schema";
+import { auditEvents, emailMessages, rateLimits, settings, sessions, userTokens, users } from "@/db/schema";
 import { SESSION_COOKIE } from "@/lib/auth/session";
 import { signInWithPassword } from "@/lib/auth/sign-in";
 import { forgetOidcConfiguration } from "@/lib/sso/client";
@@ -16,6 +16,7 @@ import { saveSsoSettings, SSO_SETTINGS_KEY } from "@/lib/sso/settings";
 import type { SsoCookieData } from "@/lib/sso/state-cookie";
 import * as startRoute from "@/app/(auth)/sso/route";
 import * as callbackRoute from "@/app/(auth)/sso/callback/route";
+import { inviteUser, requestPasswordReset } from "@/lib/users/service";
 import { makeUser, TEST_PASSWORD } from "./helpers/world";
 
 const PORT = 4151;
@@ -290,5 +291,38 @@ describe("single sign-on", () => {
     }
     const stored = getDb().select().from(settings).where(eq(settings.key, SSO_SETTINGS_KEY)).get()!.value as { requireSso: boolean };
     expect(stored.requireSso).toBe(false);
+  });
+
+  it("invites a person for single sign-on without a password link; their first sign-in links the account", async () => {
+    const a = admin();
+    const invited = await inviteUser({ id: a.id, email: a.email, name: a.name, role: "admin", sessionVersion: 1 } as never, {
+      email: "Ben.Stranger@example.test",
+      name: "Ben Stranger",
+      role: "auditor",
+      signInMethod: "sso",
+    }, { clientIp: "10.0.0.9" });
+    expect(invited).toMatchObject({ signInMethod: "sso", passwordHash: null, role: "auditor" });
+    expect(getDb().select().from(userTokens).where(eq(userTokens.userId, invited.id)).all()).toHaveLength(0);
+    const mail = getDb().select().from(emailMessages).where(eq(emailMessages.recipientUserId, invited.id)).get()!;
+    expect(mail.subject).toBe("You are invited to Headroom");
+    expect(mail.text).toContain("“Sign in with your institution”");
+    expect(mail.text).toContain("http://localhost:3999/sign-in");
+    expect(mail.text).not.toContain("/invitation/");
+    // Password sign-in is refused before the first single sign-on too.
+    await expect(signInWithPassword(invited.email, "anything at all", { clientIp: "10.0.0.9" })).rejects.toThrow(SSO_ACCOUNT_MESSAGE);
+    const result = await signInAs("ben");
+    expect(result.session).toBeDefined();
+    // The group rule decides the role: lab-staff gives researcher.
+    expect(getDb().select().from(users).where(eq(users.id, invited.id)).get()).toMatchObject({ ssoSubject: "ben", role: "researcher" });
+  });
+
+  it("answers a password reset for a single sign-on account with an e-mail that says it has no password", async () => {
+    const ben = getDb().select().from(users).where(eq(users.email, "ben.stranger@example.test")).get()!;
+    expect(await requestPasswordReset(ben.email, { clientIp: "10.0.0.10" })).toBe(true);
+    const mails = getDb().select().from(emailMessages).where(eq(emailMessages.recipientUserId, ben.id)).all();
+    const reset = mails.find((m) => m.kind === "password_reset")!;
+    expect(reset.subject).toBe("Your Headroom account has no password");
+    expect(reset.text).not.toContain("/reset-password/");
+    expect(getDb().select().from(userTokens).where(eq(userTokens.userId, ben.id)).all()).toHaveLength(0);
   });
 });
