@@ -45,7 +45,7 @@ export function completeSsoSignIn(claims: SsoClaims, context: { ip: string; now?
         action: "sign_in_refused",
         entityType: "user",
         entityId: user?.id ?? null,
-        summary: `Single sign-on refused for ${email ?? claims.sub}: ${REFUSAL_SUMMARIES[reason]}`,
+        summary: `Single sign-on refused for ${email ?? claims.sub}: ${REFUSAL_SUMMARIES[reason]} (groups received: ${groups.length ? groups.slice(0, 20).join(", ") : "none"})`,
         after: { method: "sso", reason, email, groups, ip: context.ip },
       });
       return { ok: false, reason, groups, email };

@@ -207,6 +207,7 @@ describe("single sign-on", () => {
     const events = getDb().select().from(auditEvents).where(eq(auditEvents.entityId, String(ava.id))).orderBy(desc(auditEvents.id)).all();
     const signIn = events.find((e) => e.action === "sign_in")!;
     expect(signIn.after).toMatchObject({ method: "sso", role: "safety_officer", groups: ["lab-staff", "safety-office"] });
+    expect(signIn.summary).toBe("ava.invited@example.test signed in with single sign-on");
     expect(events.find((e) => e.action === "change_role")?.after).toEqual({ role: "safety_officer" });
     expect(events.some((e) => e.action === "link_sso")).toBe(true);
 
@@ -242,6 +243,7 @@ describe("single sign-on", () => {
     expect(getDb().select().from(sessions).where(eq(sessions.userId, dev.id)).all()).toHaveLength(0);
     const refusal = getDb().select().from(auditEvents).where(and(eq(auditEvents.action, "sign_in_refused"), eq(auditEvents.entityId, String(dev.id)))).get()!;
     expect(refusal.after).toMatchObject({ method: "sso", reason: "no_group", groups: [] });
+    expect(refusal.summary).toBe("Single sign-on refused for dev.nogroup@example.test: none of the groups received matches a group rule (groups received: none)");
   });
 
   it("refuses a deactivated account and an unverified address", async () => {
@@ -274,6 +276,7 @@ describe("single sign-on", () => {
     expect(signedIn.id).toBe(breakGlass.id);
     const audit = getDb().select().from(auditEvents).where(and(eq(auditEvents.action, "sign_in"), eq(auditEvents.entityId, String(breakGlass.id)))).get()!;
     expect(audit.after).toEqual({ ip: "10.0.0.2", method: "password" });
+    expect(audit.summary).toBe("hal.admin@example.test signed in with a password");
     // The break-glass account keeps its password: single sign-on does not link it.
     expect((await signInAs("hal")).refusal?.reason).toBe("break_glass");
     expect(getDb().select().from(users).where(eq(users.id, breakGlass.id)).get()!.passwordHash).not.toBeNull();
