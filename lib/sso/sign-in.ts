@@ -58,7 +58,7 @@ export function completeSsoSignIn(claims: SsoClaims, context: { ip: string; now?
       .get();
     let user: User | undefined = linked;
     if (!user) {
-      if (!email) return refuse("no_email");
+      if (!email || email.length > 254 || !email.includes("@")) return refuse("no_email");
       if (claims.emailVerified === false) return refuse("email_unverified");
       user = findUserByEmail(email, tx);
       if (user?.ssoSubject) return refuse("other_identity", user);

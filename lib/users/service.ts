@@ -37,6 +37,11 @@ export async function inviteUser(
 ): Promise<User> {
   const email = normaliseEmail(input.email);
   const method = input.signInMethod ?? "password";
+  if (method === "password" && requireSsoActive(readSsoSettings())) {
+    throw new ConflictError("Single sign-on is required for everyone on this installation; invite the person to sign in with their institution.", {
+      signInMethod: ["Password sign-in is switched off: choose their institution."],
+    });
+  }
   if (method === "sso" && !oidcSettings()) {
     throw new ConflictError("Sign-in with the institution is not configured on this installation; invite the person with a password.", {
       signInMethod: ["Not available: no single sign-on provider is configured."],
@@ -132,7 +137,8 @@ export async function setPasswordWithToken(
     if (!row || !user || !user.active || !markTokenUsed(tx, row.id)) {
       throw new ValidationError("This link has expired or was already used. Ask for a new one.");
     }
-    if (user.signInMethod === "sso") {
+    const sso = readSsoSettings(tx);
+    if (user.signInMethod === "sso" || (requireSsoActive(sso) && user.id !== sso.breakGlassUserId)) {
       throw new ValidationError("This account signs in through your institution and has no Headroom password. Use “Sign in with your institution”.");
     }
     const updated = tx
@@ -233,6 +239,10 @@ function requireOtherUser(actor: SessionUser, userId: number, tx: Parameters<typ
   if (!user) throw new NotFoundError("That user");
   if (user.id === actor.id) {
     throw new ConflictError("You cannot change your own role or access; ask another administrator.");
+  }
+  const sso = readSsoSettings(tx);
+  if (requireSsoActive(sso) && sso.breakGlassUserId === user.id) {
+    throw new ConflictError("This is the break-glass administrator while single sign-on is required; choose another under Admin → Single sign-on first.");
   }
   return user;
 }

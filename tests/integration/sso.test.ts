@@ -16,7 +16,7 @@ import { saveSsoSettings, SSO_SETTINGS_KEY } from "@/lib/sso/settings";
 import type { SsoCookieData } from "@/lib/sso/state-cookie";
 import * as startRoute from "@/app/(auth)/sso/route";
 import * as callbackRoute from "@/app/(auth)/sso/callback/route";
-import { inviteUser, requestPasswordReset } from "@/lib/users/service";
+import { changeUserRole, inviteUser, requestPasswordReset, setUserActive } from "@/lib/users/service";
 import { makeUser, TEST_PASSWORD } from "./helpers/world";
 
 const PORT = 4151;
@@ -277,6 +277,11 @@ describe("single sign-on", () => {
     const audit = getDb().select().from(auditEvents).where(and(eq(auditEvents.action, "sign_in"), eq(auditEvents.entityId, String(breakGlass.id)))).get()!;
     expect(audit.after).toEqual({ ip: "10.0.0.2", method: "password" });
     expect(audit.summary).toBe("hal.admin@example.test signed in with a password");
+    // While required, the break-glass administrator cannot be demoted or deactivated, and nobody else is invited with a password.
+    const actor = { id: admin().id, email: admin().email, name: "Admin", role: "admin", sessionVersion: 1 } as never;
+    expect(() => changeUserRole(actor, breakGlass.id, "auditor")).toThrow(/break-glass administrator while single sign-on is required/);
+    expect(() => setUserActive(actor, breakGlass.id, false)).toThrow(/break-glass administrator while single sign-on is required/);
+    await expect(inviteUser(actor, { email: "pw.person@example.test", name: "Pw Person", role: "researcher", signInMethod: "password" }, { clientIp: "10.0.0.3" })).rejects.toThrow(/invite the person to sign in with their institution/);
     // The break-glass account keeps its password: single sign-on does not link it.
     expect((await signInAs("hal")).refusal?.reason).toBe("break_glass");
     expect(getDb().select().from(users).where(eq(users.id, breakGlass.id)).get()!.passwordHash).not.toBeNull();
