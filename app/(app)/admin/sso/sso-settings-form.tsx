@@ -32,6 +32,10 @@ export function SsoSettingsForm({
   const breakGlass = getSelectProps(fields.breakGlassUserId);
   return (
     <form {...getFormProps(form)} action={dispatch} className="space-y-6" noValidate>
+      {/* The form's default button: Enter in a field saves (the rule buttons below also submit, with their own intent). */}
+      <button type="submit" className="sr-only" tabIndex={-1} aria-hidden="true">
+        Save
+      </button>
       <FormMessage id={form.errorId} errors={form.errors} success={success} />
 
       <fieldset>
@@ -63,13 +67,13 @@ export function SsoSettingsForm({
                   </select>
                 </Field>
                 <div className="flex gap-1 pt-6">
-                  <Button type="button" variant="ghost" size="sm" disabled={index === 0} aria-label={`Move rule ${index + 1} up`} {...form.reorder.getButtonProps({ name: fields.mappings.name, from: index, to: index - 1 })}>
+                  <Button type="submit" variant="ghost" size="sm" disabled={index === 0} aria-label={`Move rule ${index + 1} up`} {...form.reorder.getButtonProps({ name: fields.mappings.name, from: index, to: index - 1 })}>
                     ↑
                   </Button>
-                  <Button type="button" variant="ghost" size="sm" disabled={index === rules.length - 1} aria-label={`Move rule ${index + 1} down`} {...form.reorder.getButtonProps({ name: fields.mappings.name, from: index, to: index + 1 })}>
+                  <Button type="submit" variant="ghost" size="sm" disabled={index === rules.length - 1} aria-label={`Move rule ${index + 1} down`} {...form.reorder.getButtonProps({ name: fields.mappings.name, from: index, to: index + 1 })}>
                     ↓
                   </Button>
-                  <Button type="button" variant="ghost" size="sm" aria-label={`Remove rule ${index + 1}`} {...form.remove.getButtonProps({ name: fields.mappings.name, index })}>
+                  <Button type="submit" variant="ghost" size="sm" aria-label={`Remove rule ${index + 1}`} {...form.remove.getButtonProps({ name: fields.mappings.name, index })}>
                     Remove
                   </Button>
                 </div>
@@ -77,7 +81,7 @@ export function SsoSettingsForm({
             );
           })}
         </ol>
-        <Button type="button" variant="secondary" size="sm" className="mt-3" {...form.insert.getButtonProps({ name: fields.mappings.name, defaultValue: { group: "", role: "" } as never })}>
+        <Button type="submit" variant="secondary" size="sm" className="mt-3" {...form.insert.getButtonProps({ name: fields.mappings.name, defaultValue: { group: "", role: "" } as never })}>
           Add a group rule
         </Button>
       </fieldset>
