@@ -173,6 +173,20 @@ describe("single sign-on", () => {
     expect(sealed).not.toContain(q.get("state")!);
   });
 
+  it("counts each start against the sign-in limit for the address and sends the person back to the sign-in page beyond it", async () => {
+    process.env.RATE_LIMIT_SIGN_IN_IP = "2";
+    try {
+      await startSignIn();
+      await startSignIn();
+      const refused = await startRoute.GET(new Request(`${APP}/sso`), ctx);
+      expect(refused.status).toBe(303);
+      expect(refused.headers.get("location")).toBe(`${APP}/sign-in?sso=limited`);
+      expect(refused.headers.getSetCookie()).toHaveLength(0);
+    } finally {
+      delete process.env.RATE_LIMIT_SIGN_IN_IP;
+    }
+  });
+
   it("refuses a tampered or missing state with the refusal page, and signs nobody in", async () => {
     makeUser("researcher", { email: "ava.invited@example.test", passwordHash: null });
     const { authUrl, ssoCookie } = await startSignIn();

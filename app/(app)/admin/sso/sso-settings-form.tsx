@@ -110,7 +110,7 @@ export function SsoSettingsForm({
           hint="An active administrator who keeps a password, for when the institution's sign-in is down. Keep the password in a safe place."
           errors={fields.breakGlassUserId.errors}
         >
-          <select {...breakGlass} key={breakGlass.key} className={inputClass}>
+          <select {...breakGlass} key={breakGlass.key} className={inputClass} aria-describedby={describedBy(fields.breakGlassUserId.id, "hint", fields.breakGlassUserId.errors)}>
             <option value="">None</option>
             {admins.map((a) => (
               <option key={a.id} value={String(a.id)}>
