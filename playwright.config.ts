@@ -2,8 +2,11 @@ import { defineConfig } from "@playwright/test";
 
 const PORT = Number(process.env.E2E_PORT || 3100);
 const EMAIL_FAKE_PORT = Number(process.env.E2E_EMAIL_FAKE_PORT || 3125);
+// Single sign-on: the local OpenID Connect provider started by the demo.
+const OIDC_FAKE_PORT = Number(process.env.E2E_OIDC_FAKE_PORT || 3126);
 export const BASE_URL = `http://localhost:${PORT}`;
 export const EMAIL_FAKE_URL = `http://127.0.0.1:${EMAIL_FAKE_PORT}`;
+export const OIDC_FAKE_URL = `http://127.0.0.1:${OIDC_FAKE_PORT}`;
 
 export default defineConfig({
   testDir: "tests/e2e",
@@ -41,6 +44,7 @@ export default defineConfig({
     env: {
       PORT: String(PORT),
       EMAIL_FAKE_PORT: String(EMAIL_FAKE_PORT),
+      OIDC_FAKE_PORT: String(OIDC_FAKE_PORT),
       DATABASE_PATH: process.env.E2E_DATABASE_PATH || "data/e2e/headroom.db",
       APP_URL: BASE_URL,
       NEXT_TELEMETRY_DISABLED: "1",

@@ -71,10 +71,21 @@ export const users = sqliteTable(
     dailyDigest: integer("daily_digest", { mode: "boolean" }).notNull().default(true),
     lastSignInAt: integer("last_sign_in_at", { mode: "timestamp_ms" }),
     invitedById: integer("invited_by_id").references((): AnySQLiteColumn => users.id, { onDelete: "set null" }),
+    // --- Single sign-on (lib/sso) ---------------------------------------------------------------
+    /** How the person signs in: "password", or "sso" through the institution's provider (no local password). */
+    signInMethod: text("sign_in_method", { enum: ["password", "sso"] }).notNull().default("password"),
+    /** The provider's `iss` and `sub`, set at the first single sign-on; together unique. */
+    ssoIssuer: text("sso_issuer"),
+    ssoSubject: text("sso_subject"),
+    // --- end single sign-on ----------------------------------------------------------------------
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [uniqueIndex("users_email_unique").on(t.email), index("users_invited_by_idx").on(t.invitedById)],
+  (t) => [
+    uniqueIndex("users_email_unique").on(t.email),
+    index("users_invited_by_idx").on(t.invitedById),
+    uniqueIndex("users_sso_identity_unique").on(t.ssoIssuer, t.ssoSubject),
+  ],
 );
 export type User = typeof users.$inferSelect;
 export type NewUser = typeof users.$inferInsert;

@@ -1,6 +1,7 @@
 import "server-only";
 import path from "node:path";
 import { databasePath } from "@/db/client";
+import { issuerProblem } from "@/lib/sso/rules";
 
 /** Settings read from the environment, with the defaults that make a fresh clone work. */
 export const DEV_SESSION_SECRET = "headroom-development-secret-not-for-production-use";
@@ -168,3 +169,36 @@ export function rateLimitSettings() {
 }
 
 export type RateLimitName = keyof ReturnType<typeof rateLimitSettings>;
+
+// --- Single sign-on (OpenID Connect) -------------------------------------------------------------
+
+/** The institution's OpenID Connect provider: OIDC_ISSUER, OIDC_CLIENT_ID, OIDC_CLIENT_SECRET. */
+export type OidcSettings = { issuer: string; clientId: string; clientSecret: string };
+
+/**
+ * The provider, or null when OIDC_ISSUER is not set (single sign-on off). A set issuer with a
+ * missing client id or secret, or an issuer that is neither https nor http on this machine, is a
+ * configuration error. The issuer is used exactly as written: it must match the provider's own
+ * `issuer` (a trailing slash counts).
+ */
+export function oidcSettings(): OidcSettings | null {
+  const issuer = (process.env.OIDC_ISSUER ?? "").trim();
+  if (!issuer) return null;
+  const problem = issuerProblem(issuer);
+  if (problem) throw new Error(problem);
+  const clientId = (process.env.OIDC_CLIENT_ID ?? "").trim();
+  const clientSecret = process.env.OIDC_CLIENT_SECRET ?? "";
+  if (!clientId) throw new Error("OIDC_CLIENT_ID is not set; it is required when OIDC_ISSUER is set.");
+  if (clientId.length > 255) throw new Error("OIDC_CLIENT_ID is too long (at most 255 characters).");
+  if (!clientSecret) throw new Error("OIDC_CLIENT_SECRET is not set; it is required when OIDC_ISSUER is set.");
+  return { issuer, clientId, clientSecret };
+}
+
+/** The address the provider sends people back to; register it with the provider. */
+export function oidcRedirectUri(): string {
+  return `${appUrl()}/sso/callback`;
+}
+
+export function oidcFakePort(): number {
+  return Number(process.env.OIDC_FAKE_PORT || 3026);
+}

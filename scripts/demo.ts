@@ -1,6 +1,7 @@
 /**
  * `npm run demo`: migrates and (when empty) seeds the database, builds the app, and serves it on
- * PORT (default 3000) with the local e-mail fake on EMAIL_FAKE_PORT (default 3025).
+ * PORT (default 3000) with the local e-mail fake on EMAIL_FAKE_PORT (default 3025) and the local
+ * OpenID Connect provider on OIDC_FAKE_PORT (default 3026) unless OIDC_ISSUER names another provider.
  * Flags: --fresh deletes the database file first (tests); --no-build serves the existing build.
  * The build is `next build` and then the worker threads' bundle (scripts/build-workers.ts).
  */
@@ -12,12 +13,14 @@ import { closeDb, databasePath, getDb } from "../db/client";
 import { seedDemo } from "../db/seed/demo";
 import { DEMO_INGEST_KEY } from "../db/seed/demo-readings";
 import { startEmailFake } from "../lib/mail/fake-server";
+import { DEMO_OIDC_CLIENT_ID, DEMO_OIDC_CLIENT_SECRET, DEMO_SSO_PEOPLE, startOidcFake } from "../lib/sso/fake-provider";
 import { buildWorkerBundle } from "./build-workers";
 
 const args = new Set(process.argv.slice(2));
 process.env.NEXT_TELEMETRY_DISABLED = "1";
 const port = Number(process.env.PORT || 3000);
 const fakePort = Number(process.env.EMAIL_FAKE_PORT || 3025);
+const oidcFakePort = Number(process.env.OIDC_FAKE_PORT || 3026);
 const dbFile = databasePath();
 
 function say(message: string) {
@@ -62,6 +65,24 @@ async function main() {
     say(`e-mail fake not started on port ${fakePort} (${(error as Error).message}); using whatever listens there`);
   }
 
+  // --- Single sign-on: the local provider, unless the operator named a real one ---
+  const appUrl = (process.env.APP_URL || `http://localhost:${port}`).replace(/\/+$/, "");
+  const localIssuer = `http://localhost:${oidcFakePort}`;
+  let oidcFake: Awaited<ReturnType<typeof startOidcFake>> | undefined;
+  let oidcEnv: Record<string, string> = {};
+  if (!process.env.OIDC_ISSUER || process.env.OIDC_ISSUER === localIssuer) {
+    try {
+      oidcFake = await startOidcFake({ port: oidcFakePort, redirectUris: [`${appUrl}/sso/callback`] });
+      say(`single sign-on: local provider on ${oidcFake.issuer} (people: ${oidcFake.issuer}/people); demo people, password ${DEMO_SSO_PEOPLE[0].password}:`);
+      for (const p of DEMO_SSO_PEOPLE) say(`  ${p.login}: ${p.name} <${p.email}>, groups: ${p.groups.join(", ") || "none"}`);
+    } catch (error) {
+      say(`single sign-on: local provider not started on port ${oidcFakePort} (${(error as Error).message}); using whatever listens there`);
+    }
+    oidcEnv = { OIDC_ISSUER: localIssuer, OIDC_CLIENT_ID: DEMO_OIDC_CLIENT_ID, OIDC_CLIENT_SECRET: DEMO_OIDC_CLIENT_SECRET };
+  } else {
+    say(`single sign-on: provider ${process.env.OIDC_ISSUER}`);
+  }
+
   const server = spawn("npx", ["next", "start", "-p", String(port)], {
     stdio: "inherit",
     env: {
@@ -71,17 +92,20 @@ async function main() {
       APP_URL: process.env.APP_URL || `http://localhost:${port}`,
       RESEND_BASE_URL: process.env.RESEND_BASE_URL || `http://127.0.0.1:${fakePort}`,
       COOKIE_SECURE: process.env.COOKIE_SECURE || "false",
+      ...oidcEnv,
     },
   });
   say(`serving on http://localhost:${port}`);
   const stop = () => {
     server.kill("SIGTERM");
     void fake?.close();
+    void oidcFake?.close();
   };
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);
   server.on("exit", (code) => {
     void fake?.close();
+    void oidcFake?.close();
     process.exit(code ?? 0);
   });
 }

@@ -15,8 +15,10 @@ export function findUserById(id: number, db: DbOrTx = getDb()): User | undefined
   return db.select().from(users).where(eq(users.id, id)).get();
 }
 
-export type UserListRow = Pick<User, "id" | "email" | "name" | "role" | "active" | "lastSignInAt" | "createdAt"> & {
+export type UserListRow = Pick<User, "id" | "email" | "name" | "role" | "active" | "lastSignInAt" | "createdAt" | "signInMethod"> & {
   hasPassword: boolean;
+  /** Linked to an identity at the institution's provider (signed in with it at least once). */
+  ssoLinked: boolean;
 };
 
 export function listUsers(db: DbOrTx = getDb()): UserListRow[] {
@@ -30,6 +32,8 @@ export function listUsers(db: DbOrTx = getDb()): UserListRow[] {
       lastSignInAt: users.lastSignInAt,
       createdAt: users.createdAt,
       hasPassword: sql<boolean>`${users.passwordHash} is not null`.mapWith(Boolean),
+      signInMethod: users.signInMethod,
+      ssoLinked: sql<boolean>`${users.ssoSubject} is not null`.mapWith(Boolean),
     })
     .from(users)
     .orderBy(asc(users.name))

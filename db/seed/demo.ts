@@ -7,6 +7,7 @@ import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { rooms, sites, storageUnits, users, type NewRoom, type NewStorageUnit, type Role } from "@/db/schema";
+import { seedDemoSso } from "./demo-sso";
 import { recordAudit } from "@/lib/audit/record";
 import { seedDemoInventory } from "./demo-inventory";
 import { seedDemoTemperatures } from "./demo-readings";
@@ -219,6 +220,8 @@ export async function seedDemo(db: Db, options: { bcryptCost?: number; nowMs?: n
         }
       }
     }
+    // Single sign-on: group rules and one person invited to sign in with the institution.
+    seedDemoSso(tx, people.admin);
     const containerCount = seedDemoInventory(tx, { researcherId: people.researcher.id, safetyId: people.safety_officer.id, facilitiesId: people.facilities.id }, nowMs);
     const temperatures = seedDemoTemperatures(tx, db.$client, { adminId: people.admin.id, facilities: people.facilities }, nowMs);
     // The first assessment of every location: the register starts where the demo's data puts it.

@@ -61,6 +61,9 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   comment: "Commented",
   assigned: "Assigned",
   reopened: "Re-opened",
+  // Single sign-on
+  sign_in_refused: "Sign-in refused",
+  link_sso: "Linked to single sign-on",
 };
 
 /** Fields never listed as changes: bookkeeping, secrets and the record's own id. */
@@ -133,6 +136,16 @@ const FIELD_LABELS: Record<string, string> = {
   components: "Components",
   fractionBasis: "Fraction basis",
   physicalState: "Physical state",
+  // Single sign-on
+  method: "Method",
+  signInMethod: "Sign-in method",
+  reason: "Reason",
+  groups: "Groups received",
+  mappings: "Group rules",
+  group: "Group",
+  jitDomains: "Accounts made at first sign-in for",
+  requireSso: "Single sign-on required",
+  breakGlassUserId: "Break-glass administrator",
 };
 
 /** Codes with their own words, by field. */
@@ -145,6 +158,17 @@ const VALUE_LABELS: Record<string, Record<string, string>> = {
   state: CONTAINER_STATE_LABELS,
   alertExcursions: { immediate: "As they happen", digest: "In the daily digest", off: "Off" },
   alertFindings: { immediate: "As they happen", digest: "In the daily digest", off: "Off" },
+  method: { password: "Password", sso: "Single sign-on" },
+  signInMethod: { password: "Password", sso: "Single sign-on" },
+  reason: {
+    no_group: "No group rule matches",
+    not_invited: "Not invited",
+    deactivated: "Account deactivated",
+    no_email: "No e-mail address sent",
+    email_unverified: "E-mail address not verified",
+    other_identity: "Linked to another identity",
+    break_glass: "Break-glass account (password only)",
+  },
 };
 
 /** Fields that hold the id of another record, and which: the log names the record, not its number. */
@@ -154,6 +178,7 @@ export const AUDIT_REFERENCE_FIELDS = {
   facilitiesContactId: "user",
   acknowledgedById: "user",
   invitedById: "user",
+  breakGlassUserId: "user",
   roomId: "room",
   storageUnitId: "storage_unit",
   siteId: "site",

@@ -25,6 +25,11 @@ export const inviteUserSchema = z.object({
   email,
   name: z.string({ error: "Enter the person's name." }).trim().min(1, "Enter the person's name.").max(120),
   role: z.enum(ROLES, { error: "Choose a role." }),
+  /** "sso": the person signs in through the institution (no password link). */
+  signInMethod: z
+    .enum(["password", "sso"], { error: "Choose how the person signs in: with a password or with their institution." })
+    .optional()
+    .transform((v) => v ?? "password"),
 });
 
 export const changeRoleSchema = z.object({

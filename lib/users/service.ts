@@ -1,16 +1,17 @@
 import "server-only";
-import { eq, sql } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { countActiveAdmins, findUserByEmail, findUserById, normaliseEmail } from "@/db/queries/users";
-import { sessions, users, type Role, type User } from "@/db/schema";
-import { invitationEmail } from "@/emails/invitation";
+import { sessions, userTokens, users, type Role, type User } from "@/db/schema";
+import { invitationEmail, ssoInvitationEmail, ssoPasswordResetEmail } from "@/emails/invitation";
 import { passwordResetEmail } from "@/emails/password-reset";
 import { recordAudit } from "@/lib/audit/record";
 import { hashPassword } from "@/lib/auth/passwords";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { findUsableToken, issueUserToken, markTokenUsed } from "@/lib/auth/tokens";
-import { appUrl } from "@/lib/config";
+import { appUrl, oidcSettings } from "@/lib/config";
+import { readSsoSettings, requireSsoActive } from "@/lib/sso/settings";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
 import { currentClientIp } from "@/lib/http/client-ip";
 import { consume, limit } from "@/lib/rate-limit";
@@ -25,51 +26,75 @@ export const PASSWORD_RESET_TTL_MS = 60 * 60 * 1000;
 /**
  * Invites a person: the account exists at once without a password, and the invitation e-mail
  * is queued in the same transaction. Inviting an address that was invited but never activated
- * sends a fresh link (the old one stops working).
+ * sends a fresh link (the old one stops working). A person invited for single sign-on gets no
+ * link to set a password: the e-mail tells them to use "Sign in with your institution", and the
+ * account is linked at their first sign-in there.
  */
 export async function inviteUser(
   actor: SessionUser,
-  input: { email: string; name: string; role: Role },
+  input: { email: string; name: string; role: Role; signInMethod?: "password" | "sso" },
   context: { clientIp?: string } = {},
 ): Promise<User> {
   const email = normaliseEmail(input.email);
+  const method = input.signInMethod ?? "password";
+  if (method === "password" && requireSsoActive(readSsoSettings())) {
+    throw new ConflictError("Single sign-on is required for everyone on this installation; invite the person to sign in with their institution.", {
+      signInMethod: ["Password sign-in is switched off: choose their institution."],
+    });
+  }
+  if (method === "sso" && !oidcSettings()) {
+    throw new ConflictError("Sign-in with the institution is not configured on this installation; invite the person with a password.", {
+      signInMethod: ["Not available: no single sign-on provider is configured."],
+    });
+  }
   await limit("invitationIp", context.clientIp ?? (await currentClientIp()));
   await limit("invitationAddress", email);
   const db = getDb();
   const user = db.transaction((tx) => {
     let user = findUserByEmail(email, tx);
-    if (user?.passwordHash) {
+    if (user?.passwordHash || user?.ssoSubject) {
       throw new ConflictError("That person already has an account.", { email: ["That person already has an account."] });
     }
     if (user) {
       user = tx
         .update(users)
-        .set({ name: input.name, role: input.role, active: true, updatedAt: new Date() })
+        .set({ name: input.name, role: input.role, signInMethod: method, active: true, updatedAt: new Date() })
         .where(eq(users.id, user.id))
         .returning()
         .get();
     } else {
-      user = tx.insert(users).values({ email, name: input.name, role: input.role, invitedById: actor.id }).returning().get();
+      user = tx.insert(users).values({ email, name: input.name, role: input.role, signInMethod: method, invitedById: actor.id }).returning().get();
     }
-    const token = issueUserToken(tx, { userId: user.id, kind: "invitation", ttlMs: INVITATION_TTL_MS, createdById: actor.id });
-    enqueueEmail(tx, {
-      kind: "invitation",
-      to: [email],
-      recipientUserId: user.id,
-      ...invitationEmail({
-        inviteeName: input.name,
-        inviterName: actor.name,
-        roleLabel: ROLE_LABELS[input.role],
-        link: `${appUrl()}/invitation/${token}`,
-        expiresInDays: INVITATION_TTL_MS / 86_400_000,
-      }),
-    });
+    if (method === "sso") {
+      // No password link; any earlier one stops working.
+      tx.update(userTokens).set({ usedAt: new Date() }).where(and(eq(userTokens.userId, user.id), isNull(userTokens.usedAt))).run();
+      enqueueEmail(tx, {
+        kind: "invitation",
+        to: [email],
+        recipientUserId: user.id,
+        ...ssoInvitationEmail({ inviteeName: input.name, inviterName: actor.name, roleLabel: ROLE_LABELS[input.role], signInLink: `${appUrl()}/sign-in` }),
+      });
+    } else {
+      const token = issueUserToken(tx, { userId: user.id, kind: "invitation", ttlMs: INVITATION_TTL_MS, createdById: actor.id });
+      enqueueEmail(tx, {
+        kind: "invitation",
+        to: [email],
+        recipientUserId: user.id,
+        ...invitationEmail({
+          inviteeName: input.name,
+          inviterName: actor.name,
+          roleLabel: ROLE_LABELS[input.role],
+          link: `${appUrl()}/invitation/${token}`,
+          expiresInDays: INVITATION_TTL_MS / 86_400_000,
+        }),
+      });
+    }
     recordAudit(tx, actor, {
       action: "invite",
       entityType: "user",
       entityId: user.id,
-      summary: `Invited ${email} as ${ROLE_LABELS[input.role]}`,
-      after: { email, name: input.name, role: input.role },
+      summary: `Invited ${email} as ${ROLE_LABELS[input.role]}${method === "sso" ? " to sign in with the institution" : ""}`,
+      after: { email, name: input.name, role: input.role, signInMethod: method },
     });
     return user;
   });
@@ -111,6 +136,10 @@ export async function setPasswordWithToken(
     const user = row ? findUserById(row.userId, tx) : undefined;
     if (!row || !user || !user.active || !markTokenUsed(tx, row.id)) {
       throw new ValidationError("This link has expired or was already used. Ask for a new one.");
+    }
+    const sso = readSsoSettings(tx);
+    if (user.signInMethod === "sso" || (requireSsoActive(sso) && user.id !== sso.breakGlassUserId)) {
+      throw new ValidationError("This account signs in through your institution and has no Headroom password. Use “Sign in with your institution”.");
     }
     const updated = tx
       .update(users)
@@ -163,7 +192,25 @@ function queuePasswordReset(email: string): boolean {
   const db = getDb();
   const queued = db.transaction((tx) => {
     const user = findUserByEmail(email, tx);
-    if (!user || !user.active || !user.passwordHash) return false;
+    if (!user || !user.active) return false;
+    const sso = readSsoSettings(tx);
+    if (user.signInMethod === "sso" || (requireSsoActive(sso) && user.id !== sso.breakGlassUserId)) {
+      // No password to reset: say so by e-mail, where only the address's owner reads it.
+      enqueueEmail(tx, {
+        kind: "password_reset",
+        to: [user.email],
+        recipientUserId: user.id,
+        ...ssoPasswordResetEmail({ name: user.name, signInLink: `${appUrl()}/sign-in` }),
+      });
+      recordAudit(tx, { system: "password reset" }, {
+        action: "request_password_reset",
+        entityType: "user",
+        entityId: user.id,
+        summary: `Password reset asked for ${user.email}, who signs in with the institution: told so by e-mail`,
+      });
+      return true;
+    }
+    if (!user.passwordHash) return false;
     const token = issueUserToken(tx, { userId: user.id, kind: "password_reset", ttlMs: PASSWORD_RESET_TTL_MS });
     enqueueEmail(tx, {
       kind: "password_reset",
@@ -192,6 +239,10 @@ function requireOtherUser(actor: SessionUser, userId: number, tx: Parameters<typ
   if (!user) throw new NotFoundError("That user");
   if (user.id === actor.id) {
     throw new ConflictError("You cannot change your own role or access; ask another administrator.");
+  }
+  const sso = readSsoSettings(tx);
+  if (requireSsoActive(sso) && sso.breakGlassUserId === user.id) {
+    throw new ConflictError("This is the break-glass administrator while single sign-on is required; choose another under Admin → Single sign-on first.");
   }
   return user;
 }

@@ -11,7 +11,12 @@ import { inviteUserAction } from "./actions";
 
 const roleOptions = ROLES.map((role) => ({ value: role, label: ROLE_LABELS[role] }));
 
-export function InviteForm() {
+const methodOptions = [
+  { value: "password", label: "Password (e-mailed link to set one)" },
+  { value: "sso", label: "Their institution (single sign-on)" },
+];
+
+export function InviteForm({ sso = false }: { sso?: boolean }) {
   const { form, fields, pending, lastResult, dispatch } = useServerForm(inviteUserSchema, inviteUserAction, { id: "invite-user" });
   const success = lastResult?.status === "success" ? lastResult.message : undefined;
   return (
@@ -20,6 +25,7 @@ export function InviteForm() {
       <TextField field={fields.name} label="Name" autoComplete="off" />
       <TextField field={fields.email} label="E-mail address" type="email" autoComplete="off" />
       <SelectField field={fields.role} label="Role" options={roleOptions} placeholder="Choose a role" />
+      {sso ? <SelectField field={fields.signInMethod} label="Signs in with" options={methodOptions} /> : null}
       <Button type="submit" disabled={pending}>
         {pending ? "Sending…" : "Send invitation"}
       </Button>

@@ -6,6 +6,7 @@ import { requirePagePermission } from "@/lib/auth/page";
 import { countLiveSessionsByUser } from "@/lib/auth/session-store";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format/numbers";
+import { ssoConfigured } from "@/lib/sso/client";
 import { AdminTabs } from "./admin-tabs";
 import { InviteForm } from "./invite-form";
 import { UserRowActions } from "./user-row-actions";
@@ -26,7 +27,8 @@ export default async function AdminPage() {
   const { user } = await requirePagePermission("users.manage");
   const people = listUsers();
   const sessionCounts = countLiveSessionsByUser();
-  const pending = people.filter((p) => p.active && !p.hasPassword).length;
+  const pending = people.filter((p) => p.active && !p.hasPassword && !p.ssoLinked).length;
+  const sso = ssoConfigured();
   return (
     <div>
       <PageHeader
@@ -43,6 +45,7 @@ export default async function AdminPage() {
                   <th scope="col" className="px-4 py-2 font-medium">Name</th>
                   <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Role</th>
                   <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(2)}`}>Status</th>
+                  <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(3)}`}>Signs in with</th>
                   <th scope="col" className={`px-4 py-2 font-medium ${priorityCellClass(3)}`}>Last sign-in</th>
                   <th scope="col" className="px-4 py-2 font-medium">Change</th>
                 </tr>
@@ -50,7 +53,8 @@ export default async function AdminPage() {
               <tbody>
                 {people.map((person) => {
                   const role = ROLE_LABELS[person.role];
-                  const status = <StatusText active={person.active} activated={person.hasPassword} />;
+                  const status = <StatusText active={person.active} activated={person.hasPassword || person.ssoLinked} />;
+                  const method = person.signInMethod === "sso" ? "Institution (single sign-on)" : "Password";
                   const lastSignIn = (
                     <>
                       {person.lastSignInAt ? formatDateTime(person.lastSignInAt) : "never"}
@@ -65,6 +69,7 @@ export default async function AdminPage() {
                         <SecondaryValues
                           items={[
                             { key: "role", label: "Role", value: role, priority: 2 },
+                            { key: "method", label: "Signs in with", value: method, priority: 3 },
                             { key: "status", label: "Status", value: status, priority: 2 },
                             {
                             key: "signIn",
@@ -77,6 +82,7 @@ export default async function AdminPage() {
                       </th>
                       <td className={`px-4 py-3 text-ink-800 ${priorityCellClass(2)}`}>{role}</td>
                       <td className={`whitespace-nowrap px-4 py-3 text-xs font-medium ${priorityCellClass(2)}`}>{status}</td>
+                      <td className={`px-4 py-3 text-xs text-ink-700 ${priorityCellClass(3)}`}>{method}</td>
                       <td className={`tabular whitespace-nowrap px-4 py-3 text-xs text-ink-600 ${priorityCellClass(3)}`}>{lastSignIn}</td>
                       <td className="px-4 py-3">
                         <UserRowActions userId={person.id} name={person.name} role={person.role} active={person.active} isSelf={person.id === user.id} sessionCount={sessionCounts.get(person.id) ?? 0} />
@@ -89,8 +95,11 @@ export default async function AdminPage() {
           </div>
         </Card>
         <Card title="Invite a person">
-          <p className="mb-4 text-sm text-ink-600">They receive a link by e-mail, valid for seven days, to choose a password.</p>
-          <InviteForm />
+          <p className="mb-4 text-sm text-ink-600">
+            They receive a link by e-mail, valid for seven days, to choose a password
+            {sso ? "; or, invited for their institution's sign-in, an e-mail telling them to use “Sign in with your institution”" : ""}.
+          </p>
+          <InviteForm sso={sso} />
         </Card>
       </div>
     </div>
