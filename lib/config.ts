@@ -168,3 +168,26 @@ export function rateLimitSettings() {
 }
 
 export type RateLimitName = keyof ReturnType<typeof rateLimitSettings>;
+
+// --- Webhooks -------------------------------------------------------------------------------
+
+/**
+ * Plain http:// webhook URLs, to the loopback only (the local receiver of the demo and tests):
+ * WEBHOOK_ALLOW_HTTP_LOOPBACK=true|false, on by default outside production. Everything else is https.
+ */
+export function webhookAllowHttpLoopback(): boolean {
+  const value = process.env.WEBHOOK_ALLOW_HTTP_LOOPBACK;
+  if (value === "true") return true;
+  if (value === "false") return false;
+  return !isProduction();
+}
+
+/** The local webhook receiver's port (WEBHOOK_FAKE_PORT, default 3027). */
+export function webhookFakePort(): number {
+  return Number(process.env.WEBHOOK_FAKE_PORT || 3027);
+}
+
+/** Where the admin page reads the local receiver's recordings: only when WEBHOOK_FAKE_PORT is set (npm run demo sets it). */
+export function webhookReceiverUrl(): string | null {
+  return process.env.WEBHOOK_FAKE_PORT ? `http://127.0.0.1:${webhookFakePort()}` : null;
+}
