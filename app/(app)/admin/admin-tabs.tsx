@@ -1,6 +1,6 @@
 import { SectionTabs } from "@/components/ui/section-tabs";
 
-export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" }) {
+export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" | "webhooks" }) {
   return (
     <SectionTabs
       label="Administration"
@@ -9,6 +9,8 @@ export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" 
         { key: "users", href: "/admin", label: "People and roles" },
         { key: "api-keys", href: "/admin/api-keys", label: "API keys" },
         { key: "mail", href: "/admin/mail", label: "E-mail" },
+        // Webhooks: signed deliveries to receivers admins register.
+        { key: "webhooks", href: "/admin/webhooks", label: "Webhooks" },
       ]}
     />
   );
