@@ -332,3 +332,38 @@ describe("the admin's server actions", () => {
     expect(decryptWebhookSecret(getDb().select().from(webhookEndpoints).where(eq(webhookEndpoints.id, row.id)).get()!.secretEncrypted)).toBe(rotated.message);
   });
 });
+
+describe("the demo's endpoint and the local receiver", () => {
+  it("registers the receiver once, follows its port, and the receiver checks signatures with the demo secret", async () => {
+    const { DEMO_WEBHOOK_SECRET, ensureDemoWebhookEndpoint } = await import("@/lib/webhooks/demo-endpoint");
+    const demoReceiver = await startWebhookReceiver({ port: 0, secret: DEMO_WEBHOOK_SECRET });
+    try {
+      const first = ensureDemoWebhookEndpoint(getDb(), "http://127.0.0.1:1/headroom");
+      const again = ensureDemoWebhookEndpoint(getDb(), `${demoReceiver.url}/headroom`);
+      expect(again).toBe(first);
+      const row = getDb().select().from(webhookEndpoints).where(eq(webhookEndpoints.id, first)).get()!;
+      expect(row).toMatchObject({ url: `${demoReceiver.url}/headroom`, allowPrivate: true, active: true, events: [...WEBHOOK_EVENT_TYPES] });
+      expect(decryptWebhookSecret(row.secretEncrypted)).toBe(DEMO_WEBHOOK_SECRET);
+
+      getDb().update(containers).set({ state: "sealed" }).where(eq(containers.label, "HK-ETHER")).run();
+      getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "the bottle is back" }));
+      await deliverDueWebhooks();
+      expect(demoReceiver.received.length).toBeGreaterThan(0);
+      expect(demoReceiver.received.every((r) => r.signatureValid === true && r.answeredStatus === 200 && r.eventType === "finding.raised")).toBe(true);
+
+      // A receiver holding another secret records the signature as invalid and answers 401: the delivery waits for a retry.
+      demoReceiver.received.length = 0;
+      demoReceiver.setSecret(`whsec_${Buffer.from("some-other-secret-entirely-000000").toString("base64")}`);
+      getDb().update(containers).set({ state: "disposed" }).where(eq(containers.label, "HK-ETHER")).run();
+      getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "disposed of again" }));
+      const run = await deliverDueWebhooks();
+      expect(run.retrying).toBeGreaterThan(0);
+      const refused = demoReceiver.received.find((r) => r.eventType === "finding.resolved")!;
+      expect(refused).toMatchObject({ signatureValid: false, verifyError: "No matching signature found", answeredStatus: 401 });
+      const response = await fetch(`${demoReceiver.url}/deliveries`);
+      expect(((await response.json()) as { data: unknown[] }).data).toHaveLength(demoReceiver.received.length);
+    } finally {
+      await demoReceiver.close();
+    }
+  });
+});
