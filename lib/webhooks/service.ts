@@ -145,6 +145,7 @@ export function listWebhookDeliveries(filter: { endpointId?: number; status?: We
       id: webhookDeliveries.id,
       endpointId: webhookDeliveries.endpointId,
       endpointDescription: webhookEndpoints.description,
+      endpointActive: webhookEndpoints.active,
       messageId: webhookDeliveries.messageId,
       eventType: webhookDeliveries.eventType,
       payload: webhookDeliveries.payload,

@@ -1,6 +1,6 @@
 "use client";
 import { getFormProps } from "@conform-to/react";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { TextField } from "@/components/forms/text-field";
 import { useServerForm } from "@/components/forms/use-server-form";
 import { Button } from "@/components/ui/button";
@@ -28,6 +28,11 @@ export function EndpointForm({ existing, httpLoopback }: { existing?: Existing; 
   const [dismissed, setDismissed] = useState<string | null>(null);
   const message = lastResult?.status === "success" ? (lastResult as { message?: string }).message : undefined;
   const newSecret = !editing && message?.startsWith("whsec_") ? message : undefined;
+  // A registered endpoint clears the form, so a second click does not register it twice.
+  useEffect(() => {
+    if (newSecret) form.reset();
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- once per new secret
+  }, [newSecret]);
   const eventErrors = fields.events.errors;
   const initialEvents = (fields.events.initialValue as string[] | undefined) ?? [];
   return (

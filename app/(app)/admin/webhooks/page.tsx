@@ -189,7 +189,7 @@ export default async function WebhooksPage({ searchParams }: { searchParams: Pro
                           {d.lastError && d.status !== "delivered" ? (
                             <p className="text-xs text-sev-critical">
                               {d.lastError}
-                              {d.status === "pending" ? ` · next try ${formatDateTime(d.nextAttemptAt)}` : ""}
+                              {d.status === "pending" ? (d.endpointActive ? ` · next try ${formatDateTime(d.nextAttemptAt)}` : " · held while the endpoint is paused") : ""}
                             </p>
                           ) : null}
                           {d.status === "failed" ? <p className="text-xs text-ink-600">Gave up after {MAX_ATTEMPTS} attempts.</p> : null}
