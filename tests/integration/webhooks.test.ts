@@ -367,3 +367,24 @@ describe("the demo's endpoint and the local receiver", () => {
     }
   });
 });
+
+describe("a finding a person resolves", () => {
+  it("sends finding.resolved with resolvedBy person, in the step's transaction", async () => {
+    const { applyFindingStep } = await import("@/lib/register/workflow");
+    const officer = makeUser("safety_officer");
+    getDb().update(containers).set({ state: "sealed" }).where(eq(containers.label, "HK-ETHER")).run();
+    getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "the bottle is back once more" }));
+    await deliverDueWebhooks();
+    const open = getDb().select().from(findings).where(eq(findings.roomId, roomId)).all().filter((f) => f.status === "open");
+    expect(open.length).toBeGreaterThan(0);
+    // Gone from the fridge, not yet re-assessed: the person's resolve is confirmed by the check.
+    getDb().update(containers).set({ state: "disposed" }).where(eq(containers.label, "HK-ETHER")).run();
+    const before = getDb().select().from(webhookDeliveries).all().length;
+    const result = applyFindingStep({ id: officer.id, email: officer.email, name: officer.name, role: officer.role }, open[0].id, { kind: "resolve", note: "Bottle taken to the solvent store." });
+    expect(result.status).toBe("resolved");
+    const fresh = getDb().select().from(webhookDeliveries).all().slice(before);
+    const byPerson = fresh.filter((d) => d.eventType === "finding.resolved" && (JSON.parse(d.payload) as { data: { finding: { id: number; resolvedBy: string } } }).data.finding.id === open[0].id);
+    expect(byPerson.length).toBeGreaterThan(0);
+    expect((JSON.parse(byPerson[0].payload) as { data: { finding: Record<string, unknown> } }).data.finding).toMatchObject({ id: open[0].id, status: "resolved", resolvedBy: "person" });
+  });
+});
