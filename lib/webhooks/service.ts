@@ -98,7 +98,8 @@ export function retryWebhookDelivery(actor: AuditActor, id: number) {
     if (row.status === "sending") throw new ConflictError("That delivery is being sent right now.");
     const after = tx.update(webhookDeliveries).set({ status: "pending", nextAttemptAt: new Date() }).where(and(eq(webhookDeliveries.id, id), inArray(webhookDeliveries.status, ["pending", "failed"]))).returning().get();
     recordAudit(tx, actor, { action: "retry", entityType: "webhook_delivery", entityId: id, summary: `Retry now: ${row.eventType} delivery ${row.messageId}` });
-    return after;
+    const endpoint = tx.select({ active: webhookEndpoints.active }).from(webhookEndpoints).where(eq(webhookEndpoints.id, row.endpointId)).get();
+    return { ...after, endpointActive: endpoint?.active ?? false };
   });
 }
 

@@ -96,7 +96,20 @@ export function parseWebhookUrl(raw: string, opts: { allowHttpLoopback: boolean 
 
 export type Lookup = (host: string) => Promise<string[]>;
 
-const systemLookup: Lookup = async (host) => (await dns.promises.lookup(host, { all: true, verbatim: true })).map((a) => a.address);
+/** How long a save waits for the host to resolve. */
+const LOOKUP_TIMEOUT_MS = 5_000;
+
+const systemLookup: Lookup = async (host) => {
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const timeout = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(Object.assign(new Error("lookup timed out"), { code: "timed out" })), LOOKUP_TIMEOUT_MS);
+  });
+  try {
+    return (await Promise.race([dns.promises.lookup(host, { all: true, verbatim: true }), timeout])).map((a) => a.address);
+  } finally {
+    clearTimeout(timer);
+  }
+};
 
 /**
  * The whole check when an endpoint is saved: the rules above, then the host resolved and every

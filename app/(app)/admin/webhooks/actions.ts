@@ -40,8 +40,9 @@ export const rotateWebhookSecretAction = formAction({ action: "webhooks.manage",
 });
 
 export const retryWebhookDeliveryAction = formAction({ action: "webhooks.manage", schema: webhookDeliveryIdSchema }, async ({ user, input }) => {
-  retryWebhookDelivery(user, input.id);
-  kickWebhooks();
+  const after = retryWebhookDelivery(user, input.id);
   revalidatePath("/admin/webhooks");
+  if (!after.endpointActive) return "Queued again; it is sent once its endpoint is resumed.";
+  kickWebhooks();
   return "Sending it again now.";
 });
