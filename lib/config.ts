@@ -164,6 +164,8 @@ export function rateLimitSettings() {
     whatIfUser: rateLimit("RATE_LIMIT_WHAT_IF_USER", 30, 60),
     exportUser: rateLimit("RATE_LIMIT_EXPORT_USER", 10, 60),
     importUser: rateLimit("RATE_LIMIT_IMPORT_USER", 20, 60),
+    // Webhooks: saving an endpoint resolves its host (up to 5 s each).
+    webhookSaveUser: rateLimit("RATE_LIMIT_WEBHOOK_SAVE_USER", 20, 10 * 60),
   } satisfies Record<string, RateLimitSetting>;
 }
 

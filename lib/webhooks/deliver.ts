@@ -229,7 +229,9 @@ export function kickWebhooks(): void {
     try {
       do {
         s.again = false;
-        await deliverDueWebhooks();
+        const run = await deliverDueWebhooks();
+        // A full batch: there may be more due (a burst of events), so go on without waiting for the timer.
+        if (run.delivered + run.retrying + run.failed >= BATCH_SIZE) s.again = true;
       } while (s.again);
     } catch (error) {
       log.error({ job: "webhooks", err: error }, "job run failed");

@@ -49,6 +49,17 @@ let roomId: number, fridgeId: number, etherId: number;
 const deliveries = () => getDb().select().from(webhookDeliveries).where(eq(webhookDeliveries.endpointId, endpointId)).orderBy(webhookDeliveries.id).all();
 const attemptsOf = (id: number) => getDb().select().from(webhookAttempts).where(eq(webhookAttempts.deliveryId, id)).orderBy(webhookAttempts.id).all();
 const later = (ms: number) => ({ nowMs: Date.now() + ms });
+/** Runs the job until nothing due is left (it sends at most 20 per run). */
+async function drain() {
+  const total = { delivered: 0, retrying: 0, failed: 0 };
+  for (;;) {
+    const run = await deliverDueWebhooks();
+    total.delivered += run.delivered;
+    total.retrying += run.retrying;
+    total.failed += run.failed;
+    if (run.delivered + run.retrying + run.failed === 0) return total;
+  }
+}
 
 function verified(index = 0) {
   const got = receiver.received[index];
@@ -333,6 +344,29 @@ describe("the admin's server actions", () => {
   });
 });
 
+describe("saving endpoints is rate-limited per administrator", () => {
+  it("refuses the save over the limit with when to try again, and stores nothing", async () => {
+    const { createWebhookEndpointAction } = await import("@/app/(app)/admin/webhooks/actions");
+    const busy = makeUser("admin");
+    cookieJar.value = await sessionCookieFor(busy);
+    process.env.RATE_LIMIT_WEBHOOK_SAVE_USER = "1";
+    try {
+      const data = () => {
+        const f = new FormData();
+        for (const [k, v] of Object.entries({ url: `${receiver.url}/limited`, description: "Limited", events: "finding.raised", allowPrivate: "on" })) f.append(k, v);
+        return f;
+      };
+      expect((await createWebhookEndpointAction(undefined, data())).status).toBe("success");
+      const refused = await createWebhookEndpointAction(undefined, data());
+      expect(refused.error?.[""]?.[0]).toMatch(/^Too many webhook endpoints saved\. Try again in \d+ minutes?\.$/);
+      expect(getDb().select().from(webhookEndpoints).where(eq(webhookEndpoints.description, "Limited")).all()).toHaveLength(1);
+    } finally {
+      delete process.env.RATE_LIMIT_WEBHOOK_SAVE_USER;
+      cookieJar.value = "";
+    }
+  });
+});
+
 describe("the demo's endpoint and the local receiver", () => {
   it("registers the receiver once, follows its port, and the receiver checks signatures with the demo secret", async () => {
     const { DEMO_WEBHOOK_SECRET, ensureDemoWebhookEndpoint } = await import("@/lib/webhooks/demo-endpoint");
@@ -347,7 +381,7 @@ describe("the demo's endpoint and the local receiver", () => {
 
       getDb().update(containers).set({ state: "sealed" }).where(eq(containers.label, "HK-ETHER")).run();
       getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "the bottle is back" }));
-      await deliverDueWebhooks();
+      await drain();
       expect(demoReceiver.received.length).toBeGreaterThan(0);
       expect(demoReceiver.received.every((r) => r.signatureValid === true && r.answeredStatus === 200 && r.eventType === "finding.raised")).toBe(true);
 
@@ -356,7 +390,7 @@ describe("the demo's endpoint and the local receiver", () => {
       demoReceiver.setSecret(`whsec_${Buffer.from("some-other-secret-entirely-000000").toString("base64")}`);
       getDb().update(containers).set({ state: "disposed" }).where(eq(containers.label, "HK-ETHER")).run();
       getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "disposed of again" }));
-      const run = await deliverDueWebhooks();
+      const run = await drain();
       expect(run.retrying).toBeGreaterThan(0);
       const refused = demoReceiver.received.find((r) => r.eventType === "finding.resolved")!;
       expect(refused).toMatchObject({ signatureValid: false, verifyError: "No matching signature found", answeredStatus: 401 });
@@ -374,7 +408,7 @@ describe("a finding a person resolves", () => {
     const officer = makeUser("safety_officer");
     getDb().update(containers).set({ state: "sealed" }).where(eq(containers.label, "HK-ETHER")).run();
     getDb().transaction((tx) => reassessRooms(tx, [roomId], { reason: "the bottle is back once more" }));
-    await deliverDueWebhooks();
+    await drain();
     const open = getDb().select().from(findings).where(eq(findings.roomId, roomId)).all().filter((f) => f.status === "open");
     expect(open.length).toBeGreaterThan(0);
     // Gone from the fridge, not yet re-assessed: the person's resolve is confirmed by the check.

@@ -1,6 +1,7 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { formAction } from "@/lib/auth/form-action";
+import { limit } from "@/lib/rate-limit";
 import { kickWebhooks } from "@/lib/webhooks/deliver";
 import {
   webhookDeliveryIdSchema,
@@ -13,12 +14,14 @@ import { createWebhookEndpoint, retryWebhookDelivery, rotateWebhookSecret, setWe
 
 /** Answers with the new signing secret itself as the message: the form shows it this once; it is stored encrypted. */
 export const createWebhookEndpointAction = formAction({ action: "webhooks.manage", schema: webhookEndpointSchema }, async ({ user, input }) => {
+  await limit("webhookSaveUser", user.id);
   const { secret } = await createWebhookEndpoint(user, input);
   revalidatePath("/admin/webhooks");
   return secret;
 });
 
 export const updateWebhookEndpointAction = formAction({ action: "webhooks.manage", schema: webhookEndpointUpdateSchema }, async ({ user, input }) => {
+  await limit("webhookSaveUser", user.id);
   const { id, ...fields } = input;
   const after = await updateWebhookEndpoint(user, id, fields);
   revalidatePath("/admin/webhooks");
