@@ -4,6 +4,7 @@ const PORT = Number(process.env.E2E_PORT || 3100);
 const EMAIL_FAKE_PORT = Number(process.env.E2E_EMAIL_FAKE_PORT || 3125);
 // Single sign-on: the local OpenID Connect provider started by the demo.
 const OIDC_FAKE_PORT = Number(process.env.E2E_OIDC_FAKE_PORT || 3126);
+const WEBHOOK_FAKE_PORT = Number(process.env.E2E_WEBHOOK_FAKE_PORT || 3127);
 export const BASE_URL = `http://localhost:${PORT}`;
 export const EMAIL_FAKE_URL = `http://127.0.0.1:${EMAIL_FAKE_PORT}`;
 export const OIDC_FAKE_URL = `http://127.0.0.1:${OIDC_FAKE_PORT}`;
@@ -45,6 +46,7 @@ export default defineConfig({
       PORT: String(PORT),
       EMAIL_FAKE_PORT: String(EMAIL_FAKE_PORT),
       OIDC_FAKE_PORT: String(OIDC_FAKE_PORT),
+      WEBHOOK_FAKE_PORT: String(WEBHOOK_FAKE_PORT),
       DATABASE_PATH: process.env.E2E_DATABASE_PATH || "data/e2e/headroom.db",
       APP_URL: BASE_URL,
       NEXT_TELEMETRY_DISABLED: "1",

@@ -852,3 +852,81 @@ export const jobs = sqliteTable(
   (t) => [index("jobs_status_idx").on(t.status), index("jobs_requested_by_idx").on(t.requestedById)],
 );
 export type Job = typeof jobs.$inferSelect;
+
+// ---------------------------------------------------------------------------------------------
+// Webhooks: endpoints admins register, and the outbox of signed deliveries (lib/webhooks)
+// ---------------------------------------------------------------------------------------------
+
+export const WEBHOOK_DELIVERY_STATUSES = ["pending", "sending", "delivered", "failed"] as const;
+export type WebhookDeliveryStatus = (typeof WEBHOOK_DELIVERY_STATUSES)[number];
+
+export const webhookEndpoints = sqliteTable(
+  "webhook_endpoints",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    url: text("url").notNull(),
+    description: text("description").notNull(),
+    /** The event types it receives (lib/webhooks/events.ts). */
+    events: text("events", { mode: "json" }).$type<string[]>().notNull(),
+    /** The admin's explicit choice: private, loopback and link-local addresses may be reached. */
+    allowPrivate: integer("allow_private", { mode: "boolean" }).notNull().default(false),
+    active: integer("active", { mode: "boolean" }).notNull().default(true),
+    /** The signing secret, AES-256-GCM under a key derived from SESSION_SECRET (lib/webhooks/secret.ts); never shown again. */
+    secretEncrypted: text("secret_encrypted").notNull(),
+    secretRotatedAt: integer("secret_rotated_at", { mode: "timestamp_ms" }),
+    createdById: integer("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("webhook_endpoints_active_idx").on(t.active), index("webhook_endpoints_created_by_idx").on(t.createdById)],
+);
+export type WebhookEndpoint = typeof webhookEndpoints.$inferSelect;
+
+/** One event for one endpoint. Never deleted by the delivery job; `message_id` is the webhook-id of every attempt. */
+export const webhookDeliveries = sqliteTable(
+  "webhook_deliveries",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    endpointId: integer("endpoint_id")
+      .notNull()
+      .references(() => webhookEndpoints.id, { onDelete: "restrict" }),
+    messageId: text("message_id").notNull(),
+    eventType: text("event_type").notNull(),
+    /** The exact JSON body that is signed and sent. */
+    payload: text("payload").notNull(),
+    status: text("status", { enum: WEBHOOK_DELIVERY_STATUSES }).notNull().default("pending"),
+    attempts: integer("attempts").notNull().default(0),
+    nextAttemptAt: integer("next_attempt_at", { mode: "timestamp_ms" }).notNull().default(nowMs),
+    /** While "sending": the claim's token and when it lapses (a crashed sender's claim becomes due again). */
+    claimToken: text("claim_token"),
+    leaseUntil: integer("lease_until", { mode: "timestamp_ms" }),
+    lastStatusCode: integer("last_status_code"),
+    lastError: text("last_error"),
+    createdAt: createdAt(),
+    deliveredAt: integer("delivered_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [
+    uniqueIndex("webhook_deliveries_message_unique").on(t.messageId),
+    index("webhook_deliveries_due_idx").on(t.status, t.nextAttemptAt),
+    index("webhook_deliveries_endpoint_idx").on(t.endpointId, t.id),
+  ],
+);
+export type WebhookDelivery = typeof webhookDeliveries.$inferSelect;
+
+export const webhookAttempts = sqliteTable(
+  "webhook_attempts",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    deliveryId: integer("delivery_id")
+      .notNull()
+      .references(() => webhookDeliveries.id, { onDelete: "cascade" }),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    durationMs: integer("duration_ms").notNull(),
+    statusCode: integer("status_code"),
+    error: text("error"),
+    /** The start of the receiver's answer (at most 4 KB), for display. */
+    responseBody: text("response_body"),
+  },
+  (t) => [index("webhook_attempts_delivery_idx").on(t.deliveryId)],
+);
+export type WebhookAttempt = typeof webhookAttempts.$inferSelect;

@@ -165,6 +165,8 @@ export function rateLimitSettings() {
     whatIfUser: rateLimit("RATE_LIMIT_WHAT_IF_USER", 30, 60),
     exportUser: rateLimit("RATE_LIMIT_EXPORT_USER", 10, 60),
     importUser: rateLimit("RATE_LIMIT_IMPORT_USER", 20, 60),
+    // Webhooks: saving an endpoint resolves its host (up to 5 s each).
+    webhookSaveUser: rateLimit("RATE_LIMIT_WEBHOOK_SAVE_USER", 20, 10 * 60),
   } satisfies Record<string, RateLimitSetting>;
 }
 
@@ -201,4 +203,27 @@ export function oidcRedirectUri(): string {
 
 export function oidcFakePort(): number {
   return Number(process.env.OIDC_FAKE_PORT || 3026);
+}
+
+// --- Webhooks -------------------------------------------------------------------------------
+
+/**
+ * Plain http:// webhook URLs, to the loopback only (the local receiver of the demo and tests):
+ * WEBHOOK_ALLOW_HTTP_LOOPBACK=true|false, on by default outside production. Everything else is https.
+ */
+export function webhookAllowHttpLoopback(): boolean {
+  const value = process.env.WEBHOOK_ALLOW_HTTP_LOOPBACK;
+  if (value === "true") return true;
+  if (value === "false") return false;
+  return !isProduction();
+}
+
+/** The local webhook receiver's port (WEBHOOK_FAKE_PORT, default 3027). */
+export function webhookFakePort(): number {
+  return Number(process.env.WEBHOOK_FAKE_PORT || 3027);
+}
+
+/** Where the admin page reads the local receiver's recordings: only when WEBHOOK_FAKE_PORT is set (npm run demo sets it). */
+export function webhookReceiverUrl(): string | null {
+  return process.env.WEBHOOK_FAKE_PORT ? `http://127.0.0.1:${webhookFakePort()}` : null;
 }

@@ -23,6 +23,8 @@ export const log: pino.Logger =
         "*.authorization",
         "headers.cookie",
         "headers.authorization",
+        "secret",
+        "*.secret",
       ],
       censor: "[redacted]",
     },

@@ -1,7 +1,8 @@
 /**
  * `npm run demo`: migrates and (when empty) seeds the database, builds the app, and serves it on
  * PORT (default 3000) with the local e-mail fake on EMAIL_FAKE_PORT (default 3025) and the local
- * OpenID Connect provider on OIDC_FAKE_PORT (default 3026) unless OIDC_ISSUER names another provider.
+ * OpenID Connect provider on OIDC_FAKE_PORT (default 3026) unless OIDC_ISSUER names another provider,
+ * and the local webhook receiver on WEBHOOK_FAKE_PORT (default 3027), registered as a webhook endpoint.
  * Flags: --fresh deletes the database file first (tests); --no-build serves the existing build.
  * The build is `next build` and then the worker threads' bundle (scripts/build-workers.ts).
  */
@@ -14,6 +15,8 @@ import { seedDemo } from "../db/seed/demo";
 import { DEMO_INGEST_KEY } from "../db/seed/demo-readings";
 import { startEmailFake } from "../lib/mail/fake-server";
 import { DEMO_OIDC_CLIENT_ID, DEMO_OIDC_CLIENT_SECRET, DEMO_SSO_PEOPLE, startOidcFake } from "../lib/sso/fake-provider";
+import { DEMO_WEBHOOK_SECRET, ensureDemoWebhookEndpoint } from "../lib/webhooks/demo-endpoint";
+import { startWebhookReceiver } from "../lib/webhooks/receiver-fake";
 import { buildWorkerBundle } from "./build-workers";
 
 const args = new Set(process.argv.slice(2));
@@ -21,6 +24,7 @@ process.env.NEXT_TELEMETRY_DISABLED = "1";
 const port = Number(process.env.PORT || 3000);
 const fakePort = Number(process.env.EMAIL_FAKE_PORT || 3025);
 const oidcFakePort = Number(process.env.OIDC_FAKE_PORT || 3026);
+const webhookPort = Number(process.env.WEBHOOK_FAKE_PORT || 3027);
 const dbFile = databasePath();
 
 function say(message: string) {
@@ -48,6 +52,9 @@ async function main() {
     say("seeded the demo organisation (invented data; demo accounts use the password headroom-demo)");
     say(`demo ingest key (demo only — revoke it on a real installation): ${DEMO_INGEST_KEY}`);
   }
+  // Webhooks: the local receiver as an endpoint, its secret encrypted under the server's SESSION_SECRET.
+  process.env.SESSION_SECRET = sessionSecret();
+  ensureDemoWebhookEndpoint(getDb(), `http://127.0.0.1:${webhookPort}/headroom`);
   closeDb();
 
   if (!args.has("--no-build")) {
@@ -83,6 +90,14 @@ async function main() {
     say(`single sign-on: provider ${process.env.OIDC_ISSUER}`);
   }
 
+  let receiver: Awaited<ReturnType<typeof startWebhookReceiver>> | undefined;
+  try {
+    receiver = await startWebhookReceiver({ port: webhookPort, secret: DEMO_WEBHOOK_SECRET });
+    say(`webhook receiver listening on ${receiver.url} (recorded deliveries: ${receiver.url}/deliveries)`);
+  } catch (error) {
+    say(`webhook receiver not started on port ${webhookPort} (${(error as Error).message}); using whatever listens there`);
+  }
+
   const server = spawn("npx", ["next", "start", "-p", String(port)], {
     stdio: "inherit",
     env: {
@@ -93,6 +108,8 @@ async function main() {
       RESEND_BASE_URL: process.env.RESEND_BASE_URL || `http://127.0.0.1:${fakePort}`,
       COOKIE_SECURE: process.env.COOKIE_SECURE || "false",
       ...oidcEnv,
+      WEBHOOK_FAKE_PORT: String(webhookPort),
+      WEBHOOK_ALLOW_HTTP_LOOPBACK: process.env.WEBHOOK_ALLOW_HTTP_LOOPBACK || "true",
     },
   });
   say(`serving on http://localhost:${port}`);
@@ -100,12 +117,14 @@ async function main() {
     server.kill("SIGTERM");
     void fake?.close();
     void oidcFake?.close();
+    void receiver?.close();
   };
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);
   server.on("exit", (code) => {
     void fake?.close();
     void oidcFake?.close();
+    void receiver?.close();
     process.exit(code ?? 0);
   });
 }

@@ -6,6 +6,7 @@ import { excursionCrossingAlerts, excursions } from "@/db/schema";
 import { crossingSoonEmail, formatEmailInstant, formatEmailTempC } from "@/emails/excursion";
 import { appUrl } from "@/lib/config";
 import { enqueueEmail } from "@/lib/mail/outbox";
+import { queueCrossingWarningWebhook } from "@/lib/webhooks/domain-events";
 import { crossingText, projectOpenExcursion, type ProjectedCrossing } from "@/lib/temperatures/projection";
 import { describeAlertLocation, responsibleUsers } from "./recipients";
 
@@ -56,6 +57,7 @@ function warn(
       .onConflictDoNothing()
       .run();
   }
+  queueCrossingWarningWebhook(tx, { excursionId, storageUnitId: projection.storageUnitId, latest, crossings: fresh }, new Date(nowMs));
   const location = describeAlertLocation(tx, { storageUnitId: projection.storageUnitId });
   if (!location) return 0;
   const lines = fresh.map((c) => crossingText(c, latest.at));

@@ -16,6 +16,7 @@ import {
   type Container,
 } from "@/db/schema";
 import { queueFindingAlerts } from "@/lib/alerts/finding-alerts";
+import { queueFindingWebhooks } from "@/lib/webhooks/domain-events";
 import { reconcileFindings, type FindingCandidate, type ReconcileResult } from "@/lib/register/store";
 import { worstCasesForRooms } from "@/lib/temperatures/queries";
 import { selectWorstCase } from "@/lib/temperatures/worst-case";
@@ -380,6 +381,7 @@ export function reassessRooms(
   for (const id of ids) if (!keyedRooms.has(id)) clearRoom.run(id);
   for (const id of unitIds) if (!keyedUnits.has(id)) clearUnit.run(id);
   const alertsQueued = opts.notify === false ? 0 : queueFindingAlerts(tx, result.changes);
+  if (opts.notify !== false) queueFindingWebhooks(tx, result.changes, result.resolvedIds ?? [], new Date(nowMs));
   return {
     ...result,
     rooms: snapshots.filter((s) => s.kind === "room").length,

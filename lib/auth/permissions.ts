@@ -30,6 +30,8 @@ export const PERMISSIONS = {
   "apiKeys.manage": adminOnly,
   "settings.manage": adminOnly,
   "mail.view": adminOnly,
+  // Webhooks: register endpoints, rotate secrets, see and retry deliveries.
+  "webhooks.manage": adminOnly,
 
   "locations.read": everyone,
   "locations.write": locationsStaff,

@@ -12,10 +12,13 @@ import { startSweepJob } from "@/lib/auth/sweep";
 import { log } from "@/lib/log";
 import { applySubstanceLibraryEdition } from "@/lib/substances/library-edition";
 import { kickWarmUpFits } from "@/lib/temperatures/warm-up-jobs";
+import { startWebhookJob } from "@/lib/webhooks/deliver";
 
 /** Background work of the server process, started once from instrumentation.ts. */
 export function startJobs(): void {
   startOutboxJob();
+  // Webhooks: signed deliveries from their outbox, with retries (lib/webhooks/deliver.ts).
+  startWebhookJob();
   startDigestJob();
   startSweepJob();
   // A re-assessment that was running when the process stopped starts again from the beginning
@@ -36,7 +39,7 @@ export function startJobs(): void {
   kickWarmUpFits();
   startCrossingWatch();
   const backup = startBackupJob();
-  log.info({ jobs: ["outbox", "daily-digest", "re-assessment", "warm-up-fits", "crossing-watch", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
+  log.info({ jobs: ["outbox", "webhooks", "daily-digest", "re-assessment", "warm-up-fits", "crossing-watch", ...(backup ? ["nightly-backup"] : [])] }, "background jobs started");
 }
 
 /** How often open excursions are projected for crossings less than an hour away. */

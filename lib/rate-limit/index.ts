@@ -71,6 +71,7 @@ const MESSAGES: Partial<Record<RateLimitName, string>> = {
   importUser: "Too many imports and previews",
   invitationAddress: "Too many invitations to this address",
   invitationIp: "Too many invitations",
+  webhookSaveUser: "Too many webhook endpoints saved",
 };
 
 /**

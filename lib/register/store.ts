@@ -31,8 +31,9 @@ export type FindingCandidate = {
 
 export type { TimeToDanger };
 
-export type FindingChange = { kind: "raised" | "reopened" | "escalated"; finding: Finding };
-export type ReconcileResult = { raised: number; updated: number; resolved: number; reopened: number; unchanged: number; changes: FindingChange[] };
+export type FindingChange = { kind: "raised" | "reopened" | "escalated"; finding: Finding; fromSeverity?: Severity };
+/** `resolvedIds`: the findings re-assessment resolved that were being worked (for webhooks). */
+export type ReconcileResult = { raised: number; updated: number; resolved: number; reopened: number; unchanged: number; changes: FindingChange[]; resolvedIds?: number[] };
 
 const SEVERITY_RANK: Record<Severity, number> = { critical: 3, high: 2, moderate: 1, low: 0 };
 const WORKING: FindingStatus[] = ["open", "acknowledged", "mitigating"];
@@ -138,7 +139,7 @@ export function reconcileFindings(
   opts: { nowMs?: number; reason?: string } = {},
 ): ReconcileResult {
   const now = new Date(opts.nowMs ?? Date.now());
-  const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [] };
+  const result: ReconcileResult = { raised: 0, updated: 0, resolved: 0, reopened: 0, unchanged: 0, changes: [], resolvedIds: [] };
   const existing = new Map<string, ExistingFinding>();
   const add = (rows: unknown[]) => {
     for (const row of rows as ExistingRow[]) existing.set(row.fingerprint, toExisting(row));
@@ -213,7 +214,7 @@ export function reconcileFindings(
         ...(opts.reason ? { reason: opts.reason } : {}),
       });
       result.updated += 1;
-      if (SEVERITY_RANK[candidate.severity] > SEVERITY_RANK[before.severity] && WORKING.includes(before.status)) result.changes.push({ kind: "escalated", finding: row });
+      if (SEVERITY_RANK[candidate.severity] > SEVERITY_RANK[before.severity] && WORKING.includes(before.status)) result.changes.push({ kind: "escalated", finding: row, fromSeverity: before.severity });
     } else {
       result.unchanged += 1;
     }
@@ -231,6 +232,7 @@ export function reconcileFindings(
     const wasWorked = before.status !== "resolved";
     resolveFinding.run((wasWorked ? now : (before.resolvedAt ?? now)).getTime(), now.getTime(), now.getTime(), before.id);
     if (wasWorked) {
+      result.resolvedIds!.push(before.id);
       event(
         before.id,
         "auto_resolved",

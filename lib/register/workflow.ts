@@ -10,6 +10,7 @@ import type { Action } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/errors";
 import { reassessRooms } from "@/lib/assessment/service";
+import { queueFindingResolvedByPerson } from "@/lib/webhooks/domain-events";
 import { checkFindingCondition, conditionStillHoldsMessage, RESOLVED_CONFIRMED_MESSAGE } from "./resolve-check";
 import { MAX_RISK_ACCEPTANCE_DAYS, type FindingEventInput } from "./schemas";
 
@@ -170,6 +171,7 @@ export function applyFindingStep(actor: SessionUser, findingId: number, input: F
       before: auditSnapshot({ status: before.status, assigneeId: before.assigneeId, mitigationPlan: before.mitigationPlan, riskAcceptedUntil: before.riskAcceptedUntil }),
       after: auditSnapshot({ status: after.status, assigneeId: after.assigneeId, mitigationPlan: after.mitigationPlan, riskAcceptedUntil: after.riskAcceptedUntil }),
     });
+    if (toStatus === "resolved" && before.status !== "resolved") queueFindingResolvedByPerson(tx, after, now);
     if (reassess && before.roomId != null) {
       // The rest of the location in line too (values, other findings), in this transaction.
       reassessRooms(tx, [before.roomId], { nowMs, reason: `finding ${before.id} was marked resolved`, settings: reassess.settings, library: reassess.library });

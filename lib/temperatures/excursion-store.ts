@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, gt, gte, isNull, lt, lte, or, sql } from "drizzle-orm";
 import { getDb, type DbOrTx } from "@/db/client";
 import { excursions, readings, rooms, sensors, storageUnits, users, type Excursion } from "@/db/schema";
+import { queueExcursionWebhooks } from "@/lib/webhooks/domain-events";
 import { queueExcursionAlerts, type ExcursionAlertEvent } from "@/lib/alerts/excursion-alerts";
 import { auditSnapshot } from "@/lib/audit/diff";
 import { recordAudit } from "@/lib/audit/record";
@@ -65,6 +66,7 @@ export function refreshExcursions(tx: DbOrTx, sensorIds: number[], opts: { since
     total.updated += result.updated;
     // An ended excursion of a unit is a recorded failure: its warm-up is fitted again in the background.
     if (rule.storageUnitId != null && events.some((e) => e.excursion.endAt != null)) queueWarmUpFits(tx, [rule.storageUnitId]);
+    if (opts.notify && events.length) queueExcursionWebhooks(tx, rule.externalId, events);
     if (opts.notify && events.length) queueExcursionAlerts(tx, { sensorExternalId: rule.externalId, minDurationMin: rule.minDurationMin, roomId: rule.roomId, storageUnitId: rule.storageUnitId }, events);
   }
   return total;

@@ -1,6 +1,6 @@
 import { SectionTabs } from "@/components/ui/section-tabs";
 
-export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" | "sso" }) {
+export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" | "sso" | "webhooks" }) {
   return (
     <SectionTabs
       label="Administration"
@@ -11,6 +11,8 @@ export function AdminTabs({ current }: { current: "users" | "api-keys" | "mail" 
         { key: "mail", href: "/admin/mail", label: "E-mail" },
         // Single sign-on
         { key: "sso", href: "/admin/sso", label: "Single sign-on" },
+        // Webhooks: signed deliveries to receivers admins register.
+        { key: "webhooks", href: "/admin/webhooks", label: "Webhooks" },
       ]}
     />
   );

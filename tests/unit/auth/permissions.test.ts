@@ -15,6 +15,7 @@ const EXPECTED: Record<Action, [string, string, string, string, string]> = {
   "apiKeys.manage": ["all", "-", "-", "-", "-"],
   "settings.manage": ["all", "-", "-", "-", "-"],
   "mail.view": ["all", "-", "-", "-", "-"],
+  "webhooks.manage": ["all", "-", "-", "-", "-"],
   "locations.read": ["all", "all", "all", "all", "all"],
   "locations.write": ["all", "all", "-", "all", "-"],
   "locations.import": ["all", "all", "-", "all", "-"],

@@ -1,0 +1,80 @@
+/**
+ * The time-to-danger warning as a webhook: an open excursion on the demo's −20 °C freezer FZ-1
+ * (sensor S-206, τ set to one hour) warming towards its room's 27.0 °C, checked by the crossing
+ * watch. One `excursion.crossing_warning` per excursion and set of thresholds, in the warning's
+ * transaction, signed and verified. Invented demo data.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { Webhook } from "standardwebhooks";
+import { getDb } from "@/db/client";
+import { seedDemo } from "@/db/seed/demo";
+import { excursions, readings, sensors, storageUnits, webhookDeliveries } from "@/db/schema";
+import { checkCrossingAlerts } from "@/lib/alerts/crossing-alerts";
+import { deliverDueWebhooks } from "@/lib/webhooks/deliver";
+import { startWebhookReceiver, type WebhookReceiver } from "@/lib/webhooks/receiver-fake";
+import { createWebhookEndpoint } from "@/lib/webhooks/service";
+import { makeUser } from "./helpers/world";
+
+const NOW = Date.parse("2026-12-04T22:00:00Z");
+let receiver: WebhookReceiver;
+let secret: string;
+let excursionId: number, unitId: number;
+
+beforeAll(async () => {
+  const db = getDb();
+  await seedDemo(db, { bcryptCost: 4, nowMs: Date.parse("2026-12-02T09:07:00Z") });
+  receiver = await startWebhookReceiver({ port: 0 });
+  ({ secret } = await createWebhookEndpoint(makeUser("admin"), { url: `${receiver.url}/warnings`, description: "Night porter's pager", events: ["excursion.crossing_warning"], allowPrivate: true }));
+  const fz1 = db.select().from(storageUnits).where(eq(storageUnits.code, "FZ-1")).get()!;
+  unitId = fz1.id;
+  db.update(storageUnits).set({ warmUpTauMin: 60, warmUpTauNote: "test" }).where(eq(storageUnits.id, fz1.id)).run();
+  const sensor = db.select().from(sensors).where(eq(sensors.externalId, "S-206")).get()!;
+  db.insert(readings)
+    .values([
+      { sensorId: sensor.id, at: new Date(NOW - 30 * 60_000), tempC: -8 },
+      { sensorId: sensor.id, at: new Date(NOW - 15 * 60_000), tempC: -4 },
+      { sensorId: sensor.id, at: new Date(NOW), tempC: 0 },
+    ])
+    .run();
+  excursionId = db
+    .insert(excursions)
+    .values({ sensorId: sensor.id, storageUnitId: fz1.id, thresholdC: -10, startAt: new Date(NOW - 30 * 60_000), peakTempC: 0, peakAt: new Date(NOW) })
+    .returning({ id: excursions.id })
+    .get().id;
+});
+
+afterAll(async () => {
+  await receiver.close();
+});
+
+describe("the crossing warning as a webhook", () => {
+  it("is queued once with the warning and delivered signed, with the thresholds and their clock times", async () => {
+    checkCrossingAlerts(getDb(), NOW);
+    const queued = getDb().select().from(webhookDeliveries).all();
+    expect(queued).toHaveLength(1);
+    expect(queued[0].eventType).toBe("excursion.crossing_warning");
+    // A minute later: the same thresholds are not news.
+    checkCrossingAlerts(getDb(), NOW + 60_000);
+    expect(getDb().select().from(webhookDeliveries).all()).toHaveLength(1);
+
+    expect(await deliverDueWebhooks()).toEqual({ delivered: 1, retrying: 0, failed: 0 });
+    const [got] = receiver.received;
+    expect(got.path).toBe("/warnings");
+    const payload = new Webhook(secret).verify(got.body, { "webhook-id": got.webhookId!, "webhook-timestamp": got.webhookTimestamp!, "webhook-signature": got.webhookSignature! }) as {
+      type: string;
+      timestamp: string;
+      data: { excursion: Record<string, unknown>; location: Record<string, unknown>; crossings: Record<string, unknown>[] };
+    };
+    expect(payload.type).toBe("excursion.crossing_warning");
+    expect(payload.timestamp).toBe(new Date(NOW).toISOString());
+    expect(payload.data.excursion).toEqual({ id: excursionId, url: `http://localhost:3999/temperatures/excursions/${excursionId}`, latestTempC: 0, latestAt: new Date(NOW).toISOString() });
+    expect(payload.data.location).toMatchObject({ storageUnitId: unitId });
+    const lfl = payload.data.crossings.find((c) => c.name === "methanol" && c.threshold === "LFL" && c.rule === "enclosure-lfl")!;
+    expect(lfl).toMatchObject({ reached: false, description: "methanol: LFL at about 22:15 UTC" });
+    // 16.8 min after 22:00 (see excursion-projection.test.ts).
+    const minutes = (Date.parse(lfl.at as string) - NOW) / 60_000;
+    expect(minutes).toBeGreaterThan(16.0);
+    expect(minutes).toBeLessThan(17.6);
+  });
+});
