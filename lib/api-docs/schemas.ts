@@ -1,0 +1,282 @@
+/**
+ * Schemas the API document needs beyond the routes' own input schemas: the error shape, path
+ * parameters and the answers the routes build by hand. Each answer schema is checked against real
+ * answers in tests/integration/openapi-responses.test.ts.
+ */
+import { z } from "zod";
+import { ROLES } from "@/lib/auth/roles";
+import { API_KEY_SCOPES } from "@/lib/api-keys/scopes";
+import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
+
+// ---------------------------------------------------------------------------------------------
+// Errors
+// ---------------------------------------------------------------------------------------------
+
+/** The one JSON error shape (lib/http/route.ts `errorResponse`), with the extras some routes add. */
+export const errorSchema = z
+  .object({
+    error: z.object({
+      code: z.string().meta({ description: "A stable code: invalid_input, unauthenticated, forbidden, not_found, conflict, rate_limited, body_too_large, unsupported_media_type, …", example: "invalid_input" }),
+      message: z.string().meta({ description: "One plain sentence for people.", example: "Check the highlighted fields." }),
+      fields: z.record(z.string(), z.array(z.string())).optional().meta({ description: "400: the problems of each field, by field name." }),
+      issues: z
+        .array(z.object({ line: z.number().int(), column: z.string().nullable().optional(), message: z.string() }).loose())
+        .optional()
+        .meta({ description: "Imports refused (`import_rejected`): every problem by line and column." }),
+      issueCount: z.number().int().optional().meta({ description: "Logger-file imports: how many problems in all." }),
+      issueLineCount: z.number().int().optional().meta({ description: "Logger-file imports: on how many lines." }),
+      rowCount: z.number().int().optional().meta({ description: "Logger-file imports: rows read." }),
+      rows: z
+        .array(z.object({ index: z.number().int(), field: z.string(), message: z.string() }))
+        .optional()
+        .meta({ description: "Readings batches refused (`batch_rejected`): every bad row by its index in the batch." }),
+    }),
+  })
+  .meta({
+    id: "Error",
+    description: "Every error answer. `fields`, `issues` and `rows` appear only where they say.",
+    example: { error: { code: "invalid_input", message: "Check the highlighted fields.", fields: { name: ["Name is required."] } } },
+  });
+
+// ---------------------------------------------------------------------------------------------
+// Path parameters
+// ---------------------------------------------------------------------------------------------
+
+/** A record's numeric id in the path; anything else answers 404. */
+export const idPathSchema = z.object({
+  id: z.string().regex(/^\d{1,12}$/).meta({ description: "The record's numeric id.", example: "12" }),
+});
+
+// ---------------------------------------------------------------------------------------------
+// Shared pieces
+// ---------------------------------------------------------------------------------------------
+
+const isoDateTime = z.string().meta({ format: "date-time", example: "2026-11-30T09:12:44.000Z" });
+const severity = z.enum(SEVERITIES).meta({ id: "Severity" });
+export const roleSchema = z.enum(ROLES).meta({ id: "Role" });
+
+/** A paged list: `{ data, page, pageSize, total }` (lib/http/list-query.ts `listPage`). */
+export function listPageOf<T extends z.ZodType>(row: T, id: string) {
+  return z
+    .object({
+      data: z.array(row),
+      page: z.number().int().min(1),
+      pageSize: z.number().int().min(0),
+      total: z.number().int().min(0).meta({ description: "Rows matching the filters, over all pages." }),
+    })
+    .meta({ id });
+}
+
+/** `{ data: … }`, the envelope of one record. */
+export function dataOf<T extends z.ZodType>(record: T) {
+  return z.object({ data: record });
+}
+
+/** A record whose fields are described in words only (not yet spelled out field by field). */
+export function looseRecord(id: string, description: string) {
+  return z.object({ id: z.number().int().optional() }).loose().meta({ id, description });
+}
+
+// ---------------------------------------------------------------------------------------------
+// Accounts
+// ---------------------------------------------------------------------------------------------
+
+export const signedInUserSchema = z
+  .object({ id: z.number().int(), email: z.string(), name: z.string(), role: roleSchema })
+  .meta({ id: "SignedInUser", example: { id: 3, email: "researcher@example.org", name: "Jonas Ekberg", role: "researcher" } });
+
+const alertChoice = z.enum(ALERT_DELIVERIES);
+export const meSchema = z
+  .object({
+    id: z.number().int(),
+    email: z.string(),
+    name: z.string(),
+    role: roleSchema,
+    alerts: z.object({ alertExcursions: alertChoice, alertFindings: alertChoice, dailyDigest: z.boolean() }),
+  })
+  .meta({ id: "Me" });
+
+export const sessionRowSchema = z
+  .object({
+    id: z.number().int(),
+    createdAt: isoDateTime,
+    lastSeenAt: isoDateTime,
+    userAgent: z.string().nullable(),
+    device: z.string().meta({ description: "The browser and system in words." }),
+    ip: z.string().nullable(),
+    current: z.boolean().meta({ description: "The session of this request." }),
+  })
+  .meta({ id: "Session" });
+
+export const endedSchema = z.object({ ended: z.number().int().min(0).meta({ description: "How many sessions ended." }) });
+
+export const userRowSchema = z
+  .object({
+    id: z.number().int(),
+    email: z.string(),
+    name: z.string(),
+    role: roleSchema,
+    active: z.boolean(),
+    activated: z.boolean().meta({ description: "Has set a password from the invitation." }),
+    lastSignInAt: isoDateTime.nullable(),
+    createdAt: isoDateTime,
+  })
+  .meta({ id: "User" });
+
+export const invitedUserSchema = z.object({
+  user: z.object({ id: z.number().int(), email: z.string(), name: z.string(), role: roleSchema, active: z.boolean(), activated: z.literal(false) }),
+});
+
+const scopeSchema = z.enum(API_KEY_SCOPES);
+export const apiKeyRowSchema = z
+  .object({
+    id: z.number().int(),
+    name: z.string(),
+    prefix: z.string().meta({ description: "The key's first 12 characters, to recognise it.", example: "hrk_demo_cor" }),
+    scopes: z.array(scopeSchema),
+    createdAt: isoDateTime,
+    lastUsedAt: isoDateTime.nullable(),
+    revokedAt: isoDateTime.nullable(),
+  })
+  .meta({ id: "ApiKey" });
+
+export const apiKeyCreatedSchema = z.object({
+  data: z.object({ id: z.number().int(), name: z.string(), prefix: z.string(), scopes: z.array(scopeSchema), createdAt: isoDateTime }),
+  key: z.string().meta({ description: "The key itself, shown this once: Headroom keeps only its hash.", example: "hrk_6mN0c2yQpX1r8tVb3kLwZs9aJd4fHe7G" }),
+});
+
+export const apiKeyRevokedSchema = dataOf(z.object({ id: z.number().int(), name: z.string(), prefix: z.string(), revokedAt: isoDateTime.nullable() }));
+
+// ---------------------------------------------------------------------------------------------
+// Inventory
+// ---------------------------------------------------------------------------------------------
+
+export const containerListRowSchema = z
+  .object({
+    id: z.number().int(),
+    label: z.string(),
+    substanceId: z.number().int().nullable(),
+    substanceName: z.string().nullable(),
+    substanceCas: z.string().nullable(),
+    mixtureId: z.number().int().nullable(),
+    mixtureName: z.string().nullable(),
+    amount: z.number(),
+    amountUnit: z.enum(AMOUNT_UNITS),
+    state: z.enum(CONTAINER_STATES),
+    containerKind: z.enum(CONTAINER_KINDS),
+    storageUnitId: z.number().int(),
+    unitCode: z.string(),
+    roomId: z.number().int(),
+    roomCode: z.string(),
+    siteName: z.string(),
+    ownerId: z.number().int().nullable(),
+    ownerName: z.string().nullable(),
+    expiresAt: isoDateTime.nullable(),
+    updatedAt: isoDateTime,
+    openFindingSeverity: severity.nullable().meta({ description: "The worst open finding this container contributes to that the reader may see, or null." }),
+  })
+  .meta({ id: "ContainerListRow" });
+
+// ---------------------------------------------------------------------------------------------
+// Register
+// ---------------------------------------------------------------------------------------------
+
+const timeToDanger = z
+  .object({ minutes: z.number(), threshold: z.string(), tempC: z.number() })
+  .meta({ id: "TimeToDanger", description: "Control-lost findings: minutes after a failure at which the finding's severity is reached." });
+
+export const findingListRowSchema = z
+  .object({
+    id: z.number().int(),
+    fingerprint: z.string().meta({ description: "rule | location | subject | scenario: rows that differ only in the scenario are one problem." }),
+    rule: z.string(),
+    severity,
+    status: z.enum(FINDING_STATUSES),
+    scenario: z.string(),
+    title: z.string(),
+    value: z.number().nullable(),
+    limit: z.number().nullable(),
+    ratio: z.number().nullable().meta({ description: "value ÷ limit." }),
+    unit: z.string().nullable(),
+    worstCaseTempC: z.number().nullable(),
+    worstCaseSource: z.string().nullable(),
+    timeToDanger: timeToDanger.nullable(),
+    firstRaisedAt: isoDateTime,
+    updatedAt: isoDateTime,
+    location: z.object({
+      siteId: z.number().int().nullable(),
+      siteName: z.string().nullable(),
+      roomId: z.number().int().nullable(),
+      roomCode: z.string().nullable(),
+      storageUnitId: z.number().int().nullable(),
+      unitCode: z.string().nullable(),
+      label: z.string(),
+    }),
+    substance: z.object({ id: z.number().int(), name: z.string(), cas: z.string().nullable() }).nullable(),
+    mixture: z.object({ id: z.number().int(), name: z.string() }).nullable(),
+    containerId: z.number().int().nullable(),
+    assignee: z.object({ id: z.number().int(), name: z.string() }).nullable(),
+  })
+  .meta({ id: "FindingListRow" });
+
+export const bulkResultSchema = z
+  .object({ data: z.array(z.object({ findingId: z.number().int(), ok: z.boolean(), error: z.string().optional() })) })
+  .meta({ id: "BulkFindingResult" });
+
+export const storagePlanItemSchema = z
+  .object({
+    storageUnitId: z.number().int(),
+    code: z.string(),
+    name: z.string(),
+    unitKind: z.enum(STORAGE_UNIT_KINDS),
+    roomId: z.number().int(),
+    roomCode: z.string(),
+    roomName: z.string(),
+    siteId: z.number().int(),
+    siteName: z.string(),
+    verdict: z.enum(["no_findings", "already_flagged", "raises"]),
+    worstSeverity: severity.nullable(),
+    maxRatio: z.number().nullable(),
+    timeToDanger: timeToDanger.nullable(),
+    raised: z.number().int().min(0),
+    nearness: z.enum(["same_room", "same_site", "other_site"]),
+    reason: z.string().meta({ description: "One plain sentence: why this place ranks where it does." }),
+  })
+  .meta({ id: "StoragePlanItem" });
+
+export const storagePlanSchemaOut = z
+  .object({ data: z.array(storagePlanItemSchema), message: z.string().optional().meta({ description: "Only when no unit can hold the amount." }) })
+  .meta({ id: "StoragePlan" });
+
+// ---------------------------------------------------------------------------------------------
+// Temperatures
+// ---------------------------------------------------------------------------------------------
+
+/** One reading as a logger sends it (the rows of `POST /api/v1/readings`, checked row by row in lib/temperatures/ingest.ts). */
+export const readingInSchema = z
+  .object({
+    sensor: z.string().min(1).max(100).meta({ description: "The logger's device id, as registered.", example: "S-205" }),
+    at: z.string().meta({ description: "ISO-8601 with an offset.", example: "2026-12-05T08:15:00+01:00" }),
+    tempC: z.number().meta({ description: "°C.", example: 4.6 }),
+  })
+  .meta({ id: "Reading" });
+
+export const ingestResultSchema = z
+  .object({
+    accepted: z.number().int().min(0).meta({ description: "New readings stored." }),
+    duplicates: z.number().int().min(0).meta({ description: "Readings already stored with the same temperature." }),
+    conflicts: z.number().int().min(0).meta({ description: "Readings that differ from the one stored for their sensor and instant (the stored one is kept)." }),
+    conflictRows: z.array(z.object({ index: z.number().int(), sensor: z.string(), at: z.string(), tempC: z.number(), storedTempC: z.number() })),
+  })
+  .meta({ id: "IngestResult", example: { accepted: 3, duplicates: 0, conflicts: 0, conflictRows: [] } });
+
+export const excursionBulkResultSchema = z.object({
+  data: z.array(z.object({ excursionId: z.number().int(), ok: z.boolean(), error: z.string().optional() })),
+});
+
+export const vaporPressureResultSchema = z
+  .object({ substanceId: z.number().int() })
+  .loose()
+  .meta({ id: "VaporPressure", description: "The saturation vapor pressure and saturated concentration at tempC, with the correlation used." });
+
+export const settingsSavedSchema = dataOf(z.object({ jobId: z.number().int().meta({ description: "The background re-assessment of every location." }) }).loose());
