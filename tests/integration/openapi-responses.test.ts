@@ -1,0 +1,141 @@
+/**
+ * The answers the API document promises are the answers the routes give: real answers from the
+ * invented demo organisation, parsed with the document's response schemas, with exactly the keys
+ * the schemas name (nothing undocumented, nothing missing).
+ */
+import { beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { users, type User } from "@/db/schema";
+import { seedDemo } from "@/db/seed/demo";
+import { DEMO_INGEST_KEY } from "@/db/seed/demo-readings";
+import * as apiKeysRoute from "@/app/api/v1/api-keys/route";
+import * as containersRoute from "@/app/api/v1/containers/route";
+import * as findingsRoute from "@/app/api/v1/findings/route";
+import * as meRoute from "@/app/api/v1/me/route";
+import * as mySessionsRoute from "@/app/api/v1/me/sessions/route";
+import * as readingsRoute from "@/app/api/v1/readings/route";
+import * as storagePlanRoute from "@/app/api/v1/storage-plan/route";
+import * as usersRoute from "@/app/api/v1/users/route";
+import { API_OPERATIONS } from "@/lib/api-docs/document";
+import { errorSchema } from "@/lib/api-docs/schemas";
+import { call, sessionCookieFor } from "./helpers/world";
+
+let safety: User;
+let admin: User;
+
+beforeAll(async () => {
+  await seedDemo(getDb(), { bcryptCost: 4 });
+  safety = getDb().select().from(users).where(eq(users.email, "safety@example.org")).get()!;
+  admin = getDb().select().from(users).where(eq(users.email, "admin@example.org")).get()!;
+});
+
+/** The documented answer schema of one operation and status. */
+function documented(method: string, path: string): z.ZodType {
+  const op = API_OPERATIONS.find((o) => o.method === method && o.path === path);
+  if (!op?.success.schema) throw new Error(`${method} ${path} has no documented answer schema`);
+  return op.success.schema;
+}
+
+/** The object schema's own keys, through the list envelope's `data` when asked. */
+function keysOf(schema: z.ZodType): string[] {
+  return Object.keys((schema as z.ZodObject).shape).sort();
+}
+
+function rowSchema(listSchema: z.ZodType): z.ZodObject {
+  return ((listSchema as z.ZodObject).shape.data as z.ZodArray<z.ZodObject>).element;
+}
+
+/** Parses the answer with the documented schema and checks that each row has exactly its keys. */
+function expectListMatches(body: unknown, listSchema: z.ZodType) {
+  const parsed = listSchema.safeParse(body);
+  expect(parsed.success, parsed.error?.message).toBe(true);
+  const rows = (body as { data: Record<string, unknown>[] }).data;
+  expect(rows.length).toBeGreaterThan(0);
+  const row = rowSchema(listSchema);
+  for (const r of rows) expect(Object.keys(r).sort()).toEqual(keysOf(row));
+  return rows;
+}
+
+describe("documented answers match real ones", () => {
+  it("GET /api/v1/findings: a page of register rows", async () => {
+    const response = await call(findingsRoute.GET, { path: "/api/v1/findings?pageSize=100", cookie: await sessionCookieFor(safety) });
+    expect(response.status).toBe(200);
+    const rows = expectListMatches(response.body, documented("get", "/api/v1/findings"));
+    expect(Object.keys(response.body).sort()).toEqual(["data", "page", "pageSize", "total"]);
+    expect(Object.keys(rows[0].location as object).sort()).toEqual(["label", "roomCode", "roomId", "siteId", "siteName", "storageUnitId", "unitCode"]);
+  });
+
+  it("GET /api/v1/containers: a page of containers with their worst open finding", async () => {
+    const response = await call(containersRoute.GET, { path: "/api/v1/containers?pageSize=100", cookie: await sessionCookieFor(safety) });
+    expect(response.status).toBe(200);
+    const rows = expectListMatches(response.body, documented("get", "/api/v1/containers"));
+    expect(rows.some((r) => r.openFindingSeverity !== null)).toBe(true);
+  });
+
+  it("GET /api/v1/storage-plan: ranked places", async () => {
+    const response = await call(storagePlanRoute.GET, { path: "/api/v1/storage-plan?substanceId=1&amount=1&amountUnit=L", cookie: await sessionCookieFor(safety) });
+    expect(response.status).toBe(200);
+    expectListMatches(response.body, documented("get", "/api/v1/storage-plan"));
+  });
+
+  it("POST /api/v1/readings: the ingest counts, and a refused batch in the error shape with its rows", async () => {
+    const at = new Date(Date.now() - 5 * 60_000).toISOString().replace(/\.\d+Z$/, "Z");
+    const authorization = `Bearer ${DEMO_INGEST_KEY}`;
+    const accepted = await call(readingsRoute.POST, { method: "POST", headers: { authorization }, body: { readings: [{ sensor: "S-202", at, tempC: 21.4 }] } });
+    expect(accepted.status).toBe(202);
+    const schema = documented("post", "/api/v1/readings");
+    expect(schema.safeParse(accepted.body).success).toBe(true);
+    expect(Object.keys(accepted.body).sort()).toEqual(keysOf(schema));
+    expect(accepted.body).toEqual({ accepted: 1, duplicates: 0, conflicts: 0, conflictRows: [] });
+
+    const refused = await call(readingsRoute.POST, { method: "POST", headers: { authorization }, body: { readings: [{ sensor: "S-202", at, tempC: "warm" }] } });
+    expect(refused.status).toBe(400);
+    expect(errorSchema.safeParse(refused.body).success).toBe(true);
+    expect(refused.body.error.code).toBe("batch_rejected");
+    expect(refused.body.error.rows[0]).toMatchObject({ index: 0, field: "tempC" });
+  });
+
+  it("the documented example batch is the shape the ingest takes", async () => {
+    const op = API_OPERATIONS.find((o) => o.path === "/api/v1/readings")!;
+    const example = op.bodyExamples!.gateway.value as { readings: { sensor: string; tempC: number }[] };
+    // Now-dated copies of the example's rows: the ingest accepts only instants in its plausible window.
+    const at = (minutesAgo: number) => new Date(Date.now() - minutesAgo * 60_000).toISOString();
+    const readings = example.readings.map((r, i) => ({ ...r, at: at(30 + i) }));
+    const response = await call(readingsRoute.POST, { method: "POST", headers: { authorization: `Bearer ${DEMO_INGEST_KEY}` }, body: { readings } });
+    expect(response.status).toBe(202);
+    expect(response.body.accepted).toBe(3);
+  });
+
+  it("GET /api/v1/me, GET /api/v1/me/sessions, GET /api/v1/users, GET and POST /api/v1/api-keys", async () => {
+    const cookie = await sessionCookieFor(admin);
+    const checks: [string, string, Awaited<ReturnType<typeof call>>][] = [
+      ["get", "/api/v1/me", await call(meRoute.GET, { cookie })],
+      ["get", "/api/v1/me/sessions", await call(mySessionsRoute.GET, { cookie })],
+      ["get", "/api/v1/users", await call(usersRoute.GET, { cookie })],
+      ["get", "/api/v1/api-keys", await call(apiKeysRoute.GET, { cookie })],
+      ["post", "/api/v1/api-keys", await call(apiKeysRoute.POST, { method: "POST", cookie, body: { name: "North Campus gateway", scopes: ["readings:write"] } })],
+    ];
+    for (const [method, path, response] of checks) {
+      expect(response.status, `${method} ${path}`).toBeLessThan(300);
+      const schema = documented(method, path);
+      const parsed = schema.safeParse(response.body);
+      expect(parsed.success, `${method} ${path}: ${parsed.error?.message}`).toBe(true);
+      expect(Object.keys(response.body).sort(), `${method} ${path}`).toEqual(keysOf(schema));
+      const inner = (schema as z.ZodObject).shape.data ?? (schema as z.ZodObject).shape.user;
+      const first = Array.isArray(response.body.data) ? response.body.data[0] : (response.body.data ?? response.body.user);
+      const innerObject = inner instanceof z.ZodArray ? inner.element : inner;
+      expect(Object.keys(first).sort(), `${method} ${path} record`).toEqual(keysOf(innerObject as z.ZodType));
+    }
+  });
+
+  it("a 400 with field errors is in the shared error shape", async () => {
+    const response = await call(containersRoute.POST, { method: "POST", cookie: await sessionCookieFor(safety), body: { label: "" } });
+    expect(response.status).toBe(400);
+    const parsed = errorSchema.safeParse(response.body);
+    expect(parsed.success).toBe(true);
+    expect(response.body.error.code).toBe("invalid_input");
+    expect(Object.keys(response.body.error.fields)).toEqual(expect.arrayContaining(["amount", "storageUnitId"]));
+  });
+});
