@@ -58,6 +58,8 @@ export type ApiOperation = {
   errors?: Partial<Record<400 | 401 | 404 | 409 | 413 | 422 | 429, string>>;
   /** Calls `limit()` from lib/rate-limit: 429 with Retry-After. */
   rateLimited?: string;
+  /** Runs in a worker thread: 503 `server_busy` when the queue is full (lib/workers/pool.ts). */
+  workerThread?: string;
   /** Writes with a JSON body at most this large (default 1 MiB: lib/limits.ts). */
   maxBodyBytes?: number;
 };
@@ -136,6 +138,7 @@ export function toOpenApiOperation(op: ApiOperation): ZodOpenApiOperationObject 
   if (op.body) responses["415"] = errorResponse("The body is not declared as `Content-Type: application/json`.");
   if (op.errors?.[422]) responses["422"] = errorResponse(op.errors[422]);
   if (op.rateLimited || op.errors?.[429]) responses["429"] = errorResponse(op.rateLimited ?? op.errors![429]!, retryAfter);
+  if (op.workerThread) responses["503"] = errorResponse(op.workerThread);
   responses["500"] = errorResponse("Something failed on the server; the error was logged.");
 
   const security =

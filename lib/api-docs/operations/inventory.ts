@@ -268,6 +268,7 @@ export const inventoryOperations: ApiOperation[] = [
     upload: importUpload,
     success: { status: 200, description: "The check.", schema: dataOf(importPreview) },
     errors: { 400: "No file, or a file that cannot be read (not CSV or XLSX, a damaged workbook)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
   },
   {
@@ -280,6 +281,7 @@ export const inventoryOperations: ApiOperation[] = [
     upload: importUpload,
     success: { status: 201, description: "Imported.", schema: dataOf(importResult) },
     errors: { 400: "No file, an unreadable file, or problems in rows (`import_rejected` with every problem in `issues`; nothing written)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
   },
   {
@@ -292,6 +294,7 @@ export const inventoryOperations: ApiOperation[] = [
     upload: importUpload,
     success: { status: 200, description: "The check.", schema: dataOf(importPreview) },
     errors: { 400: "No file, or a file that cannot be read (not CSV or XLSX, a damaged workbook)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
   },
   {
@@ -304,6 +307,7 @@ export const inventoryOperations: ApiOperation[] = [
     upload: importUpload,
     success: { status: 201, description: "Imported.", schema: dataOf(importResult) },
     errors: { 400: "No file, an unreadable file, or problems in rows (`import_rejected` with every problem in `issues`; nothing written)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
   },
   {

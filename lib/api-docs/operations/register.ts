@@ -184,6 +184,7 @@ export const registerOperations: ApiOperation[] = [
     query: registerExportQuerySchema,
     success: { status: 200, description: "The workbook, as an attachment.", binary: [XLSX], headers: { "Content-Disposition": "attachment, with the file's name." } },
     errors: { 400: "No site has that id (`fields.siteId`)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: "Too many exports by you in a short time.",
   },
   {

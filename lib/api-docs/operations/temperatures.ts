@@ -56,6 +56,7 @@ export const temperatureOperations: ApiOperation[] = [
     maxBodyBytes: JSON_BODY_LIMITS.readingsBatchBytes,
     success: { status: 202, description: "Stored (or already there).", schema: ingestResultSchema, example: { accepted: 3, duplicates: 0, conflicts: 0, conflictRows: [] } },
     errors: { 400: "A bad row refuses the whole batch (`batch_rejected`, with `rows`)." },
+    workerThread: "A batch of more than 1,000 readings is stored in a worker thread; when its queue is full: `server_busy`, try again in a minute.",
     rateLimited: "Too many batches with this key in a short time.",
   },
   {
@@ -138,6 +139,7 @@ export const temperatureOperations: ApiOperation[] = [
     },
     success: { status: 200, description: "The preview.", schema: dataOf(csvPreview) },
     errors: { 404: "No such sensor, or the upload is unknown or expired (`upload_not_found`)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: uploadRateLimit,
   },
   {
@@ -151,6 +153,7 @@ export const temperatureOperations: ApiOperation[] = [
     body: csvMappingSchema,
     success: { status: 200, description: "Imported.", schema: dataOf(csvImport) },
     errors: { 400: "Problems in rows (`import_rejected` with `issues`, `issueCount`, `issueLineCount`, `rowCount`; nothing written).", 404: "No such sensor, or the upload is unknown or expired (`upload_not_found`)." },
+    workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: uploadRateLimit,
   },
   {
