@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { API_KEY_SCOPES } from "@/lib/api-keys/scopes";
-import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
+import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
 
 // ---------------------------------------------------------------------------------------------
 // Errors
@@ -280,3 +280,133 @@ export const vaporPressureResultSchema = z
   .meta({ id: "VaporPressure", description: "The saturation vapor pressure and saturated concentration at tempC, with the correlation used." });
 
 export const settingsSavedSchema = dataOf(z.object({ jobId: z.number().int().meta({ description: "The background re-assessment of every location." }) }).loose());
+
+// ---------------------------------------------------------------------------------------------
+// Locations
+// ---------------------------------------------------------------------------------------------
+
+const id = z.number().int();
+const nullableNumber = z.number().nullable();
+
+export const siteSchema = z
+  .object({
+    id,
+    name: z.string(),
+    address: z.string().nullable(),
+    elevationM: nullableNumber,
+    atmosphericPressureKPa: z.number().meta({ description: "The local atmospheric pressure the assessment uses." }),
+    retiredAt: isoDateTime.nullable(),
+    createdAt: isoDateTime,
+    updatedAt: isoDateTime,
+  })
+  .meta({ id: "Site", example: { id: 1, name: "North Campus", address: "1 Quarry Lane, Eastmoor", elevationM: 35, atmosphericPressureKPa: 101.325, retiredAt: null, createdAt: "2026-01-12T08:00:00.000Z", updatedAt: "2026-01-12T08:00:00.000Z" } });
+
+const setRange = {
+  setMinC: nullableNumber,
+  setMaxC: nullableNumber,
+  excursionThresholdC: nullableNumber,
+  excursionMinDurationMin: z.number().int().nullable(),
+};
+
+const roomColumns = {
+  id,
+  siteId: id,
+  code: z.string(),
+  name: z.string(),
+  kind: z.enum(ROOM_KINDS),
+  floorAreaM2: nullableNumber,
+  heightM: nullableNumber,
+  airChangesPerHour: nullableNumber,
+  mixingFactor: z.number().meta({ description: "Well-mixed room model mixing factor k (0 < k ≤ 1)." }),
+  designMaxTempC: nullableNumber,
+  sprinklered: z.boolean(),
+  ...setRange,
+  facilitiesContactId: id.nullable(),
+  notes: z.string().nullable(),
+  retiredAt: isoDateTime.nullable(),
+  assessedAt: isoDateTime.nullable(),
+  assessmentInputKey: z.string().nullable().meta({ description: "A digest of what the room's own rules read at its last assessment." }),
+  createdAt: isoDateTime,
+  updatedAt: isoDateTime,
+};
+
+/** A room as stored (the answer of a change or a retirement). */
+export const roomSchema = z.object(roomColumns).meta({ id: "Room" });
+
+const unitColumns = {
+  id,
+  roomId: id,
+  code: z.string(),
+  name: z.string(),
+  kind: z.enum(STORAGE_UNIT_KINDS),
+  internalVolumeL: nullableNumber,
+  ...setRange,
+  ventilated: z.boolean(),
+  ignitionSourceFree: z.boolean(),
+  warmUpTauMin: nullableNumber.meta({ description: "τ of the warm-up after a failure, set by a person (minutes); null: fitted or the default of its kind." }),
+  warmUpTauNote: z.string().nullable(),
+  ownerId: id.nullable(),
+  notes: z.string().nullable(),
+  retiredAt: isoDateTime.nullable(),
+  assessmentInputKey: z.string().nullable(),
+  assessedAt: isoDateTime.nullable(),
+  createdAt: isoDateTime,
+  updatedAt: isoDateTime,
+};
+
+/** A storage unit as stored (the answer of a change or a retirement). */
+export const storageUnitSchema = z.object(unitColumns).meta({ id: "StorageUnit" });
+
+/** One storage unit with its room, site and owner (GET, and the answer of POST). */
+export const storageUnitDetailSchema = storageUnitSchema
+  .extend({ roomCode: z.string(), roomName: z.string(), siteId: id, siteName: z.string(), ownerName: z.string().nullable() })
+  .meta({ id: "StorageUnitDetail" });
+
+/** One room with its site, contact, volume and live units (GET, and the answer of POST). */
+export const roomDetailSchema = roomSchema
+  .extend({
+    siteName: z.string(),
+    facilitiesContactName: z.string().nullable(),
+    volumeM3: nullableNumber,
+    units: z.array(z.object({ unit: storageUnitSchema, containerCount: z.number().int().min(0) })),
+  })
+  .meta({ id: "RoomDetail" });
+
+export const roomListRowSchema = z
+  .object({
+    id,
+    siteId: id,
+    siteName: z.string(),
+    code: z.string(),
+    name: z.string(),
+    kind: z.enum(ROOM_KINDS),
+    floorAreaM2: nullableNumber,
+    heightM: nullableNumber,
+    volumeM3: nullableNumber,
+    airChangesPerHour: nullableNumber,
+    mixingFactor: z.number(),
+    designMaxTempC: nullableNumber,
+    sprinklered: z.boolean(),
+    setMinC: nullableNumber,
+    setMaxC: nullableNumber,
+    facilitiesContactId: id.nullable(),
+  })
+  .meta({ id: "RoomListRow" });
+
+export const storageUnitListRowSchema = z
+  .object({
+    id,
+    roomId: id,
+    roomCode: z.string(),
+    siteId: id,
+    siteName: z.string(),
+    code: z.string(),
+    name: z.string(),
+    kind: z.enum(STORAGE_UNIT_KINDS),
+    internalVolumeL: nullableNumber,
+    ...setRange,
+    ventilated: z.boolean(),
+    ignitionSourceFree: z.boolean(),
+    ownerId: id.nullable(),
+  })
+  .meta({ id: "StorageUnitListRow" });

@@ -18,6 +18,12 @@ import * as mySessionsRoute from "@/app/api/v1/me/sessions/route";
 import * as readingsRoute from "@/app/api/v1/readings/route";
 import * as storagePlanRoute from "@/app/api/v1/storage-plan/route";
 import * as usersRoute from "@/app/api/v1/users/route";
+import * as sitesRoute from "@/app/api/v1/sites/route";
+import * as siteRoute from "@/app/api/v1/sites/[id]/route";
+import * as roomsRoute from "@/app/api/v1/rooms/route";
+import * as roomRoute from "@/app/api/v1/rooms/[id]/route";
+import * as unitsRoute from "@/app/api/v1/storage-units/route";
+import * as unitRoute from "@/app/api/v1/storage-units/[id]/route";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { call, sessionCookieFor } from "./helpers/world";
@@ -45,6 +51,40 @@ function keysOf(schema: z.ZodType): string[] {
 
 function rowSchema(listSchema: z.ZodType): z.ZodObject {
   return ((listSchema as z.ZodObject).shape.data as z.ZodArray<z.ZodObject>).element;
+}
+
+/**
+ * Where the answer and the schema part ways: an object's keys differ from the schema's (loose
+ * objects, documented in words only, are not compared), or a value does not parse.
+ */
+function keyProblems(schema: z.ZodType, value: unknown, at = "$"): string[] {
+  if (schema instanceof z.ZodOptional || schema instanceof z.ZodNullable || schema instanceof z.ZodDefault) {
+    return value === null || value === undefined ? [] : keyProblems(schema.unwrap() as z.ZodType, value, at);
+  }
+  if (schema instanceof z.ZodArray) return (value as unknown[]).flatMap((item, i) => keyProblems(schema.element as z.ZodType, item, `${at}[${i}]`));
+  if (schema instanceof z.ZodObject) {
+    const shape = schema.shape as Record<string, z.ZodType>;
+    const problems: string[] = [];
+    const loose = (schema.def as { catchall?: z.ZodType }).catchall instanceof z.ZodUnknown;
+    if (!loose) {
+      const expected = Object.keys(shape).filter((k) => !(shape[k] instanceof z.ZodOptional)).sort();
+      const actual = Object.keys(value as object).filter((k) => (value as Record<string, unknown>)[k] !== undefined);
+      const missing = expected.filter((k) => !actual.includes(k));
+      const extra = actual.filter((k) => !(k in shape));
+      if (missing.length || extra.length) problems.push(`${at}: missing ${missing.join(", ") || "none"}; undocumented ${extra.join(", ") || "none"}`);
+    }
+    for (const [key, child] of Object.entries(shape)) if (key in (value as object)) problems.push(...keyProblems(child, (value as Record<string, unknown>)[key], `${at}.${key}`));
+    return problems;
+  }
+  return [];
+}
+
+/** The answer parses with the documented schema and has exactly its keys, all the way down. */
+function expectDocumented(method: string, path: string, body: unknown) {
+  const schema = documented(method, path);
+  const parsed = schema.safeParse(body);
+  expect(parsed.success, `${method} ${path}: ${parsed.error?.message}`).toBe(true);
+  expect(keyProblems(schema, body), `${method} ${path}`).toEqual([]);
 }
 
 /** Parses the answer with the documented schema and checks that each row has exactly its keys. */
@@ -128,6 +168,46 @@ describe("documented answers match real ones", () => {
       const innerObject = inner instanceof z.ZodArray ? inner.element : inner;
       expect(Object.keys(first).sort(), `${method} ${path} record`).toEqual(keysOf(innerObject as z.ZodType));
     }
+  });
+
+  it("sites, rooms and storage units: lists, one record, created, changed and retired", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const sites = await call(sitesRoute.GET, { cookie });
+    expectDocumented("get", "/api/v1/sites", sites.body);
+    const siteId = String(sites.body.data[0].id);
+    expectDocumented("get", "/api/v1/sites/{id}", (await call(siteRoute.GET, { cookie, params: { id: siteId } })).body);
+    const changedSite = await call(siteRoute.PATCH, { method: "PATCH", cookie, params: { id: siteId }, body: { address: "1 Quarry Lane, Eastmoor" } });
+    expect(changedSite.status).toBe(200);
+    expectDocumented("patch", "/api/v1/sites/{id}", changedSite.body);
+    const newSite = await call(sitesRoute.POST, { method: "POST", cookie, body: { name: "Hollin Yard store", elevationM: 60 } });
+    expect(newSite.status).toBe(201);
+    expectDocumented("post", "/api/v1/sites", newSite.body);
+
+    const rooms = await call(roomsRoute.GET, { cookie, path: "/api/v1/rooms?pageSize=100" });
+    expectDocumented("get", "/api/v1/rooms", rooms.body);
+    const roomId = String(rooms.body.data[0].id);
+    const room = await call(roomRoute.GET, { cookie, params: { id: roomId } });
+    expect(room.body.data.units.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/rooms/{id}", room.body);
+    expectDocumented("patch", "/api/v1/rooms/{id}", (await call(roomRoute.PATCH, { method: "PATCH", cookie, params: { id: roomId }, body: { airChangesPerHour: 7 } })).body);
+    const newRoom = await call(roomsRoute.POST, { method: "POST", cookie, body: { siteId: newSite.body.data.id, code: "HY-1", name: "Yard store", kind: "storeroom" } });
+    expect(newRoom.status).toBe(201);
+    expectDocumented("post", "/api/v1/rooms", newRoom.body);
+
+    const units = await call(unitsRoute.GET, { cookie, path: "/api/v1/storage-units?pageSize=100" });
+    expectDocumented("get", "/api/v1/storage-units", units.body);
+    const unitId = String(units.body.data[0].id);
+    expectDocumented("get", "/api/v1/storage-units/{id}", (await call(unitRoute.GET, { cookie, params: { id: unitId } })).body);
+    expectDocumented("patch", "/api/v1/storage-units/{id}", (await call(unitRoute.PATCH, { method: "PATCH", cookie, params: { id: unitId }, body: { notes: "Checked 5 December" } })).body);
+    const newUnit = await call(unitsRoute.POST, { method: "POST", cookie, body: { roomId: newRoom.body.data.id, code: "SH-9", name: "Shelf", kind: "open_shelving" } });
+    expect(newUnit.status).toBe(201);
+    expectDocumented("post", "/api/v1/storage-units", newUnit.body);
+    const retiredUnit = await call(unitRoute.DELETE, { method: "DELETE", cookie, params: { id: String(newUnit.body.data.id) } });
+    expect(retiredUnit.status).toBe(200);
+    expectDocumented("delete", "/api/v1/storage-units/{id}", retiredUnit.body);
+    const retiredRoom = await call(roomRoute.DELETE, { method: "DELETE", cookie, params: { id: String(newRoom.body.data.id) } });
+    expect(retiredRoom.status).toBe(200);
+    expectDocumented("delete", "/api/v1/rooms/{id}", retiredRoom.body);
   });
 
   it("a 400 with field errors is in the shared error shape", async () => {

@@ -10,17 +10,19 @@ import {
   storageUnitUpdateSchema,
 } from "@/lib/locations/schemas";
 import type { ApiOperation } from "../operation";
-import { dataOf, listPageOf, looseRecord } from "../schemas";
+import {
+  dataOf,
+  listPageOf,
+  looseRecord,
+  roomDetailSchema,
+  roomListRowSchema,
+  roomSchema,
+  siteSchema,
+  storageUnitDetailSchema,
+  storageUnitListRowSchema,
+  storageUnitSchema,
+} from "../schemas";
 
-const site = looseRecord("Site", "A site: `id`, `name`, `address`, `elevationM`, `atmosphericPressureKPa` (the pressure the assessment uses) and its timestamps.");
-const room = looseRecord(
-  "Room",
-  "A room: `id`, `siteId`, `code`, `name`, `kind`, its size and ventilation (`floorAreaM2`, `heightM`, `airChangesPerHour`, `mixingFactor`), `designMaxTempC`, set range and excursion settings, `facilitiesContactId`, `retiredAt`.",
-);
-const unit = looseRecord(
-  "StorageUnit",
-  "A storage unit: `id`, `roomId`, `code`, `name`, `kind`, `internalVolumeL`, set range and excursion settings, `ventilated`, `ignitionSourceFree`, `ownerId`, the warm-up time constant (`warmUpTauMin`, `warmUpTauNote`), `retiredAt`.",
-);
 const warmUp = looseRecord("WarmUp", "τ with its source (`set`, `fitted` or `default`), the fit's quality and history, and the room temperature the unit warms towards.");
 
 const locationsTag = "Locations";
@@ -33,7 +35,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "Sites",
     access: { action: "locations.read" },
     query: siteListQuerySchema,
-    success: { status: 200, description: "A page of sites.", schema: listPageOf(site, "SiteList") },
+    success: { status: 200, description: "A page of sites.", schema: listPageOf(siteSchema, "SiteList") },
   },
   {
     method: "post",
@@ -43,7 +45,7 @@ export const locationOperations: ApiOperation[] = [
     access: { action: "locations.write" },
     body: siteCreateSchema,
     bodyExamples: { annex: { summary: "A site at altitude", value: { name: "Riverside Annex", address: "18 Millrace Road, Upper Fenwick", elevationM: 420 } } },
-    success: { status: 201, description: "Created.", schema: dataOf(site) },
+    success: { status: 201, description: "Created.", schema: dataOf(siteSchema) },
   },
   {
     method: "get",
@@ -51,7 +53,7 @@ export const locationOperations: ApiOperation[] = [
     tag: locationsTag,
     summary: "One site",
     access: { action: "locations.read" },
-    success: { status: 200, description: "The site.", schema: dataOf(site) },
+    success: { status: 200, description: "The site.", schema: dataOf(siteSchema) },
   },
   {
     method: "patch",
@@ -62,7 +64,7 @@ export const locationOperations: ApiOperation[] = [
     access: { action: "locations.write" },
     body: siteUpdateSchema,
     bodyExamples: { pressure: { summary: "Set the pressure", value: { atmosphericPressureKPa: 96.4 } } },
-    success: { status: 200, description: "The site as stored.", schema: dataOf(site) },
+    success: { status: 200, description: "The site as stored.", schema: dataOf(siteSchema) },
   },
   {
     method: "get",
@@ -71,7 +73,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "Rooms",
     access: { action: "locations.read" },
     query: roomListQuerySchema,
-    success: { status: 200, description: "A page of rooms.", schema: listPageOf(room, "RoomList") },
+    success: { status: 200, description: "A page of rooms.", schema: listPageOf(roomListRowSchema, "RoomList") },
   },
   {
     method: "post",
@@ -87,7 +89,7 @@ export const locationOperations: ApiOperation[] = [
         value: { siteId: 1, code: "B-016", name: "Second solvent store", kind: "storeroom", floorAreaM2: 14, heightM: 2.6, airChangesPerHour: 6, designMaxTempC: 28, sprinklered: true },
       },
     },
-    success: { status: 201, description: "Created.", schema: dataOf(room) },
+    success: { status: 201, description: "Created.", schema: dataOf(roomDetailSchema) },
     errors: { 409: "Another room at that site has this code." },
   },
   {
@@ -96,7 +98,7 @@ export const locationOperations: ApiOperation[] = [
     tag: locationsTag,
     summary: "One room",
     access: { action: "locations.read" },
-    success: { status: 200, description: "The room.", schema: dataOf(room) },
+    success: { status: 200, description: "The room.", schema: dataOf(roomDetailSchema) },
   },
   {
     method: "patch",
@@ -107,7 +109,7 @@ export const locationOperations: ApiOperation[] = [
     access: { action: "locations.write" },
     body: roomUpdateSchema,
     bodyExamples: { ventilation: { summary: "Ventilation measured", value: { airChangesPerHour: 8 } } },
-    success: { status: 200, description: "The room as stored.", schema: dataOf(room) },
+    success: { status: 200, description: "The room as stored.", schema: dataOf(roomSchema) },
     errors: { 409: "Another room at that site has this code." },
   },
   {
@@ -117,7 +119,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "Retire a room",
     description: "Rooms are never deleted: findings refer to them.",
     access: { action: "locations.write" },
-    success: { status: 200, description: "The retired room.", schema: dataOf(room) },
+    success: { status: 200, description: "The retired room.", schema: dataOf(roomSchema) },
     errors: { 409: "The room still holds containers; move or dispose of them first." },
   },
   {
@@ -127,7 +129,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "Storage units",
     access: { action: "locations.read" },
     query: storageUnitListQuerySchema,
-    success: { status: 200, description: "A page of storage units.", schema: listPageOf(unit, "StorageUnitList") },
+    success: { status: 200, description: "A page of storage units.", schema: listPageOf(storageUnitListRowSchema, "StorageUnitList") },
   },
   {
     method: "post",
@@ -142,7 +144,7 @@ export const locationOperations: ApiOperation[] = [
         value: { roomId: 3, code: "FSR-2", name: "Flammable-storage refrigerator", kind: "flammable_storage_refrigerator", internalVolumeL: 140, setMinC: 2, setMaxC: 8, excursionThresholdC: 8, excursionMinDurationMin: 30, ventilated: false, ignitionSourceFree: true },
       },
     },
-    success: { status: 201, description: "Created.", schema: dataOf(unit) },
+    success: { status: 201, description: "Created.", schema: dataOf(storageUnitDetailSchema) },
     errors: { 409: "Another unit in that room has this code." },
   },
   {
@@ -151,7 +153,7 @@ export const locationOperations: ApiOperation[] = [
     tag: locationsTag,
     summary: "One storage unit",
     access: { action: "locations.read" },
-    success: { status: 200, description: "The unit.", schema: dataOf(unit) },
+    success: { status: 200, description: "The unit.", schema: dataOf(storageUnitDetailSchema) },
   },
   {
     method: "patch",
@@ -162,7 +164,7 @@ export const locationOperations: ApiOperation[] = [
     access: { action: "locations.write" },
     body: storageUnitUpdateSchema,
     bodyExamples: { tau: { summary: "Set τ from a door-open test", value: { warmUpTauMin: 240, warmUpTauNote: "Door-open test, 3 November" } } },
-    success: { status: 200, description: "The unit as stored.", schema: dataOf(unit) },
+    success: { status: 200, description: "The unit as stored.", schema: dataOf(storageUnitSchema) },
     errors: { 409: "Another unit in that room has this code." },
   },
   {
@@ -172,7 +174,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "Retire a storage unit",
     description: "Units are never deleted: findings refer to them.",
     access: { action: "locations.write" },
-    success: { status: 200, description: "The retired unit.", schema: dataOf(unit) },
+    success: { status: 200, description: "The retired unit.", schema: dataOf(storageUnitSchema) },
     errors: { 409: "The unit still holds containers; move or dispose of them first." },
   },
   {
