@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { API_KEY_SCOPES } from "@/lib/api-keys/scopes";
-import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
+import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, FRACTION_BASES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
 
 // ---------------------------------------------------------------------------------------------
 // Errors
@@ -410,3 +410,162 @@ export const storageUnitListRowSchema = z
     ownerId: id.nullable(),
   })
   .meta({ id: "StorageUnitListRow" });
+
+// ---------------------------------------------------------------------------------------------
+// Sensors and excursions
+// ---------------------------------------------------------------------------------------------
+
+/** A sensor as stored (the answer of a registration). */
+export const sensorSchema = z
+  .object({
+    id,
+    externalId: z.string().meta({ description: "The logger's device id; readings name it as `sensor`.", example: "S-205" }),
+    name: z.string(),
+    roomId: id.nullable(),
+    storageUnitId: id.nullable(),
+    csvMapping: z.record(z.string(), z.unknown()).nullable().meta({ description: "The logger-file column mapping remembered from the last import." }),
+    timeZone: z.string().nullable(),
+    active: z.boolean(),
+    createdAt: isoDateTime,
+    updatedAt: isoDateTime,
+  })
+  .meta({ id: "Sensor" });
+
+export const sensorListRowSchema = z
+  .object({
+    id,
+    externalId: z.string(),
+    name: z.string(),
+    active: z.boolean(),
+    roomId: id.meta({ description: "The room it hangs in, or its unit's room." }),
+    roomCode: z.string(),
+    roomName: z.string(),
+    storageUnitId: id.nullable(),
+    unitCode: z.string().nullable(),
+    unitName: z.string().nullable(),
+    lastReadingAt: z.number().nullable().meta({ description: "Epoch milliseconds of the latest reading." }),
+    lastReadingTempC: nullableNumber,
+    openExcursions: z.number().int().min(0),
+  })
+  .meta({ id: "SensorListRow" });
+
+/** One sensor with its place, latest reading and open excursions (GET, and the answer of PATCH). */
+export const sensorDetailSchema = sensorListRowSchema.extend({ createdAt: isoDateTime, siteName: z.string() }).meta({ id: "SensorDetail" });
+
+export const excursionListRowSchema = z
+  .object({
+    id,
+    sensorId: id,
+    sensorExternalId: z.string(),
+    sensorName: z.string(),
+    roomId: id.nullable(),
+    roomCode: z.string().nullable(),
+    storageUnitId: id.nullable(),
+    unitCode: z.string().nullable(),
+    thresholdC: z.number(),
+    startAt: isoDateTime,
+    endAt: isoDateTime.nullable().meta({ description: "Null while the excursion is open." }),
+    peakTempC: z.number(),
+    peakAt: isoDateTime,
+    durationMin: z.number().min(0).meta({ description: "End − start; for an open excursion, up to the latest reading." }),
+    acknowledgedAt: isoDateTime.nullable(),
+    acknowledgedByName: z.string().nullable(),
+    acknowledgeComment: z.string().nullable(),
+  })
+  .meta({ id: "ExcursionListRow" });
+
+/** An excursion as stored (the answer of an acknowledgement). */
+export const excursionSchema = z
+  .object({
+    id,
+    sensorId: id,
+    roomId: id.nullable(),
+    storageUnitId: id.nullable(),
+    thresholdC: z.number(),
+    startAt: isoDateTime,
+    endAt: isoDateTime.nullable(),
+    peakTempC: z.number(),
+    peakAt: isoDateTime,
+    acknowledgedAt: isoDateTime.nullable(),
+    acknowledgedById: id.nullable(),
+    acknowledgeComment: z.string().nullable(),
+    createdAt: isoDateTime,
+    updatedAt: isoDateTime,
+  })
+  .meta({ id: "Excursion" });
+
+// ---------------------------------------------------------------------------------------------
+// Containers and mixtures
+// ---------------------------------------------------------------------------------------------
+
+/** One container with its contents, place, owner and history of moves. */
+export const containerSchema = z
+  .object({
+    id,
+    label: z.string(),
+    substanceId: id.nullable(),
+    mixtureId: id.nullable(),
+    amount: z.number(),
+    amountUnit: z.enum(AMOUNT_UNITS),
+    capacity: nullableNumber,
+    capacityUnit: z.enum(AMOUNT_UNITS).nullable(),
+    containerKind: z.enum(CONTAINER_KINDS),
+    state: z.enum(CONTAINER_STATES),
+    storageUnitId: id,
+    ownerId: id.nullable(),
+    receivedAt: isoDateTime.nullable(),
+    openedAt: isoDateTime.nullable(),
+    expiresAt: isoDateTime.nullable(),
+    sdsFileId: id.nullable().meta({ description: "Its safety data sheet: `GET /api/v1/files/{id}`." }),
+    notes: z.string().nullable(),
+    createdAt: isoDateTime,
+    updatedAt: isoDateTime,
+    substanceName: z.string().nullable(),
+    substanceCas: z.string().nullable(),
+    mixtureName: z.string().nullable(),
+    unitCode: z.string(),
+    unitName: z.string(),
+    roomId: id,
+    roomCode: z.string(),
+    siteId: id,
+    siteName: z.string(),
+    ownerName: z.string().nullable(),
+    ownerEmail: z.string().nullable(),
+    moves: z.array(
+      z.object({
+        id,
+        movedAt: isoDateTime,
+        fromUnitCode: z.string().nullable(),
+        fromRoomCode: z.string().nullable(),
+        toUnitCode: z.string(),
+        toRoomCode: z.string(),
+        movedBy: z.string().nullable(),
+      }),
+    ),
+  })
+  .meta({ id: "Container" });
+
+export const mixtureSchema = z
+  .object({
+    id,
+    name: z.string(),
+    description: z.string().nullable(),
+    fractionBasis: z.enum(FRACTION_BASES),
+    createdById: id.nullable(),
+    retiredAt: isoDateTime.nullable(),
+    createdAt: isoDateTime,
+    updatedAt: isoDateTime,
+    components: z.array(z.object({ substanceId: id, fraction: z.number(), name: z.string(), cas: z.string().nullable() })),
+  })
+  .meta({ id: "Mixture" });
+
+export const mixtureListRowSchema = z
+  .object({
+    id,
+    name: z.string(),
+    description: z.string().nullable(),
+    fractionBasis: z.enum(FRACTION_BASES),
+    createdAt: isoDateTime,
+    components: z.number().int().meta({ description: "How many components." }),
+  })
+  .meta({ id: "MixtureListRow" });

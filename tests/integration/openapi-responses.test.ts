@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { users, type User } from "@/db/schema";
+import { storageUnits, substances, users, type User } from "@/db/schema";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_INGEST_KEY } from "@/db/seed/demo-readings";
 import * as apiKeysRoute from "@/app/api/v1/api-keys/route";
@@ -24,6 +24,15 @@ import * as roomsRoute from "@/app/api/v1/rooms/route";
 import * as roomRoute from "@/app/api/v1/rooms/[id]/route";
 import * as unitsRoute from "@/app/api/v1/storage-units/route";
 import * as unitRoute from "@/app/api/v1/storage-units/[id]/route";
+import * as containerRoute from "@/app/api/v1/containers/[id]/route";
+import * as containerMoveRoute from "@/app/api/v1/containers/[id]/move/route";
+import * as containerStateRoute from "@/app/api/v1/containers/[id]/state/route";
+import * as mixturesRoute from "@/app/api/v1/mixtures/route";
+import * as mixtureRoute from "@/app/api/v1/mixtures/[id]/route";
+import * as sensorsRoute from "@/app/api/v1/sensors/route";
+import * as sensorRoute from "@/app/api/v1/sensors/[id]/route";
+import * as excursionsRoute from "@/app/api/v1/excursions/route";
+import * as excursionAckRoute from "@/app/api/v1/excursions/[id]/acknowledge/route";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { call, sessionCookieFor } from "./helpers/world";
@@ -208,6 +217,54 @@ describe("documented answers match real ones", () => {
     const retiredRoom = await call(roomRoute.DELETE, { method: "DELETE", cookie, params: { id: String(newRoom.body.data.id) } });
     expect(retiredRoom.status).toBe(200);
     expectDocumented("delete", "/api/v1/rooms/{id}", retiredRoom.body);
+  });
+
+  it("containers and mixtures: one record, logged, changed, moved, state set; mixtures listed, defined, read", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const acetone = getDb().select().from(substances).where(eq(substances.cas, "67-64-1")).get()!;
+    const ethanol = getDb().select().from(substances).where(eq(substances.cas, "64-17-5")).get()!;
+    const [first, second] = getDb().select().from(storageUnits).limit(2).all();
+    const created = await call(containersRoute.POST, { method: "POST", cookie, body: { label: "Acetone 500 mL", substanceId: acetone.id, amount: 0.5, amountUnit: "L", storageUnitId: first.id } });
+    expect(created.status).toBe(201);
+    expectDocumented("post", "/api/v1/containers", created.body);
+    const params = { id: String(created.body.data.id) };
+    expectDocumented("get", "/api/v1/containers/{id}", (await call(containerRoute.GET, { cookie, params })).body);
+    expectDocumented("patch", "/api/v1/containers/{id}", (await call(containerRoute.PATCH, { method: "PATCH", cookie, params, body: { amount: 0.4 } })).body);
+    const moved = await call(containerMoveRoute.POST, { method: "POST", cookie, params, body: { storageUnitId: second.id } });
+    expect(moved.body.data.moves[0].toUnitCode).toBe(second.code);
+    expectDocumented("post", "/api/v1/containers/{id}/move", moved.body);
+    expectDocumented("post", "/api/v1/containers/{id}/state", (await call(containerStateRoute.POST, { method: "POST", cookie, params, body: { state: "opened" } })).body);
+
+    const mixture = await call(mixturesRoute.POST, { method: "POST", cookie, body: { name: "Acetone / ethanol 1:1", fractionBasis: "mass", components: [{ substanceId: acetone.id, fraction: 0.5 }, { substanceId: ethanol.id, fraction: 0.5 }] } });
+    expect(mixture.status).toBe(201);
+    expectDocumented("post", "/api/v1/mixtures", mixture.body);
+    expectDocumented("get", "/api/v1/mixtures/{id}", (await call(mixtureRoute.GET, { cookie, params: { id: String(mixture.body.data.id) } })).body);
+    const mixtures = await call(mixturesRoute.GET, { cookie });
+    expect(mixtures.body.data.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/mixtures", mixtures.body);
+  });
+
+  it("sensors and excursions: listed, read, registered, changed, acknowledged", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const sensors = await call(sensorsRoute.GET, { cookie, path: "/api/v1/sensors?pageSize=100" });
+    expect(sensors.body.data.length).toBeGreaterThan(5);
+    expectDocumented("get", "/api/v1/sensors", sensors.body);
+    const params = { id: String(sensors.body.data[0].id) };
+    expectDocumented("get", "/api/v1/sensors/{id}", (await call(sensorRoute.GET, { cookie, params })).body);
+    expectDocumented("patch", "/api/v1/sensors/{id}", (await call(sensorRoute.PATCH, { method: "PATCH", cookie, params, body: { name: "B-014 ambient (wall)" } })).body);
+    const unit = getDb().select().from(storageUnits).limit(1).get()!;
+    const registered = await call(sensorsRoute.POST, { method: "POST", cookie, body: { externalId: "S-290", name: "Spare probe", storageUnitId: unit.id } });
+    expect(registered.status).toBe(201);
+    expectDocumented("post", "/api/v1/sensors", registered.body);
+
+    const excursions = await call(excursionsRoute.GET, { cookie, path: "/api/v1/excursions" });
+    expect(excursions.body.data.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/excursions", excursions.body);
+    const waiting = excursions.body.data.find((e: { acknowledgedAt: string | null }) => e.acknowledgedAt === null);
+    expect(waiting).toBeDefined();
+    const acknowledged = await call(excursionAckRoute.POST, { method: "POST", cookie, params: { id: String(waiting.id) }, body: { comment: "Door closed, contents checked." } });
+    expect(acknowledged.status).toBe(200);
+    expectDocumented("post", "/api/v1/excursions/{id}/acknowledge", acknowledged.body);
   });
 
   it("a 400 with field errors is in the shared error shape", async () => {

@@ -4,15 +4,10 @@ import { IMPORT_LIMITS, SDS_LIMITS } from "@/lib/limits";
 import { mixtureCreateSchema, mixtureListQuerySchema } from "@/lib/mixtures/schemas";
 import { substanceCreateSchema, substanceListQuerySchema, substanceUpdateSchema, vaporPressureQuerySchema } from "@/lib/substances/schemas";
 import type { ApiOperation } from "../operation";
-import { containerListRowSchema, dataOf, listPageOf, looseRecord, vaporPressureResultSchema } from "../schemas";
+import { containerListRowSchema, containerSchema, dataOf, listPageOf, looseRecord, mixtureListRowSchema, mixtureSchema, vaporPressureResultSchema } from "../schemas";
 
 const XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet";
 
-const container = looseRecord(
-  "Container",
-  "A container with what it holds (`substance` or `mixture`), `amount` and `amountUnit`, `capacity`, `containerKind`, `state`, its place (`storageUnitId` with the unit, room and site), `owner`, dates (`receivedAt`, `openedAt`, `expiresAt`), its safety data sheet and its history of moves.",
-);
-const mixture = looseRecord("Mixture", "A mixture: `id`, `name`, `description`, `fractionBasis` (`mass` or `mole`) and its `components` (substance and fraction).");
 const substanceSummary = looseRecord("SubstanceSummary", "A library substance in a list: `id`, `name`, `cas`, the key properties (boiling point, flash point, LFL, molar mass) and its GHS flammability category.");
 const substanceDetail = looseRecord("Substance", "A library substance with every property, its vapor-pressure correlation, exposure limits and the source of each value; `retiredAt` when retired.");
 const attachedFile = looseRecord("AttachedFile", "The stored safety data sheet: `id`, `originalName`, `sizeBytes`, `sha256`, `uploadedAt`.");
@@ -80,7 +75,7 @@ export const inventoryOperations: ApiOperation[] = [
     bodyExamples: {
       bottle: { summary: "A bottle of ethanol", value: { label: "Ethanol absolute 1 L", substanceId: 5, amount: 1, amountUnit: "L", containerKind: "glass_bottle", state: "sealed", storageUnitId: 2 } },
     },
-    success: { status: 201, description: "Logged.", schema: dataOf(container) },
+    success: { status: 201, description: "Logged.", schema: dataOf(containerSchema) },
     errors: { 404: "The storage unit, substance or mixture does not exist." },
   },
   {
@@ -89,7 +84,7 @@ export const inventoryOperations: ApiOperation[] = [
     tag: "Containers",
     summary: "One container",
     access: { action: "inventory.read" },
-    success: { status: 200, description: "The container.", schema: dataOf(container) },
+    success: { status: 200, description: "The container.", schema: dataOf(containerSchema) },
   },
   {
     method: "patch",
@@ -100,7 +95,7 @@ export const inventoryOperations: ApiOperation[] = [
     access: { action: "containers.write" },
     body: containerUpdateSchema,
     bodyExamples: { used: { summary: "Some was used", value: { amount: 1.8, state: "in_use" } } },
-    success: { status: 200, description: "The container as stored.", schema: dataOf(container) },
+    success: { status: 200, description: "The container as stored.", schema: dataOf(containerSchema) },
     errors: { 409: "The container was disposed of; its record is kept and cannot be changed." },
   },
   {
@@ -112,7 +107,7 @@ export const inventoryOperations: ApiOperation[] = [
     access: { action: "containers.write" },
     body: containerMoveSchema,
     bodyExamples: { cabinet: { summary: "Into the flammable cabinet", value: { storageUnitId: 1 } } },
-    success: { status: 200, description: "The container in its new place.", schema: dataOf(container) },
+    success: { status: 200, description: "The container in its new place.", schema: dataOf(containerSchema) },
     errors: { 409: "The container was disposed of; its record is kept and cannot be changed." },
   },
   {
@@ -124,7 +119,7 @@ export const inventoryOperations: ApiOperation[] = [
     access: { action: "containers.write" },
     body: containerStateSchema,
     bodyExamples: { opened: { summary: "Opened", value: { state: "opened" } } },
-    success: { status: 200, description: "The container as stored.", schema: dataOf(container) },
+    success: { status: 200, description: "The container as stored.", schema: dataOf(containerSchema) },
     errors: { 409: "The container was disposed of; its record is kept and cannot be changed." },
   },
   {
@@ -145,7 +140,7 @@ export const inventoryOperations: ApiOperation[] = [
     summary: "Mixtures",
     access: { action: "inventory.read" },
     query: mixtureListQuerySchema,
-    success: { status: 200, description: "A page of mixtures.", schema: listPageOf(mixture, "MixtureList") },
+    success: { status: 200, description: "A page of mixtures.", schema: listPageOf(mixtureListRowSchema, "MixtureList") },
   },
   {
     method: "post",
@@ -158,7 +153,7 @@ export const inventoryOperations: ApiOperation[] = [
     bodyExamples: {
       eluent: { summary: "A chromatography eluent", value: { name: "Hexane / ethyl acetate 4:1", fractionBasis: "mass", components: [{ substanceId: 7, fraction: 0.8 }, { substanceId: 9, fraction: 0.2 }] } },
     },
-    success: { status: 201, description: "Created.", schema: dataOf(mixture) },
+    success: { status: 201, description: "Created.", schema: dataOf(mixtureSchema) },
     errors: { 404: "A component's substance does not exist.", 409: "A mixture with this name exists." },
   },
   {
@@ -167,7 +162,7 @@ export const inventoryOperations: ApiOperation[] = [
     tag: "Mixtures",
     summary: "One mixture",
     access: { action: "inventory.read" },
-    success: { status: 200, description: "The mixture.", schema: dataOf(mixture) },
+    success: { status: 200, description: "The mixture.", schema: dataOf(mixtureSchema) },
   },
   {
     method: "get",

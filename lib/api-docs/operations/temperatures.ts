@@ -12,11 +12,21 @@ import {
   seriesQuerySchema,
 } from "@/lib/temperatures/schemas";
 import type { ApiOperation } from "../operation";
-import { dataOf, excursionBulkResultSchema, ingestResultSchema, listPageOf, looseRecord, readingInSchema } from "../schemas";
+import {
+  dataOf,
+  excursionBulkResultSchema,
+  excursionListRowSchema,
+  excursionSchema,
+  ingestResultSchema,
+  listPageOf,
+  looseRecord,
+  readingInSchema,
+  sensorDetailSchema,
+  sensorListRowSchema,
+  sensorSchema,
+} from "../schemas";
 
-const sensor = looseRecord("Sensor", "A logger: `id`, `externalId` (its device id), `name`, where it hangs (`roomId` or `storageUnitId`, with codes), `active`, `timeZone`, `lastReadingAt` and whether an excursion is open.");
 const series = looseRecord("ReadingSeries", "A chart's trace: every reading (`kind: raw`) or time buckets with mean, lowest and highest (`kind: buckets`), the window, the location's set range and threshold, and the excursions overlapping the window.");
-const excursion = looseRecord("Excursion", "A temperature excursion: `id`, the sensor and location, `startedAt`, `endedAt` (null while open), `peakC`, the threshold crossed, and its acknowledgement (`acknowledgedAt`, `acknowledgedBy`, `comment`).");
 const csvUpload = looseRecord("CsvUpload", "An upload held for an hour: `token`, the detected layout (delimiter, decimal mark, header line, column names, first lines) and the `mapping` to start from.");
 const csvPreview = looseRecord("CsvPreview", "The first 20 readings, the row count, the first and last instant, how many are already stored, and every problem by line and column (the first 500 listed, all counted).");
 const csvImport = looseRecord("CsvImportResult", "The counts (`accepted`, `duplicates`) and the excursion changes.");
@@ -66,7 +76,7 @@ export const temperatureOperations: ApiOperation[] = [
     summary: "Sensors",
     access: { action: "temperatures.read" },
     query: sensorListQuerySchema,
-    success: { status: 200, description: "A page of sensors.", schema: listPageOf(sensor, "SensorList") },
+    success: { status: 200, description: "A page of sensors.", schema: listPageOf(sensorListRowSchema, "SensorList") },
   },
   {
     method: "post",
@@ -77,7 +87,7 @@ export const temperatureOperations: ApiOperation[] = [
     access: { action: "sensors.write" },
     body: sensorCreateSchema,
     bodyExamples: { fridge: { summary: "A logger inside a refrigerator", value: { externalId: "S-212", name: "2.107 FR-1 second probe", storageUnitId: 5 } } },
-    success: { status: 201, description: "Registered.", schema: dataOf(sensor) },
+    success: { status: 201, description: "Registered.", schema: dataOf(sensorSchema) },
     errors: { 404: "The room or unit does not exist.", 409: "A sensor with this device id exists." },
   },
   {
@@ -86,7 +96,7 @@ export const temperatureOperations: ApiOperation[] = [
     tag,
     summary: "One sensor",
     access: { action: "temperatures.read" },
-    success: { status: 200, description: "The sensor.", schema: dataOf(sensor) },
+    success: { status: 200, description: "The sensor.", schema: dataOf(sensorDetailSchema) },
   },
   {
     method: "patch",
@@ -97,7 +107,7 @@ export const temperatureOperations: ApiOperation[] = [
     access: { action: "sensors.write" },
     body: sensorUpdateSchema,
     bodyExamples: { off: { summary: "Switch it off", value: { active: false } } },
-    success: { status: 200, description: "The sensor as stored.", schema: dataOf(sensor) },
+    success: { status: 200, description: "The sensor as stored.", schema: dataOf(sensorDetailSchema) },
     errors: { 409: "A sensor with this device id exists." },
   },
   {
@@ -164,7 +174,7 @@ export const temperatureOperations: ApiOperation[] = [
     description: "Open ones first, then newest first; filter by sensor, room (`roomId`; `inRoomId` with its units), unit, open or awaiting acknowledgement.",
     access: { action: "temperatures.read" },
     query: excursionListQuerySchema,
-    success: { status: 200, description: "The excursions.", schema: z.object({ data: z.array(excursion) }) },
+    success: { status: 200, description: "The excursions.", schema: z.object({ data: z.array(excursionListRowSchema) }) },
   },
   {
     method: "post",
@@ -175,7 +185,7 @@ export const temperatureOperations: ApiOperation[] = [
     access: { action: "excursions.acknowledge" },
     body: excursionAcknowledgeSchema,
     bodyExamples: { door: { summary: "Door left ajar", value: { comment: "Door found ajar after the delivery; closed it, contents checked, nothing warmer than 9 °C." } } },
-    success: { status: 200, description: "Acknowledged.", schema: dataOf(excursion) },
+    success: { status: 200, description: "Acknowledged.", schema: dataOf(excursionSchema) },
     errors: { 409: "Already acknowledged." },
   },
   {
