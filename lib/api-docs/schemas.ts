@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { API_KEY_SCOPES } from "@/lib/api-keys/scopes";
-import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, FINDING_STATUSES, FRACTION_BASES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
+import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, EXPOSURE_LIMIT_KINDS, FINDING_EVENT_KINDS, FINDING_STATUSES, FRACTION_BASES, PHYSICAL_STATES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
 
 // ---------------------------------------------------------------------------------------------
 // Errors
@@ -274,12 +274,7 @@ export const excursionBulkResultSchema = z.object({
   data: z.array(z.object({ excursionId: z.number().int(), ok: z.boolean(), error: z.string().optional() })),
 });
 
-export const vaporPressureResultSchema = z
-  .object({ substanceId: z.number().int() })
-  .loose()
-  .meta({ id: "VaporPressure", description: "The saturation vapor pressure and saturated concentration at tempC, with the correlation used." });
 
-export const settingsSavedSchema = dataOf(z.object({ jobId: z.number().int().meta({ description: "The background re-assessment of every location." }) }).loose());
 
 // ---------------------------------------------------------------------------------------------
 // Locations
@@ -569,3 +564,126 @@ export const mixtureListRowSchema = z
     components: z.number().int().meta({ description: "How many components." }),
   })
   .meta({ id: "MixtureListRow" });
+
+// ---------------------------------------------------------------------------------------------
+// Substances
+// ---------------------------------------------------------------------------------------------
+
+export const substanceSummarySchema = z
+  .object({
+    id,
+    cas: z.string().nullable(),
+    name: z.string(),
+    synonyms: z.array(z.string()),
+    formula: z.string().nullable(),
+    physicalState: z.enum(PHYSICAL_STATES),
+    molarMassGPerMol: nullableNumber,
+    normalBoilingPointC: nullableNumber,
+    flashPointC: nullableNumber,
+    lflVolPercent: nullableNumber,
+    uflVolPercent: nullableNumber,
+    ghsFlammableCategory: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4)]).nullable(),
+    nfpaLiquidClass: z.string().nullable(),
+    retired: z.boolean(),
+  })
+  .meta({ id: "SubstanceSummary" });
+
+export const substanceSchema = substanceSummarySchema
+  .extend({
+    meltingPointC: nullableNumber,
+    enthalpyOfVaporizationKJPerMol: nullableNumber,
+    enthalpyOfSublimationKJPerMol: nullableNumber,
+    liquidDensityKgPerM3: nullableNumber,
+    autoignitionTempC: nullableNumber,
+    lowerFlammableTemperatureC: nullableNumber,
+    correlations: z.array(z.object({ kind: z.string() }).loose()).meta({ description: "Vapor-pressure correlations with their coefficients, range and source." }),
+    exposureLimits: z.array(
+      z.object({ kind: z.enum(EXPOSURE_LIMIT_KINDS), value: z.number(), unit: z.string(), body: z.string().nullable(), source: z.string().nullable(), note: z.string().nullable() }),
+    ),
+    sources: z.record(z.string(), z.string()).meta({ description: "The source of each value, by field name." }),
+    alternatives: z.array(z.object({}).loose()).meta({ description: "Less hazardous alternatives named for the substance." }),
+    notes: z.string().nullable(),
+    updatedAt: isoDateTime,
+  })
+  .meta({ id: "Substance" });
+
+export const vaporPressureSchema = z
+  .object({
+    substanceId: id,
+    tempC: z.number(),
+    ambientPressureKPa: z.number(),
+    pressureKPa: z.number().meta({ description: "Saturation vapor pressure." }),
+    method: z.string().meta({ description: "The correlation used.", example: "wagner" }),
+    extrapolated: z.boolean().meta({ description: "Outside the correlation's range." }),
+    warnings: z.array(z.string()),
+    saturatedConcentration: z.object({
+      ppm: z.number(),
+      mgPerM3: z.number(),
+      volumePercent: z.number(),
+      boils: z.boolean().meta({ description: "At or above the boiling point at this pressure." }),
+      warnings: z.array(z.string()),
+    }),
+  })
+  .meta({ id: "VaporPressure", description: "A screening estimate from the library's correlation." });
+
+// ---------------------------------------------------------------------------------------------
+// Findings, settings, audit
+// ---------------------------------------------------------------------------------------------
+
+const findingEventSchemaOut = z
+  .object({
+    id,
+    kind: z.enum(FINDING_EVENT_KINDS),
+    fromStatus: z.enum(FINDING_STATUSES).nullable(),
+    toStatus: z.enum(FINDING_STATUSES).nullable(),
+    note: z.string().nullable(),
+    data: z.record(z.string(), z.unknown()).nullable().meta({ description: "The step's own fields (plan, assignee, review date, …)." }),
+    at: isoDateTime,
+    actorId: id.nullable(),
+    actorName: z.string().nullable(),
+  })
+  .loose()
+  .meta({ id: "FindingEvent", description: "One step in a finding's history. `GET /api/v1/findings/{id}` adds `actor: { id, name }`." });
+
+/** One finding as stored, with its trace and events. The core fields are named; the stored row's others come along. */
+export const findingSchema = z
+  .object({
+    id,
+    fingerprint: z.string(),
+    rule: z.string(),
+    severity,
+    status: z.enum(FINDING_STATUSES),
+    scenario: z.string(),
+    title: z.string(),
+    value: nullableNumber,
+    limit: nullableNumber.meta({ description: "The limit the value is compared with (also stored as `limitValue`)." }),
+    ratio: nullableNumber,
+    unit: z.string().nullable(),
+    roomId: id.nullable(),
+    storageUnitId: id.nullable(),
+    substanceId: id.nullable(),
+    mixtureId: id.nullable(),
+    timeToDanger: timeToDanger.nullable(),
+    lastEvaluatedAt: isoDateTime.nullable(),
+    trace: z.unknown().nullable().meta({ description: "The calculation trace: each step with its inputs, formula and result." }),
+    events: z.array(findingEventSchemaOut),
+    message: z.string().optional().meta({ description: "After a resolve: whether the condition is gone or still holds." }),
+  })
+  .loose()
+  .meta({ id: "Finding" });
+
+export const auditEventSchema = z
+  .object({
+    id,
+    at: isoDateTime,
+    actorId: id.nullable(),
+    actorLabel: z.string().meta({ description: "Who acted: an e-mail address, an API key or the system." }),
+    action: z.string(),
+    entityType: z.string(),
+    entityId: z.string().nullable(),
+    summary: z.string(),
+    before: z.unknown().nullable(),
+    after: z.unknown().nullable(),
+    changes: z.array(z.object({ field: z.string(), label: z.string(), before: z.string(), after: z.string() })).meta({ description: "The fields that changed, in words." }),
+  })
+  .meta({ id: "AuditEvent" });

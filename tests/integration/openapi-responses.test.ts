@@ -33,6 +33,13 @@ import * as sensorsRoute from "@/app/api/v1/sensors/route";
 import * as sensorRoute from "@/app/api/v1/sensors/[id]/route";
 import * as excursionsRoute from "@/app/api/v1/excursions/route";
 import * as excursionAckRoute from "@/app/api/v1/excursions/[id]/acknowledge/route";
+import * as substancesRoute from "@/app/api/v1/substances/route";
+import * as substanceRoute from "@/app/api/v1/substances/[id]/route";
+import * as vaporRoute from "@/app/api/v1/substances/[id]/vapor-pressure/route";
+import * as findingRoute from "@/app/api/v1/findings/[id]/route";
+import * as findingEventsRoute from "@/app/api/v1/findings/[id]/events/route";
+import * as settingsRoute from "@/app/api/v1/settings/assessment/route";
+import * as auditRoute from "@/app/api/v1/audit-events/route";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { call, sessionCookieFor } from "./helpers/world";
@@ -265,6 +272,42 @@ describe("documented answers match real ones", () => {
     const acknowledged = await call(excursionAckRoute.POST, { method: "POST", cookie, params: { id: String(waiting.id) }, body: { comment: "Door closed, contents checked." } });
     expect(acknowledged.status).toBe(200);
     expectDocumented("post", "/api/v1/excursions/{id}/acknowledge", acknowledged.body);
+  });
+
+  it("substances: the library, one substance, its vapor pressure", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const list = await call(substancesRoute.GET, { cookie, path: "/api/v1/substances?pageSize=100" });
+    expect(list.body.data.length).toBeGreaterThan(20);
+    expectDocumented("get", "/api/v1/substances", list.body);
+    const acetone = list.body.data.find((row: { cas: string }) => row.cas === "67-64-1");
+    const params = { id: String(acetone.id) };
+    const one = await call(substanceRoute.GET, { cookie, params });
+    expect(one.body.data.exposureLimits.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/substances/{id}", one.body);
+    const vapor = await call(vaporRoute.GET, { cookie, params, path: `/api/v1/substances/${acetone.id}/vapor-pressure?tempC=20` });
+    expect(vapor.status).toBe(200);
+    expectDocumented("get", "/api/v1/substances/{id}/vapor-pressure", vapor.body);
+  });
+
+  it("findings: one finding with its events, a step taken; the settings read and stored; the audit log", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const list = await call(findingsRoute.GET, { cookie, path: "/api/v1/findings?status=open" });
+    const params = { id: String(list.body.data[0].id) };
+    expectDocumented("get", "/api/v1/findings/{id}", (await call(findingRoute.GET, { cookie, params })).body);
+    const step = await call(findingEventsRoute.POST, { method: "POST", cookie, params, body: { kind: "acknowledge", note: "Seen." } });
+    expect(step.status).toBe(201);
+    expect(step.body.data.status).toBe("acknowledged");
+    expectDocumented("post", "/api/v1/findings/{id}/events", step.body);
+
+    const settings = await call(settingsRoute.GET, { cookie });
+    expectDocumented("get", "/api/v1/settings/assessment", settings.body);
+    const saved = await call(settingsRoute.PUT, { method: "PUT", cookie, body: settings.body.data });
+    expect(saved.status).toBe(202);
+    expectDocumented("put", "/api/v1/settings/assessment", saved.body);
+
+    const audit = await call(auditRoute.GET, { cookie, path: "/api/v1/audit-events?pageSize=50" });
+    expect(audit.body.data.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/audit-events", audit.body);
   });
 
   it("a 400 with field errors is in the shared error shape", async () => {

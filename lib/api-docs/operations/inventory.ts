@@ -4,12 +4,10 @@ import { IMPORT_LIMITS, SDS_LIMITS } from "@/lib/limits";
 import { mixtureCreateSchema, mixtureListQuerySchema } from "@/lib/mixtures/schemas";
 import { substanceCreateSchema, substanceListQuerySchema, substanceUpdateSchema, vaporPressureQuerySchema } from "@/lib/substances/schemas";
 import type { ApiOperation } from "../operation";
-import { containerListRowSchema, containerSchema, dataOf, listPageOf, looseRecord, mixtureListRowSchema, mixtureSchema, vaporPressureResultSchema } from "../schemas";
+import { containerListRowSchema, containerSchema, dataOf, listPageOf, looseRecord, mixtureListRowSchema, mixtureSchema, substanceSchema, substanceSummarySchema, vaporPressureSchema } from "../schemas";
 
 const XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet";
 
-const substanceSummary = looseRecord("SubstanceSummary", "A library substance in a list: `id`, `name`, `cas`, the key properties (boiling point, flash point, LFL, molar mass) and its GHS flammability category.");
-const substanceDetail = looseRecord("Substance", "A library substance with every property, its vapor-pressure correlation, exposure limits and the source of each value; `retiredAt` when retired.");
 const attachedFile = looseRecord("AttachedFile", "The stored safety data sheet: `id`, `originalName`, `sizeBytes`, `sha256`, `uploadedAt`.");
 const importPreview = looseRecord("ImportPreview", "What an import would do: `rowCount`, every problem by line and column (`issues`), and counts `toCreate`, `toUpdate`, `unchanged`, with `notices`.");
 const importResult = looseRecord("ImportResult", "What the import wrote: the counts created and updated.");
@@ -171,7 +169,7 @@ export const inventoryOperations: ApiOperation[] = [
     summary: "The substance library",
     access: { action: "substances.read" },
     query: substanceListQuerySchema,
-    success: { status: 200, description: "A page of substances.", schema: listPageOf(substanceSummary, "SubstanceList") },
+    success: { status: 200, description: "A page of substances.", schema: listPageOf(substanceSummarySchema, "SubstanceList") },
   },
   {
     method: "post",
@@ -181,7 +179,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Every value needs its source.",
     access: { action: "substances.write" },
     body: substanceCreateSchema,
-    success: { status: 201, description: "Added.", schema: dataOf(substanceDetail) },
+    success: { status: 201, description: "Added.", schema: dataOf(substanceSchema) },
     errors: { 409: "A substance with this CAS number or name exists." },
   },
   {
@@ -190,7 +188,7 @@ export const inventoryOperations: ApiOperation[] = [
     tag: "Substances",
     summary: "One substance",
     access: { action: "substances.read" },
-    success: { status: 200, description: "The substance.", schema: dataOf(substanceDetail) },
+    success: { status: 200, description: "The substance.", schema: dataOf(substanceSchema) },
   },
   {
     method: "patch",
@@ -200,7 +198,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Every value with a source; audited. Every room holding it is re-assessed.",
     access: { action: "substances.write" },
     body: substanceUpdateSchema,
-    success: { status: 200, description: "The substance as stored.", schema: dataOf(substanceDetail) },
+    success: { status: 200, description: "The substance as stored.", schema: dataOf(substanceSchema) },
     errors: { 409: "A substance with this CAS number or name exists." },
   },
   {
@@ -210,7 +208,7 @@ export const inventoryOperations: ApiOperation[] = [
     summary: "Retire a substance",
     description: "It stays for existing containers and findings.",
     access: { action: "substances.write" },
-    success: { status: 200, description: "The retired substance.", schema: dataOf(substanceDetail) },
+    success: { status: 200, description: "The retired substance.", schema: dataOf(substanceSchema) },
     errors: { 409: "That substance is already retired." },
   },
   {
@@ -219,7 +217,7 @@ export const inventoryOperations: ApiOperation[] = [
     tag: "Substances",
     summary: "Bring a retired substance back",
     access: { action: "substances.write" },
-    success: { status: 200, description: "The substance, back in the library.", schema: dataOf(substanceDetail) },
+    success: { status: 200, description: "The substance, back in the library.", schema: dataOf(substanceSchema) },
     errors: { 409: "That substance is not retired." },
   },
   {
@@ -240,7 +238,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "The saturation vapor pressure and saturated concentration of one substance at `tempC` (optionally at `ambientPressureKPa`). A screening estimate from the library's correlation.",
     access: { action: "substances.read" },
     query: vaporPressureQuerySchema,
-    success: { status: 200, description: "The values.", schema: vaporPressureResultSchema },
+    success: { status: 200, description: "The values.", schema: vaporPressureSchema },
     errors: { 422: "The substance lacks the data to compute it at that temperature (`insufficient_data`)." },
   },
   {

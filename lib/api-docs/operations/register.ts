@@ -1,3 +1,4 @@
+import { z } from "zod";
 import { assessmentPreviewSchema } from "@/lib/assessment/preview";
 import { assessmentSettingsSchema } from "@/lib/assessment/rules";
 import { storagePlanSchema } from "@/lib/assessment/storage-plan";
@@ -5,20 +6,14 @@ import { auditListQuerySchema } from "@/lib/audit/schemas";
 import { registerExportQuerySchema } from "@/lib/exports/schemas";
 import { bulkFindingEventSchema, findingEventSchema, findingListQuerySchema } from "@/lib/register/schemas";
 import type { ApiOperation } from "../operation";
-import { bulkResultSchema, dataOf, findingListRowSchema, listPageOf, looseRecord, settingsSavedSchema, storagePlanSchemaOut } from "../schemas";
+import { auditEventSchema, bulkResultSchema, dataOf, findingListRowSchema, findingSchema, listPageOf, looseRecord, storagePlanSchemaOut } from "../schemas";
 
 const XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet";
 
-const finding = looseRecord(
-  "Finding",
-  "One finding: the fields of a register row (`FindingListRow`) with its calculation trace and its `events` (each with `kind`, `at`, `actor` and the step's fields); after a resolve that found the condition still there, a `message` saying so.",
-);
 const preview = looseRecord(
   "AssessmentPreview",
   "`{ storageUnitId, findings, current, verdict, verdictSentence, cleared, alternatives }`: the new or worse findings the change would raise, the findings standing there, the verdict (`raises`, `already_flagged`, `no_findings`) in a plain sentence, for a move the findings that would go, and up to five safer places in the storage planner's shape.",
 );
-const settings = looseRecord("AssessmentSettings", "The thresholds and assumptions the assessment applies (defaults until a safety officer changes them).");
-const auditEvent = looseRecord("AuditEvent", "Who changed what, when: `at`, the actor, `action`, the record (`entityType`, `entityId`), a `summary` and the before and after values.");
 
 export const findingListExample = {
   data: [
@@ -72,7 +67,7 @@ export const registerOperations: ApiOperation[] = [
     summary: "One finding",
     description: "With its calculation trace and its history of events.",
     access: { action: "findings.read" },
-    success: { status: 200, description: "The finding.", schema: dataOf(finding) },
+    success: { status: 200, description: "The finding.", schema: dataOf(findingSchema) },
     errors: { 404: "No such finding, or it is not on a location you look after." },
   },
   {
@@ -88,7 +83,7 @@ export const registerOperations: ApiOperation[] = [
       acknowledge: { summary: "Acknowledge", value: { kind: "acknowledge", note: "Seen; checking the refrigerator's door seal." } },
       mitigate: { summary: "Start mitigation", value: { kind: "start_mitigation", plan: "Move the acetone stock to FC-1 in B-014 and keep 500 mL in FSR-1.", assigneeId: 2 } },
     },
-    success: { status: 201, description: "The step was recorded; the finding as it now stands.", schema: dataOf(finding) },
+    success: { status: 201, description: "The step was recorded; the finding as it now stands.", schema: dataOf(findingSchema) },
     errors: { 409: "The finding's status does not allow that step." },
   },
   {
@@ -162,7 +157,7 @@ export const registerOperations: ApiOperation[] = [
     tag: "Assessment",
     summary: "The assessment's thresholds and assumptions",
     access: { action: "findings.read" },
-    success: { status: 200, description: "The settings in force.", schema: dataOf(settings) },
+    success: { status: 200, description: "The settings in force.", schema: dataOf(assessmentSettingsSchema) },
   },
   {
     method: "put",
@@ -172,7 +167,7 @@ export const registerOperations: ApiOperation[] = [
     description: "Every location is re-assessed in a background job whose id is returned.",
     access: { action: "hazardSettings.write" },
     body: assessmentSettingsSchema,
-    success: { status: 202, description: "Stored; the re-assessment runs in the background.", schema: settingsSavedSchema },
+    success: { status: 202, description: "Stored; the re-assessment runs in the background.", schema: dataOf(z.object({ jobId: z.number().int().meta({ description: "The background re-assessment of every location." }), settings: assessmentSettingsSchema })) },
   },
   {
     method: "get",
@@ -195,6 +190,6 @@ export const registerOperations: ApiOperation[] = [
     description: "Who changed what, when, with before and after values.",
     access: { action: "audit.read" },
     query: auditListQuerySchema,
-    success: { status: 200, description: "A page of events, newest first by default.", schema: listPageOf(auditEvent, "AuditEventList") },
+    success: { status: 200, description: "A page of events, newest first by default.", schema: listPageOf(auditEventSchema, "AuditEventList") },
   },
 ];
