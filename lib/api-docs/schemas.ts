@@ -687,3 +687,78 @@ export const auditEventSchema = z
     changes: z.array(z.object({ field: z.string(), label: z.string(), before: z.string(), after: z.string() })).meta({ description: "The fields that changed, in words." }),
   })
   .meta({ id: "AuditEvent" });
+
+// ---------------------------------------------------------------------------------------------
+// Files, imports, warm-up
+// ---------------------------------------------------------------------------------------------
+
+export const attachedFileSchema = z
+  .object({
+    fileId: id.meta({ description: "Read it with `GET /api/v1/files/{id}`." }),
+    originalName: z.string(),
+    sizeBytes: z.number().int(),
+    sha256: z.string(),
+  })
+  .meta({ id: "AttachedFile" });
+
+const importIssueSchema = z
+  .object({
+    line: z.number().int().meta({ description: "The row number as a spreadsheet program shows it." }),
+    column: z.string(),
+    value: z.string().meta({ description: "The cell as it was in the file." }),
+    message: z.string(),
+  })
+  .meta({ id: "ImportIssue" });
+
+export const containerImportPreviewSchema = z
+  .object({
+    rowCount: z.number().int(),
+    issues: z.array(importIssueSchema),
+    toCreate: z.number().int(),
+    toUpdate: z.number().int(),
+    unchanged: z.number().int(),
+    notices: z.array(z.string()),
+  })
+  .meta({ id: "ContainerImportPreview" });
+
+export const containerImportResultSchema = z
+  .object({ created: z.number().int(), updated: z.number().int(), unchanged: z.number().int() })
+  .meta({ id: "ContainerImportResult" });
+
+const locationCounts = z.object({ sites: z.number().int(), rooms: z.number().int(), units: z.number().int() }).meta({ id: "LocationCounts" });
+
+export const locationImportPreviewSchema = z
+  .object({
+    rowCount: z.number().int(),
+    issues: z.array(importIssueSchema),
+    toCreate: locationCounts,
+    toUpdate: locationCounts,
+    unchanged: locationCounts,
+    notices: z.array(z.string()),
+  })
+  .meta({ id: "LocationImportPreview" });
+
+export const locationImportResultSchema = z.object({ created: locationCounts, updated: locationCounts, unchanged: locationCounts }).meta({ id: "LocationImportResult" });
+
+export const warmUpSchema = z
+  .object({
+    tauMinutes: z.number().meta({ description: "τ of Newton's law of heating, in minutes." }),
+    source: z.enum(["set", "fitted", "default"]),
+    fit: z.object({ excursions: z.number().int(), readings: z.number().int(), rmsErrorC: z.number() }).nullable(),
+    roomTempC: nullableNumber.meta({ description: "What the unit warms towards: its room's worst case." }),
+    reason: z.string(),
+    note: z.string().nullable(),
+    fitHistory: z.array(
+      z.object({
+        tauMinutes: z.number(),
+        rmsErrorC: z.number(),
+        excursions: z.number().int(),
+        readings: z.number().int(),
+        roomTempC: z.number(),
+        roomTempSource: z.enum(["sensor", "design"]),
+        excursionIds: z.array(id),
+        fittedAt: isoDateTime,
+      }),
+    ),
+  })
+  .meta({ id: "WarmUp" });

@@ -40,6 +40,12 @@ import * as findingRoute from "@/app/api/v1/findings/[id]/route";
 import * as findingEventsRoute from "@/app/api/v1/findings/[id]/events/route";
 import * as settingsRoute from "@/app/api/v1/settings/assessment/route";
 import * as auditRoute from "@/app/api/v1/audit-events/route";
+import * as containerSdsRoute from "@/app/api/v1/containers/[id]/sds/route";
+import * as containerImportRoute from "@/app/api/v1/imports/containers/route";
+import * as containerImportPreviewRoute from "@/app/api/v1/imports/containers/preview/route";
+import * as locationImportPreviewRoute from "@/app/api/v1/imports/locations/preview/route";
+import * as warmUpRoute from "@/app/api/v1/storage-units/[id]/warm-up/route";
+import { locationTemplateCsv } from "@/lib/imports";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { call, sessionCookieFor } from "./helpers/world";
@@ -308,6 +314,39 @@ describe("documented answers match real ones", () => {
     const audit = await call(auditRoute.GET, { cookie, path: "/api/v1/audit-events?pageSize=50" });
     expect(audit.body.data.length).toBeGreaterThan(0);
     expectDocumented("get", "/api/v1/audit-events", audit.body);
+  });
+
+  it("uploads: a safety data sheet, container and location files checked and imported; a unit's warm-up", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const send = async (handler: (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>, name: string, content: string, params: Record<string, string> = {}, type = "text/csv") => {
+      const form = new FormData();
+      form.set("file", new File([content], name, { type }));
+      const response = await handler(new Request("http://localhost:3999/api/v1/upload", { method: "POST", headers: { cookie }, body: form }), { params: Promise.resolve(params) });
+      return { status: response.status, body: await response.json() };
+    };
+    const pdf = "%PDF-1.4\n1 0 obj << /Type /Catalog /Pages 2 0 R >> endobj\n2 0 obj << /Type /Pages /Kids [3 0 R] /Count 1 >> endobj\n3 0 obj << /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n";
+    const containers = await call(containersRoute.GET, { cookie });
+    const sds = await send(containerSdsRoute.POST, "acetone-sds.pdf", pdf, { id: String(containers.body.data[0].id) }, "application/pdf");
+    expect(sds.status).toBe(201);
+    expectDocumented("post", "/api/v1/containers/{id}/sds", sds.body);
+
+    const csv = "label,cas,substance,amount,amount_unit,site,room,storage_unit,owner_email\nImported acetone 1,67-64-1,,1.5,L,North Campus,B-014,FC-1,researcher@example.org\n";
+    const preview = await send(containerImportPreviewRoute.POST, "containers.csv", csv);
+    expect(preview.status).toBe(200);
+    expect(preview.body.data.toCreate).toBe(1);
+    expectDocumented("post", "/api/v1/imports/containers/preview", preview.body);
+    const imported = await send(containerImportRoute.POST, "containers.csv", csv);
+    expect(imported.status).toBe(201);
+    expect(imported.body.data.created).toBe(1);
+    expectDocumented("post", "/api/v1/imports/containers", imported.body);
+    const locations = await send(locationImportPreviewRoute.POST, "locations.csv", locationTemplateCsv());
+    expect(locations.status).toBe(200);
+    expectDocumented("post", "/api/v1/imports/locations/preview", locations.body);
+
+    const fsr = getDb().select().from(storageUnits).where(eq(storageUnits.code, "FSR-1")).get()!;
+    const warmUp = await call(warmUpRoute.GET, { cookie, params: { id: String(fsr.id) } });
+    expect(warmUp.status).toBe(200);
+    expectDocumented("get", "/api/v1/storage-units/{id}/warm-up", warmUp.body);
   });
 
   it("a 400 with field errors is in the shared error shape", async () => {

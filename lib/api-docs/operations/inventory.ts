@@ -4,13 +4,20 @@ import { IMPORT_LIMITS, SDS_LIMITS } from "@/lib/limits";
 import { mixtureCreateSchema, mixtureListQuerySchema } from "@/lib/mixtures/schemas";
 import { substanceCreateSchema, substanceListQuerySchema, substanceUpdateSchema, vaporPressureQuerySchema } from "@/lib/substances/schemas";
 import type { ApiOperation } from "../operation";
-import { containerListRowSchema, containerSchema, dataOf, listPageOf, looseRecord, mixtureListRowSchema, mixtureSchema, substanceSchema, substanceSummarySchema, vaporPressureSchema } from "../schemas";
+import {
+  attachedFileSchema,
+  containerImportPreviewSchema,
+  containerImportResultSchema,
+  containerListRowSchema,
+  containerSchema,
+  dataOf,
+  listPageOf,
+  locationImportPreviewSchema,
+  locationImportResultSchema,
+  mixtureListRowSchema, mixtureSchema, substanceSchema, substanceSummarySchema, vaporPressureSchema } from "../schemas";
 
 const XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet";
 
-const attachedFile = looseRecord("AttachedFile", "The stored safety data sheet: `id`, `originalName`, `sizeBytes`, `sha256`, `uploadedAt`.");
-const importPreview = looseRecord("ImportPreview", "What an import would do: `rowCount`, every problem by line and column (`issues`), and counts `toCreate`, `toUpdate`, `unchanged`, with `notices`.");
-const importResult = looseRecord("ImportResult", "What the import wrote: the counts created and updated.");
 
 const sdsUpload = { mediaTypes: ["application/pdf"], maxBytes: SDS_LIMITS.fileBytes, description: "The safety data sheet in the multipart field `file`: a PDF, checked by its content." };
 const importUpload = { mediaTypes: ["text/csv", XLSX], maxBytes: IMPORT_LIMITS.fileBytes, description: "The file in the multipart field `file`: CSV or XLSX (the first sheet), in the columns of the template." };
@@ -128,7 +135,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Researchers may attach only to their own containers (403 otherwise, nothing stored).",
     access: { action: "files.upload" },
     upload: sdsUpload,
-    success: { status: 201, description: "Stored and attached.", schema: dataOf(attachedFile) },
+    success: { status: 201, description: "Stored and attached.", schema: dataOf(attachedFileSchema) },
     errors: { 400: "No file, or the file is not a PDF." },
   },
   {
@@ -227,7 +234,7 @@ export const inventoryOperations: ApiOperation[] = [
     summary: "Attach a safety data sheet to a substance",
     access: { action: "substances.write" },
     upload: sdsUpload,
-    success: { status: 201, description: "Stored and attached.", schema: dataOf(attachedFile) },
+    success: { status: 201, description: "Stored and attached.", schema: dataOf(attachedFileSchema) },
     errors: { 400: "No file, or the file is not a PDF." },
   },
   {
@@ -259,7 +266,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Writes nothing: every problem by line and column, and what an import would do.",
     access: { action: "containers.import" },
     upload: importUpload,
-    success: { status: 200, description: "The check.", schema: dataOf(importPreview) },
+    success: { status: 200, description: "The check.", schema: dataOf(containerImportPreviewSchema) },
     errors: { 400: "No file, or a file that cannot be read (not CSV or XLSX, a damaged workbook)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
@@ -272,7 +279,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Every row is written, or none.",
     access: { action: "containers.import" },
     upload: importUpload,
-    success: { status: 201, description: "Imported.", schema: dataOf(importResult) },
+    success: { status: 201, description: "Imported.", schema: dataOf(containerImportResultSchema) },
     errors: { 400: "No file, an unreadable file, or problems in rows (`import_rejected` with every problem in `issues`; nothing written)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
@@ -285,7 +292,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Writes nothing: every problem by line and column, and what an import would do.",
     access: { action: "locations.import" },
     upload: importUpload,
-    success: { status: 200, description: "The check.", schema: dataOf(importPreview) },
+    success: { status: 200, description: "The check.", schema: dataOf(locationImportPreviewSchema) },
     errors: { 400: "No file, or a file that cannot be read (not CSV or XLSX, a damaged workbook)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,
@@ -298,7 +305,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Sites, rooms and units: every row is written, or none.",
     access: { action: "locations.import" },
     upload: importUpload,
-    success: { status: 201, description: "Imported.", schema: dataOf(importResult) },
+    success: { status: 201, description: "Imported.", schema: dataOf(locationImportResultSchema) },
     errors: { 400: "No file, an unreadable file, or problems in rows (`import_rejected` with every problem in `issues`; nothing written)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: importRateLimit,

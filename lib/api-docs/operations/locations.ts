@@ -13,7 +13,6 @@ import type { ApiOperation } from "../operation";
 import {
   dataOf,
   listPageOf,
-  looseRecord,
   roomDetailSchema,
   roomListRowSchema,
   roomSchema,
@@ -21,9 +20,9 @@ import {
   storageUnitDetailSchema,
   storageUnitListRowSchema,
   storageUnitSchema,
+  warmUpSchema,
 } from "../schemas";
 
-const warmUp = looseRecord("WarmUp", "τ with its source (`set`, `fitted` or `default`), the fit's quality and history, and the room temperature the unit warms towards.");
 
 const locationsTag = "Locations";
 
@@ -184,7 +183,7 @@ export const locationOperations: ApiOperation[] = [
     summary: "A unit's warm-up after a failure",
     description: "For a temperature-controlled unit: τ with its source, the fit's quality and history, and the room temperature it warms towards.",
     access: { action: "locations.read" },
-    success: { status: 200, description: "The warm-up.", schema: dataOf(warmUp) },
+    success: { status: 200, description: "The warm-up.", schema: dataOf(warmUpSchema) },
     errors: { 404: "No such unit, or it has no temperature control." },
   },
 ];
