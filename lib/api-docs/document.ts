@@ -65,6 +65,12 @@ const DESCRIPTION = `The JSON API behind Headroom: the inventory of volatile liq
 
 **Conventions.** Bodies are JSON (\`Content-Type: application/json\`, at most 1 MB unless stated) except uploads (multipart, field \`file\`). Lists answer \`{ data, page, pageSize, total }\` and read \`page\`, \`pageSize\` (1–100), \`sort\`, \`dir\` and their own filters from the query string. Times are ISO-8601. Every error answers \`{ error: { code, message, fields? } }\`; 429 comes with \`Retry-After\`.`;
 
+/** zod's `.int()` bounds a number by ±(2^53 − 1); said in the document, the reference would show them as example values. */
+function withoutSafeIntegerBounds(ctx: { jsonSchema: Record<string, unknown> }) {
+  if (ctx.jsonSchema.minimum === Number.MIN_SAFE_INTEGER) delete ctx.jsonSchema.minimum;
+  if (ctx.jsonSchema.maximum === Number.MAX_SAFE_INTEGER) delete ctx.jsonSchema.maximum;
+}
+
 function buildDocument() {
   const paths: ZodOpenApiPathsObject = {};
   for (const op of API_OPERATIONS) {
@@ -72,7 +78,8 @@ function buildDocument() {
     if (paths[op.path][op.method]) throw new Error(`${op.method.toUpperCase()} ${op.path} is documented twice.`);
     paths[op.path][op.method] = toOpenApiOperation(op);
   }
-  return createDocument({
+  return createDocument(
+    {
     openapi: "3.1.0",
     info: { title: "Headroom API", version: API_DOCUMENT_VERSION, description: DESCRIPTION },
     servers: [{ url: "/", description: "This Headroom installation" }],
@@ -94,7 +101,9 @@ function buildDocument() {
         },
       },
     },
-  });
+  },
+    { override: withoutSafeIntegerBounds },
+  );
 }
 
 let cached: ReturnType<typeof buildDocument> | undefined;

@@ -77,10 +77,28 @@ export function rolesText(action: Action): string {
   return [all.join(", "), own.length ? `${own.join(", ")} (only what they own or look after)` : ""].filter(Boolean).join("; ");
 }
 
-const errorContent = { "application/json": { schema: errorSchema } };
+/** What each error status typically answers, for the reference's examples. */
+const ERROR_EXAMPLES: Record<string, { code: string; message: string; fields?: Record<string, string[]> }> = {
+  "400": { code: "invalid_input", message: "Check the highlighted fields.", fields: { amount: ["Amount must be from 0 to 1000000."] } },
+  "401": { code: "unauthenticated", message: "Sign in to continue." },
+  "403": { code: "forbidden", message: "Your role does not allow this." },
+  "404": { code: "not_found", message: "That storage unit was not found." },
+  "409": { code: "conflict", message: "Storage unit FC-2 still holds 4 containers; move or dispose of them first." },
+  "413": { code: "body_too_large", message: "The request body is larger than this endpoint accepts (1 MB)." },
+  "415": { code: "unsupported_media_type", message: "Send the request body as JSON with the header Content-Type: application/json." },
+  "422": { code: "insufficient_data", message: "Acetone: no vapor-pressure correlation covers 250 °C." },
+  "429": { code: "rate_limited", message: "Too many requests. Try again in 1 minute." },
+  "500": { code: "internal_error", message: "Something went wrong on our side. The error was logged." },
+  "503": { code: "server_busy", message: "The server is busy with other imports and exports. Try again in a minute." },
+};
 
-function errorResponse(description: string, headers?: ZodOpenApiResponseObject["headers"]): ZodOpenApiResponseObject {
-  return { description, content: errorContent, ...(headers ? { headers } : {}) };
+function errorResponse(status: string, description: string, options: { headers?: ZodOpenApiResponseObject["headers"]; example?: { code: string; message: string } } = {}): ZodOpenApiResponseObject {
+  const example = options.example ?? ERROR_EXAMPLES[status];
+  return {
+    description,
+    content: { "application/json": { schema: errorSchema, ...(example ? { example: { error: example } } : {}) } },
+    ...(options.headers ? { headers: options.headers } : {}),
+  };
 }
 
 const retryAfter = z.object({
@@ -109,14 +127,14 @@ export function toOpenApiOperation(op: ApiOperation): ZodOpenApiOperationObject 
   const hasInput = Boolean(op.query || op.body || op.upload);
   const params = pathParamNames(op.path);
   const bad = [op.errors?.[400], hasInput ? "The input does not parse: `fields` names each problem." : undefined, op.body ? "The body is not valid JSON or UTF-8." : undefined].filter(Boolean);
-  if (bad.length) responses["400"] = errorResponse(bad.join(" "));
+  if (bad.length) responses["400"] = errorResponse("400", bad.join(" "));
 
-  if (op.errors?.[401]) responses["401"] = errorResponse(op.errors[401]);
+  if (op.errors?.[401]) responses["401"] = errorResponse("401", op.errors[401], { example: { code: "invalid_credentials", message: "That e-mail address and password do not match an active account." } });
   else if (op.access !== "public") {
     responses["401"] =
       "apiKeyScope" in op.access
-        ? errorResponse("No API key, or an unknown or revoked one, in `Authorization: Bearer …`.")
-        : errorResponse("Not signed in, or the session has ended.");
+        ? errorResponse("401", "No API key, or an unknown or revoked one, in `Authorization: Bearer …`.", { example: { code: "unauthenticated", message: "Send a valid API key as Authorization: Bearer <key>." } })
+        : errorResponse("401", "Not signed in, or the session has ended.");
   }
   const forbidden: string[] = [];
   if (op.access !== "public" && "action" in op.access) {
@@ -126,20 +144,24 @@ export function toOpenApiOperation(op: ApiOperation): ZodOpenApiOperationObject 
   }
   if (op.access !== "public" && "apiKeyScope" in op.access) forbidden.push(`The key lacks the scope \`${op.access.apiKeyScope}\`.`);
   if (writes && !(op.access !== "public" && "apiKeyScope" in op.access)) forbidden.push("A write sent from a page of another origin is refused.");
-  if (forbidden.length) responses["403"] = errorResponse(forbidden.join(" "));
+  if (forbidden.length) responses["403"] = errorResponse("403", forbidden.join(" "));
 
-  if (params.length || op.errors?.[404]) responses["404"] = errorResponse(op.errors?.[404] ?? "No such record.");
-  if (op.errors?.[409]) responses["409"] = errorResponse(op.errors[409]);
+  if (params.length || op.errors?.[404]) responses["404"] = errorResponse("404", op.errors?.[404] ?? "No such record.");
+  if (op.errors?.[409]) responses["409"] = errorResponse("409", op.errors[409]);
   if (op.body || op.upload || op.errors?.[413]) {
-    responses["413"] = errorResponse(
-      op.errors?.[413] ?? (op.upload ? `The file is larger than ${formatMiB(op.upload.maxBytes)}.` : `The body is larger than ${formatMiB(op.maxBodyBytes ?? 1024 * 1024)}.`),
-    );
+    responses["413"] = op.upload
+      ? errorResponse("413", op.errors?.[413] ?? `The file is larger than ${formatMiB(op.upload.maxBytes)}.`, {
+          example: { code: "file_too_large", message: `The file is larger than ${formatMiB(op.upload.maxBytes)}.` },
+        })
+      : errorResponse("413", op.errors?.[413] ?? `The body is larger than ${formatMiB(op.maxBodyBytes ?? 1024 * 1024)}.`, {
+          example: { code: "body_too_large", message: `The request body is larger than this endpoint accepts (${formatMiB(op.maxBodyBytes ?? 1024 * 1024)}).` },
+        });
   }
-  if (op.body) responses["415"] = errorResponse("The body is not declared as `Content-Type: application/json`.");
-  if (op.errors?.[422]) responses["422"] = errorResponse(op.errors[422]);
-  if (op.rateLimited || op.errors?.[429]) responses["429"] = errorResponse(op.rateLimited ?? op.errors![429]!, retryAfter);
-  if (op.workerThread) responses["503"] = errorResponse(op.workerThread);
-  responses["500"] = errorResponse("Something failed on the server; the error was logged.");
+  if (op.body) responses["415"] = errorResponse("415", "The body is not declared as `Content-Type: application/json`.");
+  if (op.errors?.[422]) responses["422"] = errorResponse("422", op.errors[422]);
+  if (op.rateLimited || op.errors?.[429]) responses["429"] = errorResponse("429", op.rateLimited ?? op.errors![429]!, { headers: retryAfter });
+  if (op.workerThread) responses["503"] = errorResponse("503", op.workerThread);
+  responses["500"] = errorResponse("500", "Something failed on the server; the error was logged.");
 
   const security =
     op.access === "public" ? [] : "apiKeyScope" in op.access ? [{ [API_KEY_SCHEME]: [op.access.apiKeyScope] }] : [{ [SESSION_COOKIE_SCHEME]: [] }];

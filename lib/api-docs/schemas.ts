@@ -94,7 +94,7 @@ export const meSchema = z
     role: roleSchema,
     alerts: z.object({ alertExcursions: alertChoice, alertFindings: alertChoice, dailyDigest: z.boolean() }),
   })
-  .meta({ id: "Me" });
+  .meta({ id: "Me", example: { id: 2, email: "safety@example.org", name: "Priya Halden", role: "safety_officer", alerts: { alertExcursions: "immediate", alertFindings: "immediate", dailyDigest: true } } });
 
 export const sessionRowSchema = z
   .object({
@@ -106,7 +106,7 @@ export const sessionRowSchema = z
     ip: z.string().nullable(),
     current: z.boolean().meta({ description: "The session of this request." }),
   })
-  .meta({ id: "Session" });
+  .meta({ id: "Session", example: { id: 14, createdAt: "2026-12-05T07:58:12.000Z", lastSeenAt: "2026-12-05T09:40:03.000Z", userAgent: "Mozilla/5.0 (X11; Linux x86_64) Chrome/131.0", device: "Chrome on Linux", ip: "10.20.4.17", current: true } });
 
 export const endedSchema = z.object({ ended: z.number().int().min(0).meta({ description: "How many sessions ended." }) });
 
@@ -121,7 +121,7 @@ export const userRowSchema = z
     lastSignInAt: isoDateTime.nullable(),
     createdAt: isoDateTime,
   })
-  .meta({ id: "User" });
+  .meta({ id: "User", example: { id: 3, email: "researcher@example.org", name: "Jonas Ekberg", role: "researcher", active: true, activated: true, lastSignInAt: "2026-12-04T15:02:19.000Z", createdAt: "2026-01-12T08:00:00.000Z" } });
 
 export const invitedUserSchema = z.object({
   user: z.object({ id: z.number().int(), email: z.string(), name: z.string(), role: roleSchema, active: z.boolean(), activated: z.literal(false) }),
@@ -138,7 +138,7 @@ export const apiKeyRowSchema = z
     lastUsedAt: isoDateTime.nullable(),
     revokedAt: isoDateTime.nullable(),
   })
-  .meta({ id: "ApiKey" });
+  .meta({ id: "ApiKey", example: { id: 1, name: "Corvane logger gateway", prefix: "hrk_demo_cor", scopes: ["readings:write"], createdAt: "2026-01-12T08:00:00.000Z", lastUsedAt: "2026-12-05T09:45:00.000Z", revokedAt: null } });
 
 export const apiKeyCreatedSchema = z.object({
   data: z.object({ id: z.number().int(), name: z.string(), prefix: z.string(), scopes: z.array(scopeSchema), createdAt: isoDateTime }),
@@ -242,7 +242,7 @@ export const storagePlanItemSchema = z
     nearness: z.enum(["same_room", "same_site", "other_site"]),
     reason: z.string().meta({ description: "One plain sentence: why this place ranks where it does." }),
   })
-  .meta({ id: "StoragePlanItem" });
+  .meta({ id: "StoragePlanItem", example: { storageUnitId: 1, code: "FC-1", name: "Flammable-liquid cabinet, 45 gal", unitKind: "flammable_cabinet", roomId: 1, roomCode: "B-014", roomName: "Solvent store", siteId: 1, siteName: "North Campus", verdict: "no_findings", worstSeverity: null, maxRatio: null, timeToDanger: null, raised: 0, nearness: "same_site", reason: "Nothing about it would be flagged here." } });
 
 export const storagePlanSchemaOut = z
   .object({ data: z.array(storagePlanItemSchema), message: z.string().optional().meta({ description: "Only when no unit can hold the amount." }) })
@@ -442,7 +442,7 @@ export const sensorListRowSchema = z
     lastReadingTempC: nullableNumber,
     openExcursions: z.number().int().min(0),
   })
-  .meta({ id: "SensorListRow" });
+  .meta({ id: "SensorListRow", example: { id: 5, externalId: "S-205", name: "2.115 FSR-1 interior", active: true, roomId: 3, roomCode: "2.115", roomName: "Synthesis laboratory", storageUnitId: 7, unitCode: "FSR-1", unitName: "Flammable-storage refrigerator", lastReadingAt: 1796461200000, lastReadingTempC: 4.6, openExcursions: 0 } });
 
 /** One sensor with its place, latest reading and open excursions (GET, and the answer of PATCH). */
 export const sensorDetailSchema = sensorListRowSchema.extend({ createdAt: isoDateTime, siteName: z.string() }).meta({ id: "SensorDetail" });
@@ -467,7 +467,7 @@ export const excursionListRowSchema = z
     acknowledgedByName: z.string().nullable(),
     acknowledgeComment: z.string().nullable(),
   })
-  .meta({ id: "ExcursionListRow" });
+  .meta({ id: "ExcursionListRow", example: { id: 9, sensorId: 5, sensorExternalId: "S-205", sensorName: "2.115 FSR-1 interior", roomId: null, roomCode: "2.115", storageUnitId: 7, unitCode: "FSR-1", thresholdC: 8, startAt: "2026-11-14T18:20:00.000Z", endAt: "2026-11-16T07:05:00.000Z", peakTempC: 19.4, peakAt: "2026-11-16T06:50:00.000Z", durationMin: 2205, acknowledgedAt: "2026-11-16T08:12:00.000Z", acknowledgedByName: "Mireille Okafor", acknowledgeComment: "Compressor failed over the weekend; contents moved to FSR-2, service called." } });
 
 /** An excursion as stored (the answer of an acknowledgement). */
 export const excursionSchema = z

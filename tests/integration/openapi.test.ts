@@ -8,9 +8,10 @@ import fs from "node:fs";
 import path from "node:path";
 import { Validator } from "@seriousme/openapi-schema-validator";
 import { describe, expect, it } from "vitest";
-import type { z } from "zod";
+import { z } from "zod";
 import { API_OPERATIONS, apiDocument } from "@/lib/api-docs/document";
 import { HTTP_METHODS } from "@/lib/api-docs/operation";
+import * as docSchemas from "@/lib/api-docs/schemas";
 import { GET as openApiJson } from "@/app/api/v1/openapi.json/route";
 import { call } from "./helpers/world";
 
@@ -134,6 +135,37 @@ describe("the API document and the route handlers", () => {
       }
     }
     expect(checked).toBeGreaterThanOrEqual(25);
+  });
+
+  it("has schema examples that parse with their own schemas", () => {
+    let checked = 0;
+    for (const [name, value] of Object.entries(docSchemas)) {
+      if (!(value instanceof z.ZodType)) continue;
+      const example = z.globalRegistry.get(value)?.example;
+      if (example === undefined) continue;
+      const parsed = value.safeParse(example);
+      expect(parsed.success, `${name}: ${parsed.error?.message}`).toBe(true);
+      checked += 1;
+    }
+    expect(checked).toBeGreaterThanOrEqual(10);
+  });
+
+  it("gives each error answer an example in the error shape with the status's own code", () => {
+    const codes: Record<string, string[]> = {};
+    for (const item of Object.values(doc.paths)) {
+      for (const op of Object.values(item)) {
+        for (const [status, response] of Object.entries(op.responses)) {
+          if (Number(status) < 400) continue;
+          const example = (response.content?.["application/json"] as { example?: unknown } | undefined)?.example;
+          expect(docSchemas.errorSchema.safeParse(example).success, status).toBe(true);
+          (codes[status] ??= []).push((example as { error: { code: string } }).error.code);
+        }
+      }
+    }
+    expect(new Set(codes["403"])).toEqual(new Set(["forbidden"]));
+    expect(new Set(codes["429"])).toEqual(new Set(["rate_limited"]));
+    expect(new Set(codes["401"])).toEqual(new Set(["unauthenticated", "invalid_credentials"]));
+    expect(new Set(codes["413"])).toEqual(new Set(["body_too_large", "file_too_large"]));
   });
 });
 
