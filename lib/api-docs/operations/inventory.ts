@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { containerCreateSchema, containerListQuerySchema, containerMoveSchema, containerStateSchema, containerUpdateSchema } from "@/lib/inventory/schemas";
+import { templateFileSchema } from "@/lib/imports";
 import { IMPORT_LIMITS, SDS_LIMITS } from "@/lib/limits";
 import { mixtureCreateSchema, mixtureListQuerySchema } from "@/lib/mixtures/schemas";
 import { substanceCreateSchema, substanceListQuerySchema, substanceUpdateSchema, vaporPressureQuerySchema } from "@/lib/substances/schemas";
@@ -317,7 +318,7 @@ export const inventoryOperations: ApiOperation[] = [
     summary: "An import template",
     description: "`containers.csv`, `containers.xlsx`, `locations.csv` or `locations.xlsx`.",
     access: { action: "overview.read" },
-    pathParams: z.object({ file: z.enum(["containers.csv", "containers.xlsx", "locations.csv", "locations.xlsx"]).meta({ description: "The template's file name." }) }),
+    pathParams: z.object({ file: templateFileSchema.meta({ description: "The template's file name." }) }),
     success: { status: 200, description: "The template, as an attachment.", binary: ["text/csv", XLSX], headers: { "Content-Disposition": "attachment; filename=\"headroom-containers-template.csv\" and so on." } },
     errors: { 404: "No template by that name." },
   },
