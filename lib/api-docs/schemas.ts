@@ -762,3 +762,70 @@ export const warmUpSchema = z
     ),
   })
   .meta({ id: "WarmUp" });
+
+// ---------------------------------------------------------------------------------------------
+// Logger files
+// ---------------------------------------------------------------------------------------------
+
+const epochMs = z.number().meta({ description: "Epoch milliseconds." });
+const csvRowErrorSchema = z.object({ line: z.number().int(), column: z.string(), value: z.string(), message: z.string() }).meta({ id: "CsvRowError" });
+
+export const csvUploadSchema = z
+  .object({
+    token: z.string().meta({ description: "Names the upload in the preview and import, for an hour.", example: "0f3c9a1be27d4c5f8a6b1d2e3f405162" }),
+    fileName: z.string(),
+    sizeBytes: z.number().int(),
+    encoding: z.enum(["utf-8", "utf-16le", "utf-16be", "windows-1252"]),
+    expiresAtMs: epochMs,
+    layout: z
+      .object({
+        delimiter: z.string(),
+        decimalSeparator: z.string(),
+        headerLine: z.number().int(),
+        headers: z.array(z.string()),
+        sampleLines: z.array(z.object({ line: z.number().int(), text: z.string() })),
+        sampleRows: z.array(z.object({ line: z.number().int(), cells: z.array(z.string()) })),
+        suggested: z.object({}).loose(),
+        timestampsHaveOffset: z.boolean(),
+      })
+      .meta({ description: "What the file looks like, as detected." }),
+    mapping: z.object({}).loose().meta({ description: "The mapping to start from (the body of the preview and import), as far as it could be filled in." }),
+    remembered: z.boolean().meta({ description: "The sensor's mapping from an earlier import was used." }),
+    sensor: z.object({ id, externalId: z.string(), name: z.string() }),
+  })
+  .meta({ id: "CsvUpload" });
+
+const csvScan = {
+  rowCount: z.number().int(),
+  readingCount: z.number().int().meta({ description: "Distinct instants with a valid reading." }),
+  repeatedInFile: z.number().int(),
+  firstAtMs: epochMs.nullable(),
+  lastAtMs: epochMs.nullable(),
+  issues: z.array(csvRowErrorSchema).meta({ description: "The first 500 problems by line and column." }),
+  issueCount: z.number().int(),
+  issueLineCount: z.number().int(),
+};
+
+export const csvPreviewSchema = z
+  .object({
+    ...csvScan,
+    rows: z.array(z.object({ line: z.number().int(), atMs: epochMs, tempC: z.number(), timeText: z.string(), temperatureText: z.string() })).meta({ description: "The first 20 readings beside what the file says." }),
+    alreadyStored: z.number().int(),
+    conflicts: z.number().int(),
+    conflictRows: z.array(z.object({ line: z.number().int(), atMs: epochMs, tempC: z.number(), storedTempC: z.number() })),
+  })
+  .meta({ id: "CsvPreview" });
+
+export const csvImportResultSchema = z
+  .object({
+    accepted: z.number().int(),
+    duplicates: z.number().int(),
+    alreadyStored: z.number().int(),
+    conflicts: z.number().int(),
+    repeatedInFile: z.number().int(),
+    rowCount: z.number().int(),
+    firstAtMs: epochMs.nullable(),
+    lastAtMs: epochMs.nullable(),
+    excursions: z.object({ opened: z.number().int(), closed: z.number().int(), updated: z.number().int() }),
+  })
+  .meta({ id: "CsvImportResult" });

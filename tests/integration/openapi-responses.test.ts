@@ -46,6 +46,10 @@ import * as containerImportPreviewRoute from "@/app/api/v1/imports/containers/pr
 import * as locationImportPreviewRoute from "@/app/api/v1/imports/locations/preview/route";
 import * as warmUpRoute from "@/app/api/v1/storage-units/[id]/warm-up/route";
 import { locationTemplateCsv } from "@/lib/imports";
+import * as csvUploadsRoute from "@/app/api/v1/sensors/[id]/csv-uploads/route";
+import * as csvPreviewRoute from "@/app/api/v1/sensors/[id]/csv-uploads/[token]/preview/route";
+import * as csvImportRoute from "@/app/api/v1/sensors/[id]/csv-uploads/[token]/import/route";
+import { sensors } from "@/db/schema";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { call, sessionCookieFor } from "./helpers/world";
@@ -347,6 +351,32 @@ describe("documented answers match real ones", () => {
     const warmUp = await call(warmUpRoute.GET, { cookie, params: { id: String(fsr.id) } });
     expect(warmUp.status).toBe(200);
     expectDocumented("get", "/api/v1/storage-units/{id}/warm-up", warmUp.body);
+  });
+
+  it("a logger file: uploaded, previewed, imported", async () => {
+    const cookie = await sessionCookieFor(safety);
+    const sensor = getDb().select().from(sensors).where(eq(sensors.externalId, "S-202")).get()!;
+    // Seven minutes past the hour: between the demo logger's own readings.
+    const stamp = (hoursAgo: number) => new Date(Math.floor(Date.now() / 3_600_000) * 3_600_000 - hoursAgo * 3_600_000 + 7 * 60_000).toISOString().slice(0, 16).replace("T", " ");
+    const csv = `Time,Temp\n${stamp(3)},21.2\n${stamp(2)},21.4\n`;
+    const form = new FormData();
+    form.set("file", new File([csv], "s-202.csv", { type: "text/csv" }));
+    const params = { id: String(sensor.id) };
+    const uploaded = await csvUploadsRoute.POST(new Request("http://localhost:3999/api/v1/sensors/x/csv-uploads", { method: "POST", headers: { cookie }, body: form }), { params: Promise.resolve(params) });
+    expect(uploaded.status).toBe(201);
+    const upload = await uploaded.json();
+    expectDocumented("post", "/api/v1/sensors/{id}/csv-uploads", upload);
+    const mapping = { delimiter: ",", decimalSeparator: ".", headerLine: 1, timestampColumn: "Time", temperatureColumn: "Temp", unit: "C", dateOrder: "ymd", timeZone: "UTC" };
+    const withToken = { ...params, token: upload.data.token };
+    const preview = await call(csvPreviewRoute.POST, { method: "POST", cookie, params: withToken, body: mapping });
+    expect(preview.status).toBe(200);
+    expect(preview.body.data.issues, JSON.stringify(preview.body.data.issues)).toEqual([]);
+    expect(preview.body.data.readingCount).toBe(2);
+    expectDocumented("post", "/api/v1/sensors/{id}/csv-uploads/{token}/preview", preview.body);
+    const imported = await call(csvImportRoute.POST, { method: "POST", cookie, params: withToken, body: mapping });
+    expect(imported.status).toBe(200);
+    expect(imported.body.data.accepted).toBe(2);
+    expectDocumented("post", "/api/v1/sensors/{id}/csv-uploads/{token}/import", imported.body);
   });
 
   it("a 400 with field errors is in the shared error shape", async () => {

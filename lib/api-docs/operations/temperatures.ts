@@ -13,6 +13,9 @@ import {
 } from "@/lib/temperatures/schemas";
 import type { ApiOperation } from "../operation";
 import {
+  csvImportResultSchema,
+  csvPreviewSchema,
+  csvUploadSchema,
   dataOf,
   excursionBulkResultSchema,
   excursionListRowSchema,
@@ -27,9 +30,6 @@ import {
 } from "../schemas";
 
 const series = looseRecord("ReadingSeries", "A chart's trace: every reading (`kind: raw`) or time buckets with mean, lowest and highest (`kind: buckets`), the window, the location's set range and threshold, and the excursions overlapping the window.");
-const csvUpload = looseRecord("CsvUpload", "An upload held for an hour: `token`, the detected layout (delimiter, decimal mark, header line, column names, first lines) and the `mapping` to start from.");
-const csvPreview = looseRecord("CsvPreview", "The first 20 readings, the row count, the first and last instant, how many are already stored, and every problem by line and column (the first 500 listed, all counted).");
-const csvImport = looseRecord("CsvImportResult", "The counts (`accepted`, `duplicates`) and the excursion changes.");
 
 const uploadRateLimit = "Too many imports and uploads by you in a short time.";
 const tokenPath = z.object({
@@ -128,7 +128,7 @@ export const temperatureOperations: ApiOperation[] = [
     description: "Step 1 of 3: the file is kept for an hour under a token; the answer has the detected layout and the mapping to start from (the sensor's remembered one where it fits).",
     access: { action: "readings.upload" },
     upload: { mediaTypes: ["text/csv"], maxBytes: LOGGER_CSV_LIMITS.maxUploadBytes, description: "The logger's CSV export in the multipart field `file`." },
-    success: { status: 201, description: "Held for an hour.", schema: dataOf(csvUpload) },
+    success: { status: 201, description: "Held for an hour.", schema: dataOf(csvUploadSchema) },
     errors: { 400: "No file, or a line too long or with too many columns (named)." },
     rateLimited: uploadRateLimit,
   },
@@ -147,7 +147,7 @@ export const temperatureOperations: ApiOperation[] = [
         value: { delimiter: ";", decimalSeparator: ",", headerLine: 1, dateColumn: "Date", timeColumn: "Time", temperatureColumn: "Temp", unit: "C", dateOrder: "dmy", timeZone: "Europe/Berlin" },
       },
     },
-    success: { status: 200, description: "The preview.", schema: dataOf(csvPreview) },
+    success: { status: 200, description: "The preview.", schema: dataOf(csvPreviewSchema) },
     errors: { 404: "No such sensor, or the upload is unknown or expired (`upload_not_found`)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: uploadRateLimit,
@@ -161,7 +161,7 @@ export const temperatureOperations: ApiOperation[] = [
     access: { action: "readings.upload" },
     pathParams: tokenPath,
     body: csvMappingSchema,
-    success: { status: 200, description: "Imported.", schema: dataOf(csvImport) },
+    success: { status: 200, description: "Imported.", schema: dataOf(csvImportResultSchema) },
     errors: { 400: "Problems in rows (`import_rejected` with `issues`, `issueCount`, `issueLineCount`, `rowCount`; nothing written).", 404: "No such sensor, or the upload is unknown or expired (`upload_not_found`)." },
     workerThread: "The server is busy with other imports and exports (`server_busy`); try again in a minute.",
     rateLimited: uploadRateLimit,
