@@ -829,3 +829,36 @@ export const csvImportResultSchema = z
     excursions: z.object({ opened: z.number().int(), closed: z.number().int(), updated: z.number().int() }),
   })
   .meta({ id: "CsvImportResult" });
+
+export const readingSeriesSchema = z
+  .object({
+    sensor: z.object({ id, externalId: z.string(), name: z.string(), active: z.boolean() }),
+    location: z.object({
+      kind: z.enum(["room", "unit"]),
+      id,
+      code: z.string(),
+      name: z.string(),
+      setMinC: nullableNumber,
+      setMaxC: nullableNumber,
+      thresholdC: nullableNumber,
+      minDurationMin: nullableNumber,
+    }),
+    fromMs: epochMs,
+    toMs: epochMs,
+    resolution: z.enum(["raw", "bucket"]).meta({ description: "`raw`: every reading in the window; `bucket`: one point per `bucketMs`." }),
+    bucketMs: z.number().nullable(),
+    points: z.array(z.object({ atMs: epochMs, tempC: z.number(), minC: z.number(), maxC: z.number(), count: z.number().int() })),
+    summary: z.object({
+      count: z.number().int(),
+      minC: nullableNumber,
+      minAtMs: epochMs.nullable(),
+      maxC: nullableNumber,
+      maxAtMs: epochMs.nullable(),
+      last: z.object({ atMs: epochMs, tempC: z.number() }).nullable(),
+    }),
+    extent: z.object({ firstAtMs: epochMs, lastAtMs: epochMs }).nullable(),
+    excursions: z.array(
+      z.object({ id, thresholdC: z.number(), startAtMs: epochMs, endAtMs: epochMs.nullable(), peakTempC: z.number(), peakAtMs: epochMs, acknowledged: z.boolean() }),
+    ),
+  })
+  .meta({ id: "ReadingSeries" });

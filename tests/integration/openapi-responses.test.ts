@@ -31,6 +31,7 @@ import * as mixturesRoute from "@/app/api/v1/mixtures/route";
 import * as mixtureRoute from "@/app/api/v1/mixtures/[id]/route";
 import * as sensorsRoute from "@/app/api/v1/sensors/route";
 import * as sensorRoute from "@/app/api/v1/sensors/[id]/route";
+import * as sensorReadingsRoute from "@/app/api/v1/sensors/[id]/readings/route";
 import * as excursionsRoute from "@/app/api/v1/excursions/route";
 import * as excursionAckRoute from "@/app/api/v1/excursions/[id]/acknowledge/route";
 import * as substancesRoute from "@/app/api/v1/substances/route";
@@ -270,6 +271,9 @@ describe("documented answers match real ones", () => {
     expectDocumented("get", "/api/v1/sensors/{id}", (await call(sensorRoute.GET, { cookie, params })).body);
     expectDocumented("patch", "/api/v1/sensors/{id}", (await call(sensorRoute.PATCH, { method: "PATCH", cookie, params, body: { name: "B-014 ambient (wall)" } })).body);
     const unit = getDb().select().from(storageUnits).limit(1).get()!;
+    const series = await call(sensorReadingsRoute.GET, { cookie, params, path: `/api/v1/sensors/${params.id}/readings` });
+    expect(series.body.data.points.length).toBeGreaterThan(0);
+    expectDocumented("get", "/api/v1/sensors/{id}/readings", series.body);
     const registered = await call(sensorsRoute.POST, { method: "POST", cookie, body: { externalId: "S-290", name: "Spare probe", storageUnitId: unit.id } });
     expect(registered.status).toBe(201);
     expectDocumented("post", "/api/v1/sensors", registered.body);

@@ -22,14 +22,13 @@ import {
   excursionSchema,
   ingestResultSchema,
   listPageOf,
-  looseRecord,
   readingInSchema,
+  readingSeriesSchema,
   sensorDetailSchema,
   sensorListRowSchema,
   sensorSchema,
 } from "../schemas";
 
-const series = looseRecord("ReadingSeries", "A chart's trace: every reading (`kind: raw`) or time buckets with mean, lowest and highest (`kind: buckets`), the window, the location's set range and threshold, and the excursions overlapping the window.");
 
 const uploadRateLimit = "Too many imports and uploads by you in a short time.";
 const tokenPath = z.object({
@@ -118,7 +117,7 @@ export const temperatureOperations: ApiOperation[] = [
     description: "`from` and `to` as ISO-8601 with an offset (default: the year up to its latest reading). Every reading when there are at most 1,500, otherwise time buckets.",
     access: { action: "temperatures.read" },
     query: seriesQuerySchema,
-    success: { status: 200, description: "The series.", schema: dataOf(series) },
+    success: { status: 200, description: "The series.", schema: dataOf(readingSeriesSchema) },
   },
   {
     method: "post",
