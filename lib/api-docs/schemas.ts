@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { API_KEY_SCOPES } from "@/lib/api-keys/scopes";
-import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, EXPOSURE_LIMIT_KINDS, FINDING_EVENT_KINDS, FINDING_STATUSES, FRACTION_BASES, PHYSICAL_STATES, ROOM_KINDS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
+import { ALERT_DELIVERIES, AMOUNT_UNITS, CONTAINER_KINDS, CONTAINER_STATES, EXPOSURE_LIMIT_KINDS, FINDING_EVENT_KINDS, FINDING_STATUSES, FRACTION_BASES, PHYSICAL_STATES, ROOM_KINDS, SCENARIOS, SEVERITIES, STORAGE_UNIT_KINDS } from "@/db/enums";
 
 // ---------------------------------------------------------------------------------------------
 // Errors
@@ -72,10 +72,6 @@ export function dataOf<T extends z.ZodType>(record: T) {
   return z.object({ data: record });
 }
 
-/** A record whose fields are described in words only (not yet spelled out field by field). */
-export function looseRecord(id: string, description: string) {
-  return z.object({ id: z.number().int().optional() }).loose().meta({ id, description });
-}
 
 // ---------------------------------------------------------------------------------------------
 // Accounts
@@ -862,3 +858,64 @@ export const readingSeriesSchema = z
     ),
   })
   .meta({ id: "ReadingSeries" });
+
+// ---------------------------------------------------------------------------------------------
+// The what-if
+// ---------------------------------------------------------------------------------------------
+
+const scenario = z.enum(SCENARIOS);
+
+export const assessmentPreviewResultSchema = z
+  .object({
+    storageUnitId: id,
+    findings: z
+      .array(
+        z.object({
+          rule: z.string(),
+          severity,
+          scenario,
+          title: z.string(),
+          value: nullableNumber,
+          limit: nullableNumber,
+          ratio: nullableNumber,
+          unit: z.string().nullable(),
+          worstCaseTempC: nullableNumber,
+          worstCaseSource: z.string().nullable(),
+          storageUnitId: id.nullable(),
+          roomId: id.nullable(),
+          isNew: z.boolean(),
+          previous: z.object({ severity, ratio: nullableNumber }).nullable().meta({ description: "A finding made worse: how it stands now." }),
+          trace: z.unknown(),
+        }),
+      )
+      .meta({ description: "The new or worse findings the change would raise." }),
+    current: z
+      .array(
+        z.object({
+          id,
+          rule: z.string(),
+          severity,
+          status: z.enum(FINDING_STATUSES),
+          scenario,
+          title: z.string(),
+          value: nullableNumber,
+          limit: nullableNumber,
+          ratio: nullableNumber,
+          unit: z.string().nullable(),
+          storageUnitId: id.nullable(),
+          roomId: id.nullable(),
+          substanceId: id.nullable(),
+          mixtureId: id.nullable(),
+          about: z.enum(["substance", "group"]),
+          outcome: z.enum(["unchanged", "worse", "better", "cleared"]),
+          after: z.object({ severity, ratio: nullableNumber, value: nullableNumber }).nullable(),
+          canOpen: z.boolean(),
+        }),
+      )
+      .meta({ description: "The findings standing there about the same substance or its group, whether or not the change alters them." }),
+    verdict: z.enum(["raises", "already_flagged", "no_findings"]),
+    verdictSentence: z.string(),
+    cleared: z.array(z.object({ id, severity, title: z.string(), canOpen: z.boolean() })).meta({ description: "For a move: the findings at the old place that would go." }),
+    alternatives: z.array(storagePlanItemSchema).meta({ description: "Up to five safer places, best first; empty when the verdict is no_findings." }),
+  })
+  .meta({ id: "AssessmentPreview" });

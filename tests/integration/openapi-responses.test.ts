@@ -17,6 +17,7 @@ import * as meRoute from "@/app/api/v1/me/route";
 import * as mySessionsRoute from "@/app/api/v1/me/sessions/route";
 import * as readingsRoute from "@/app/api/v1/readings/route";
 import * as storagePlanRoute from "@/app/api/v1/storage-plan/route";
+import * as previewRoute from "@/app/api/v1/assessments/preview/route";
 import * as usersRoute from "@/app/api/v1/users/route";
 import * as sitesRoute from "@/app/api/v1/sites/route";
 import * as siteRoute from "@/app/api/v1/sites/[id]/route";
@@ -145,6 +146,16 @@ describe("documented answers match real ones", () => {
     const response = await call(storagePlanRoute.GET, { path: "/api/v1/storage-plan?substanceId=1&amount=1&amountUnit=L", cookie: await sessionCookieFor(safety) });
     expect(response.status).toBe(200);
     expectListMatches(response.body, documented("get", "/api/v1/storage-plan"));
+  });
+
+  it("POST /api/v1/assessments/preview: what a new bottle would raise, with safer places", async () => {
+    const ether = getDb().select().from(substances).where(eq(substances.cas, "60-29-7")).get()!;
+    const fridge = getDb().select().from(storageUnits).where(eq(storageUnits.code, "FR-1")).get()!;
+    const response = await call(previewRoute.POST, { method: "POST", cookie: await sessionCookieFor(safety), body: { storageUnitId: fridge.id, substanceId: ether.id, amount: 2.5, amountUnit: "L" } });
+    expect(response.status).toBe(200);
+    expect(response.body.data.verdict).not.toBe("no_findings");
+    expect(response.body.data.alternatives.length).toBeGreaterThan(0);
+    expectDocumented("post", "/api/v1/assessments/preview", response.body);
   });
 
   it("POST /api/v1/readings: the ingest counts, and a refused batch in the error shape with its rows", async () => {

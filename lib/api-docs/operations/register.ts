@@ -6,14 +6,10 @@ import { auditListQuerySchema } from "@/lib/audit/schemas";
 import { registerExportQuerySchema } from "@/lib/exports/schemas";
 import { bulkFindingEventSchema, findingEventSchema, findingListQuerySchema } from "@/lib/register/schemas";
 import type { ApiOperation } from "../operation";
-import { auditEventSchema, bulkResultSchema, dataOf, findingListRowSchema, findingSchema, listPageOf, looseRecord, storagePlanSchemaOut } from "../schemas";
+import { assessmentPreviewResultSchema, auditEventSchema, bulkResultSchema, dataOf, findingListRowSchema, findingSchema, listPageOf, storagePlanSchemaOut } from "../schemas";
 
 const XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet";
 
-const preview = looseRecord(
-  "AssessmentPreview",
-  "`{ storageUnitId, findings, current, verdict, verdictSentence, cleared, alternatives }`: the new or worse findings the change would raise, the findings standing there, the verdict (`raises`, `already_flagged`, `no_findings`) in a plain sentence, for a move the findings that would go, and up to five safer places in the storage planner's shape.",
-);
 
 export const findingListExample = {
   data: [
@@ -108,8 +104,12 @@ export const registerOperations: ApiOperation[] = [
     access: { action: "assessments.preview" },
     body: assessmentPreviewSchema,
     bodyExamples: { newBottle: { summary: "A new 2.5 L bottle of acetone in FSR-1", value: { storageUnitId: 7, substanceId: 2, amount: 2.5, amountUnit: "L" } } },
-    success: { status: 200, description: "What the change would raise, and safer places.", schema: dataOf(preview) },
-    errors: { 404: "The unit, substance, mixture or container does not exist." },
+    success: { status: 200, description: "What the change would raise, and safer places.", schema: dataOf(assessmentPreviewResultSchema) },
+    errors: {
+      400: "The substance, mixture or container does not exist, or the container is already in that unit (named in `fields`).",
+      404: "No such storage unit.",
+      409: "The container was disposed of; its record is kept and cannot be changed.",
+    },
     rateLimited: "Too many what-if questions by you in a short time.",
   },
   {
