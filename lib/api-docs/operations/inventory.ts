@@ -82,7 +82,7 @@ export const inventoryOperations: ApiOperation[] = [
       bottle: { summary: "A bottle of ethanol", value: { label: "Ethanol absolute 1 L", substanceId: 5, amount: 1, amountUnit: "L", containerKind: "glass_bottle", state: "sealed", storageUnitId: 2 } },
     },
     success: { status: 201, description: "Logged.", schema: dataOf(containerSchema) },
-    errors: { 404: "The storage unit, substance or mixture does not exist." },
+    errors: { 400: "The storage unit, substance, mixture or owner does not exist or is retired (named in `fields`).", 409: "A container with this label already exists." },
   },
   {
     method: "get",
@@ -102,7 +102,7 @@ export const inventoryOperations: ApiOperation[] = [
     body: containerUpdateSchema,
     bodyExamples: { used: { summary: "Some was used", value: { amount: 1.8, state: "in_use" } } },
     success: { status: 200, description: "The container as stored.", schema: dataOf(containerSchema) },
-    errors: { 409: "The container was disposed of; its record is kept and cannot be changed." },
+    errors: { 409: "The container was disposed of, or another container has this label." },
   },
   {
     method: "post",
@@ -160,7 +160,7 @@ export const inventoryOperations: ApiOperation[] = [
       eluent: { summary: "A chromatography eluent", value: { name: "Hexane / ethyl acetate 4:1", fractionBasis: "mass", components: [{ substanceId: 7, fraction: 0.8 }, { substanceId: 9, fraction: 0.2 }] } },
     },
     success: { status: 201, description: "Created.", schema: dataOf(mixtureSchema) },
-    errors: { 404: "A component's substance does not exist.", 409: "A mixture with this name exists." },
+    errors: { 400: "A component's substance does not exist (named in `fields`).", 409: "A mixture with this name exists." },
   },
   {
     method: "get",
@@ -188,7 +188,7 @@ export const inventoryOperations: ApiOperation[] = [
     access: { action: "substances.write" },
     body: substanceCreateSchema,
     success: { status: 201, description: "Added.", schema: dataOf(substanceSchema) },
-    errors: { 409: "A substance with this CAS number or name exists." },
+    errors: { 409: "A substance with this CAS number is already in the library." },
   },
   {
     method: "get",
@@ -207,7 +207,7 @@ export const inventoryOperations: ApiOperation[] = [
     access: { action: "substances.write" },
     body: substanceUpdateSchema,
     success: { status: 200, description: "The substance as stored.", schema: dataOf(substanceSchema) },
-    errors: { 409: "A substance with this CAS number or name exists." },
+    errors: { 409: "A substance with this CAS number is already in the library." },
   },
   {
     method: "delete",

@@ -45,6 +45,7 @@ export const locationOperations: ApiOperation[] = [
     body: siteCreateSchema,
     bodyExamples: { annex: { summary: "A site at altitude", value: { name: "Riverside Annex", address: "18 Millrace Road, Upper Fenwick", elevationM: 420 } } },
     success: { status: 201, description: "Created.", schema: dataOf(siteSchema) },
+    errors: { 409: "A site with this name exists." },
   },
   {
     method: "get",
@@ -64,6 +65,7 @@ export const locationOperations: ApiOperation[] = [
     body: siteUpdateSchema,
     bodyExamples: { pressure: { summary: "Set the pressure", value: { atmosphericPressureKPa: 96.4 } } },
     success: { status: 200, description: "The site as stored.", schema: dataOf(siteSchema) },
+    errors: { 409: "A site with this name exists." },
   },
   {
     method: "get",

@@ -87,7 +87,7 @@ export const temperatureOperations: ApiOperation[] = [
     body: sensorCreateSchema,
     bodyExamples: { fridge: { summary: "A logger inside a refrigerator", value: { externalId: "S-212", name: "2.107 FR-1 second probe", storageUnitId: 5 } } },
     success: { status: 201, description: "Registered.", schema: dataOf(sensorSchema) },
-    errors: { 404: "The room or unit does not exist.", 409: "A sensor with this device id exists." },
+    errors: { 400: "The room or unit does not exist (named in `fields`).", 409: "A sensor with this device id exists." },
   },
   {
     method: "get",
