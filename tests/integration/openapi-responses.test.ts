@@ -54,6 +54,7 @@ import * as csvImportRoute from "@/app/api/v1/sensors/[id]/csv-uploads/[token]/i
 import { sensors } from "@/db/schema";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
+import { DEMO_GATEWAY_KEY } from "@/lib/api-docs/operations/temperatures";
 import { call, sessionCookieFor } from "./helpers/world";
 
 let safety: User;
@@ -173,6 +174,11 @@ describe("documented answers match real ones", () => {
     expect(errorSchema.safeParse(refused.body).success).toBe(true);
     expect(refused.body.error.code).toBe("batch_rejected");
     expect(refused.body.error.rows[0]).toMatchObject({ index: 0, field: "tempC" });
+  });
+
+  it("names the demo gateway's key as the seed stores it", () => {
+    expect(DEMO_GATEWAY_KEY).toBe(DEMO_INGEST_KEY);
+    expect(API_OPERATIONS.find((o) => o.path === "/api/v1/readings")!.description).toContain(`Authorization: Bearer ${DEMO_INGEST_KEY}`);
   });
 
   it("the documented example batch is the shape the ingest takes", async () => {

@@ -49,6 +49,9 @@ export const readingsBatchExample = {
   ],
 };
 
+/** The demo organisation's published gateway key (db/seed/demo-readings.ts; the test checks they agree). */
+export const DEMO_GATEWAY_KEY = "hrk_demo_corvane-logger-gateway-0001";
+
 const tag = "Temperatures";
 
 export const temperatureOperations: ApiOperation[] = [
@@ -58,7 +61,15 @@ export const temperatureOperations: ApiOperation[] = [
     tag: "Logger ingest",
     summary: "Send temperature readings",
     description:
-      "For loggers and gateways. All or nothing: a batch with any bad row is refused whole (400 `batch_rejected`, every row's problem in `rows`). A reading identical to a stored one counts as a duplicate; one that differs from the stored reading for its sensor and instant is a conflict, reported and not stored. Each row: `sensor` (a registered device id), `at` (ISO-8601 with an offset, within the plausible window), `tempC` (within the plausible range).",
+      `For loggers and gateways. All or nothing: a batch with any bad row is refused whole (400 \`batch_rejected\`, every row's problem in \`rows\`). A reading identical to a stored one counts as a duplicate; one that differs from the stored reading for its sensor and instant is a conflict, reported and not stored. Each row: \`sensor\` (a registered device id), \`at\` (ISO-8601 with an offset, within the plausible window), \`tempC\` (within the plausible range).
+
+On a demo installation the seeded gateway key is \`${DEMO_GATEWAY_KEY}\` (published for trying it out; revoke it anywhere else):
+
+\`\`\`sh
+curl -X POST http://localhost:3000/api/v1/readings \\
+  -H 'Authorization: Bearer ${DEMO_GATEWAY_KEY}' -H 'Content-Type: application/json' \\
+  -d '{"readings":[{"sensor":"S-205","at":"2026-12-05T08:15:00+01:00","tempC":4.6}]}'
+\`\`\``,
     access: { apiKeyScope: "readings:write" },
     body: readingsBatchSchema,
     bodyExamples: { gateway: { summary: "Three readings from the Synthesis laboratory's loggers", value: readingsBatchExample } },
