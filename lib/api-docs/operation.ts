@@ -6,7 +6,7 @@
  */
 import { z } from "zod";
 import type { ZodOpenApiOperationObject, ZodOpenApiResponseObject, ZodOpenApiResponsesObject } from "zod-openapi";
-import { PERMISSIONS, ROLE_LABELS, type Action, type Role } from "@/lib/auth/permissions";
+import { PERMISSIONS, ROLE_LABELS, ROLES, type Action, type Role } from "@/lib/auth/permissions";
 import type { ApiKeyScope } from "@/lib/api-keys/scopes";
 import { errorSchema, idPathSchema } from "./schemas";
 
@@ -55,7 +55,7 @@ export type ApiOperation = {
     headers?: Record<string, string>;
   };
   /** Statuses beyond those the wrappers give, with what they mean here. */
-  errors?: Partial<Record<400 | 401 | 404 | 409 | 413 | 422 | 429, string>>;
+  errors?: Partial<Record<400 | 401 | 403 | 404 | 409 | 413 | 422 | 429, string>>;
   /** Calls `limit()` from lib/rate-limit: 429 with Retry-After. */
   rateLimited?: string;
   /** Runs in a worker thread: 503 `server_busy` when the queue is full (lib/workers/pool.ts). */
@@ -138,10 +138,12 @@ export function toOpenApiOperation(op: ApiOperation): ZodOpenApiOperationObject 
   }
   const forbidden: string[] = [];
   if (op.access !== "public" && "action" in op.access) {
-    forbidden.push(`Your role may not do this (allowed: ${rolesText(op.access.action)}).`);
-    const row = PERMISSIONS[op.access.action] as Record<string, string>;
-    if (Object.values(row).includes("own")) forbidden.push("Or the record is not yours.");
+    const row = PERMISSIONS[op.access.action] as Partial<Record<Role, string>>;
+    // A permission every role has all of never refuses anyone by role.
+    if (ROLES.some((role) => !row[role])) forbidden.push(`Your role may not do this (allowed: ${rolesText(op.access.action)}).`);
+    if (Object.values(row).includes("own")) forbidden.push("Your role may do this only for what you own or look after.");
   }
+  if (op.errors?.[403]) forbidden.push(op.errors[403]);
   if (op.access !== "public" && "apiKeyScope" in op.access) forbidden.push(`The key lacks the scope \`${op.access.apiKeyScope}\`.`);
   if (writes && !(op.access !== "public" && "apiKeyScope" in op.access)) forbidden.push("A write sent from a page of another origin is refused.");
   if (forbidden.length) responses["403"] = errorResponse("403", forbidden.join(" "));

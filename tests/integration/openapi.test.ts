@@ -11,6 +11,7 @@ import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { API_OPERATIONS, apiDocument } from "@/lib/api-docs/document";
 import { HTTP_METHODS } from "@/lib/api-docs/operation";
+import { ROLES, scopeFor, type Action } from "@/lib/auth/permissions";
 import * as docSchemas from "@/lib/api-docs/schemas";
 import { GET as openApiJson } from "@/app/api/v1/openapi.json/route";
 import { call } from "./helpers/world";
@@ -78,6 +79,9 @@ describe("the API document and the route handlers", () => {
     expect(publicOnes.sort()).toEqual(["DELETE /api/v1/session", "GET /api/v1/openapi.json", "POST /api/v1/session"]);
     expect(doc.paths["/api/v1/readings"].post.security).toEqual([{ apiKey: ["readings:write"] }]);
     expect(doc.paths["/api/v1/findings"].get.security).toEqual([{ sessionCookie: [] }]);
+    // Every role may read the substance library: no 403 by role; only administrators manage keys.
+    expect(doc.paths["/api/v1/substances"].get.responses["403"]).toBeUndefined();
+    expect(Object.keys(doc.paths["/api/v1/api-keys"].get.responses)).toContain("403");
   });
 
   it("gives every operation error answers in the shared error shape", () => {
@@ -86,8 +90,11 @@ describe("the API document and the route handlers", () => {
         const errors = Object.entries(op.responses).filter(([status]) => Number(status) >= 400);
         expect(errors.length, `${method} ${p}`).toBeGreaterThan(0);
         for (const [status, response] of errors) expect(response.content?.["application/json"]?.schema?.$ref, `${method} ${p} ${status}`).toBe("#/components/schemas/Error");
-        // Signed-in routes: 401 and 403 always; path ids: 404.
-        if (op.security!.length > 0) expect(Object.keys(op.responses)).toEqual(expect.arrayContaining(["401", "403"]));
+        // Signed-in routes: 401 always; 403 where a role is refused, a scope is "own", or it writes; path ids: 404.
+        if (op.security!.length > 0) expect(Object.keys(op.responses), `${method} ${p}`).toContain("401");
+        const access = (op as unknown as { "x-headroom-access"?: { action?: Action } })["x-headroom-access"];
+        const refusesSomeone = access?.action ? ROLES.some((role) => scopeFor(role, access.action!) !== "all") : true;
+        if (op.security!.length > 0 && (refusesSomeone || method !== "get")) expect(Object.keys(op.responses), `${method} ${p}`).toContain("403");
         if (p.includes("{")) expect(Object.keys(op.responses)).toContain("404");
       }
     }

@@ -257,7 +257,7 @@ export const inventoryOperations: ApiOperation[] = [
     description: "Streamed inline as PDF, never cached. Who may open it depends on what it is attached to.",
     access: { action: "overview.read" },
     success: { status: 200, description: "The PDF.", binary: ["application/pdf"], headers: { "Content-Disposition": "inline, with the file's name." } },
-    errors: { 404: "No such file, or not one you may open." },
+    errors: { 403: "The file is attached to something you may not read.", 404: "No such file." },
   },
   {
     method: "post",

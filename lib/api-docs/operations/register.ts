@@ -109,6 +109,7 @@ export const registerOperations: ApiOperation[] = [
       400: "The substance, mixture or container does not exist, or the container is already in that unit (named in `fields`).",
       404: "No such storage unit.",
       409: "The container was disposed of; its record is kept and cannot be changed.",
+      403: "A stored container you may not change (researchers: only their own).",
     },
     rateLimited: "Too many what-if questions by you in a short time.",
   },
