@@ -37,5 +37,5 @@ export {
   type ValidRoom,
   type ValidUnit,
 } from "./locations";
-export { containerTemplateCsv, locationTemplateCsv, writeTemplateXlsx, type TemplateKind } from "./templates";
+export { containerTemplateCsv, locationTemplateCsv, templateFileSchema, writeTemplateXlsx, type TemplateKind } from "./templates";
 export { casCheckDigit, readCas, readDate, readNumber } from "./values";

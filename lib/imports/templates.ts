@@ -3,12 +3,17 @@
  * sheet that explains every column.
  */
 import ExcelJS from "exceljs";
+import { z } from "zod";
 import Papa from "papaparse";
 import type { ImportColumn } from "./columns";
 import { CONTAINER_COLUMNS } from "./containers";
 import { LOCATION_COLUMNS } from "./locations";
 
 export type TemplateKind = "containers" | "locations";
+
+/** The template files `GET /api/v1/imports/templates/{file}` serves (any other name: 404). */
+export const TEMPLATE_FILES = ["containers.csv", "containers.xlsx", "locations.csv", "locations.xlsx"] as const;
+export const templateFileSchema = z.enum(TEMPLATE_FILES);
 
 /** Invented example rows; the location rows declare the units the container rows are stored in. */
 const CONTAINER_EXAMPLES: Record<string, string>[] = [

@@ -92,6 +92,8 @@ const ROUTES: Entry[] = [
   { file: "settings/assessment/route.ts", method: "PUT", path: "/api/v1/settings/assessment", action: "hazardSettings.write", body: {} },
   // A binary download: an impossible site id keeps the allowed roles' answer JSON (400); the workbook itself is tested in register-export.test.ts.
   { file: "exports/register.xlsx/route.ts", method: "GET", path: "/api/v1/exports/register.xlsx?siteId=0", action: "exports.download" },
+  // The API's own OpenAPI document: public (tests/integration/openapi.test.ts).
+  { file: "openapi.json/route.ts", method: "GET", path: "/api/v1/openapi.json", action: "public" },
   // Loggers authenticate with an API key, not a session (tests/integration/readings-ingest.test.ts).
   { file: "readings/route.ts", method: "POST", path: "/api/v1/readings", action: "public" },
   // The catch-all answers 404 for unknown paths whoever asks.

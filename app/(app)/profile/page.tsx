@@ -59,6 +59,31 @@ export default async function ProfilePage() {
         </p>
         <AlertPreferencesForm values={{ alertExcursions: account.alertExcursions, alertFindings: account.alertFindings, dailyDigest: account.dailyDigest }} />
       </Card>
+      <Card title="For integrators">
+        <p className="text-sm text-ink-600">
+          Scripts and logger gateways can use Headroom&apos;s JSON API. The{" "}
+          <a href="/api-docs" className="text-accent-700 hover:underline">
+            API reference
+          </a>{" "}
+          lists every route with who may call it, what it takes and what it answers; the same description is at{" "}
+          <a href="/api/v1/openapi.json" className="text-accent-700 hover:underline">
+            /api/v1/openapi.json
+          </a>{" "}
+          (OpenAPI 3.1).
+          {can(user.role, "apiKeys.manage") ? (
+            <>
+              {" "}
+              Keys for gateways are made under{" "}
+              <Link href="/admin/api-keys" className="text-accent-700 hover:underline">
+                Admin → API keys
+              </Link>
+              .
+            </>
+          ) : (
+            " Keys for gateways are made by an administrator."
+          )}
+        </p>
+      </Card>
     </div>
   );
 }

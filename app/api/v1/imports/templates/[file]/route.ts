@@ -1,4 +1,4 @@
-import { containerTemplateCsv, locationTemplateCsv, writeTemplateXlsx, type TemplateKind } from "@/lib/imports";
+import { containerTemplateCsv, locationTemplateCsv, templateFileSchema, writeTemplateXlsx, type TemplateKind } from "@/lib/imports";
 import { route } from "@/lib/http/route";
 import { NotFoundError } from "@/lib/errors";
 
@@ -9,10 +9,9 @@ const CONTENT_TYPES = {
 
 /** The import templates, /api/v1/imports/templates/{containers|locations}.{csv|xlsx}; any signed-in role may download them. */
 export const GET = route({ action: "overview.read" }, async ({ params }) => {
-  const match = /^(containers|locations)\.(csv|xlsx)$/.exec(params.file ?? "");
-  if (!match) throw new NotFoundError("That template");
-  const kind = match[1] as TemplateKind;
-  const format = match[2] as keyof typeof CONTENT_TYPES;
+  const file = templateFileSchema.safeParse(params.file ?? "");
+  if (!file.success) throw new NotFoundError("That template");
+  const [kind, format] = file.data.split(".") as [TemplateKind, keyof typeof CONTENT_TYPES];
   const body =
     format === "xlsx"
       ? new Uint8Array(await writeTemplateXlsx(kind))
