@@ -106,6 +106,8 @@ export const sessionRowSchema = z
 
 export const endedSchema = z.object({ ended: z.number().int().min(0).meta({ description: "How many sessions ended." }) });
 
+const signInMethodSchema = z.enum(["password", "sso"]).meta({ description: "How the person signs in: a password of their own, or single sign-on through the institution's provider (no password here)." });
+
 export const userRowSchema = z
   .object({
     id: z.number().int(),
@@ -113,14 +115,15 @@ export const userRowSchema = z
     name: z.string(),
     role: roleSchema,
     active: z.boolean(),
-    activated: z.boolean().meta({ description: "Has set a password from the invitation." }),
+    activated: z.boolean().meta({ description: "Has taken up the invitation: set a password, or signed in once through the institution's provider (single sign-on accounts)." }),
+    signInMethod: signInMethodSchema,
     lastSignInAt: isoDateTime.nullable(),
     createdAt: isoDateTime,
   })
-  .meta({ id: "User", example: { id: 3, email: "researcher@example.org", name: "Jonas Ekberg", role: "researcher", active: true, activated: true, lastSignInAt: "2026-12-04T15:02:19.000Z", createdAt: "2026-01-12T08:00:00.000Z" } });
+  .meta({ id: "User", example: { id: 3, email: "researcher@example.org", name: "Jonas Ekberg", role: "researcher", active: true, activated: true, signInMethod: "password", lastSignInAt: "2026-12-04T15:02:19.000Z", createdAt: "2026-01-12T08:00:00.000Z" } });
 
 export const invitedUserSchema = z.object({
-  user: z.object({ id: z.number().int(), email: z.string(), name: z.string(), role: roleSchema, active: z.boolean(), activated: z.literal(false) }),
+  user: z.object({ id: z.number().int(), email: z.string(), name: z.string(), role: roleSchema, active: z.boolean(), activated: z.literal(false), signInMethod: signInMethodSchema }),
 });
 
 const scopeSchema = z.enum(API_KEY_SCOPES);

@@ -12,7 +12,8 @@ export const GET = route({ action: "users.manage" }, () => {
     name: u.name,
     role: u.role,
     active: u.active,
-    activated: u.hasPassword,
+    activated: u.signInMethod === "sso" ? u.ssoLinked : u.hasPassword,
+    signInMethod: u.signInMethod,
     lastSignInAt: u.lastSignInAt?.toISOString() ?? null,
     createdAt: u.createdAt.toISOString(),
   }));
@@ -23,7 +24,7 @@ export const GET = route({ action: "users.manage" }, () => {
 export const POST = route({ action: "users.manage", schema: inviteUserSchema }, async ({ request, user, input }) => {
   const invited = await inviteUser(user, input, { clientIp: clientIp(request) });
   return NextResponse.json(
-    { user: { id: invited.id, email: invited.email, name: invited.name, role: invited.role, active: invited.active, activated: false } },
+    { user: { id: invited.id, email: invited.email, name: invited.name, role: invited.role, active: invited.active, activated: false, signInMethod: invited.signInMethod } },
     { status: 201 },
   );
 });
