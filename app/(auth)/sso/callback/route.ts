@@ -55,7 +55,7 @@ export const GET = publicRoute(async ({ request }) => {
   }
 
   const outcome = completeSsoSignIn(claims, { ip });
-  if (!outcome.ok) // The cookie stays small: at most 20 groups of 100 characters are shown.
+  // The cookie stays small: at most 20 groups of 100 characters are shown.
   if (!outcome.ok) return refuse({ reason: outcome.reason, groups: outcome.groups.slice(0, 20).map((g) => g.slice(0, 100)), email: outcome.email });
 
   await refund("signInIp", signInKeys.ip(ip));
