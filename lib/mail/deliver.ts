@@ -4,6 +4,7 @@ import { Resend } from "resend";
 import { getDb, type Db } from "@/db/client";
 import { emailMessages, type EmailMessage } from "@/db/schema";
 import { mailApiKey, mailBaseUrl, mailFrom } from "@/lib/config";
+import { coalescedJob } from "@/lib/jobs/coalesced";
 import { log } from "@/lib/log";
 
 const BATCH_SIZE = 20;
@@ -81,39 +82,13 @@ export async function deliverDueMessages(db: Db = getDb(), now = Date.now()): Pr
   return run;
 }
 
-type OutboxState = { running: boolean; again: boolean; timer?: ReturnType<typeof setInterval> };
-const globalForOutbox = globalThis as unknown as { __headroomOutbox?: OutboxState };
-function state(): OutboxState {
-  return (globalForOutbox.__headroomOutbox ??= { running: false, again: false });
-}
+const outboxJob = coalescedJob("outbox", { testsEnv: "HEADROOM_OUTBOX_IN_TESTS", pass: async () => void (await deliverDueMessages()) });
 
 /** Runs a delivery pass now (coalescing overlapping requests); errors are logged, never thrown. */
 export function kickOutbox(): void {
-  if (process.env.VITEST && !process.env.HEADROOM_OUTBOX_IN_TESTS) return;
-  const s = state();
-  if (s.running) {
-    s.again = true;
-    return;
-  }
-  s.running = true;
-  void (async () => {
-    try {
-      do {
-        s.again = false;
-        await deliverDueMessages();
-      } while (s.again);
-    } catch (error) {
-      log.error({ job: "outbox", err: error }, "job run failed");
-    } finally {
-      s.running = false;
-    }
-  })();
+  outboxJob.kick();
 }
 
 export function startOutboxJob(intervalMs = 2_000): void {
-  const s = state();
-  if (s.timer) return;
-  s.timer = setInterval(kickOutbox, intervalMs);
-  s.timer.unref?.();
-  kickOutbox();
+  outboxJob.start(intervalMs);
 }

@@ -7,6 +7,7 @@ import { Webhook } from "standardwebhooks";
 import { getDb, preparedOn, type Db } from "@/db/client";
 import { webhookAllowHttpLoopback } from "@/lib/config";
 import { DomainError } from "@/lib/errors";
+import { coalescedJob } from "@/lib/jobs/coalesced";
 import { log } from "@/lib/log";
 import { workerWritesDone } from "@/lib/workers/write-gate";
 import { decryptWebhookSecret } from "./secret";
@@ -210,41 +211,20 @@ function record(db: Db, row: DueRow, token: string, outcome: SendOutcome & { at:
   });
 }
 
-type JobState = { running: boolean; again: boolean; timer?: ReturnType<typeof setInterval> };
-const globalForJob = globalThis as unknown as { __headroomWebhooks?: JobState };
-function state(): JobState {
-  return (globalForJob.__headroomWebhooks ??= { running: false, again: false });
-}
+const webhookJob = coalescedJob("webhooks", {
+  testsEnv: "HEADROOM_WEBHOOKS_IN_TESTS",
+  pass: async () => {
+    const run = await deliverDueWebhooks();
+    // A full batch: there may be more due (a burst of events), so go on without waiting for the timer.
+    return { more: run.delivered + run.retrying + run.failed >= BATCH_SIZE };
+  },
+});
 
 /** Runs a delivery pass now (coalescing overlapping requests); errors are logged, never thrown. */
 export function kickWebhooks(): void {
-  if (process.env.VITEST && !process.env.HEADROOM_WEBHOOKS_IN_TESTS) return;
-  const s = state();
-  if (s.running) {
-    s.again = true;
-    return;
-  }
-  s.running = true;
-  void (async () => {
-    try {
-      do {
-        s.again = false;
-        const run = await deliverDueWebhooks();
-        // A full batch: there may be more due (a burst of events), so go on without waiting for the timer.
-        if (run.delivered + run.retrying + run.failed >= BATCH_SIZE) s.again = true;
-      } while (s.again);
-    } catch (error) {
-      log.error({ job: "webhooks", err: error }, "job run failed");
-    } finally {
-      s.running = false;
-    }
-  })();
+  webhookJob.kick();
 }
 
 export function startWebhookJob(intervalMs = 3_000): void {
-  const s = state();
-  if (s.timer) return;
-  s.timer = setInterval(kickWebhooks, intervalMs);
-  s.timer.unref?.();
-  kickWebhooks();
+  webhookJob.start(intervalMs);
 }
