@@ -15,7 +15,11 @@ import { severitySchema } from "./schemas";
 export const WEBHOOKS_TAG = "Webhooks";
 
 const APP = "https://headroom.example.org";
-const dateTime = z.iso.datetime();
+/** An instant as Date#toISOString writes it (UTC, milliseconds). */
+const dateTime = z
+  .string()
+  .refine((v) => !Number.isNaN(Date.parse(v)) && new Date(v).toISOString() === v, "An ISO-8601 UTC time, e.g. 2026-12-04T22:00:00.000Z.")
+  .meta({ format: "date-time" });
 
 // ---------------------------------------------------------------------------------------------
 // The pieces of `data`
