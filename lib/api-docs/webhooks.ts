@@ -268,7 +268,7 @@ export const webhookHeadersSchema = z.object({
   }),
   "webhook-signature": z.string().meta({
     description:
-      "`v1,<base64>`: HMAC-SHA256 over `${webhook-id}.${webhook-timestamp}.${body}` (the raw body, as received), keyed with the base64-decoded part of the endpoint's secret after `whsec_`. Several signatures may be sent, separated by spaces; accept the message if one matches. Any Standard Webhooks library verifies all of this.",
+      "`v1,<base64>`: HMAC-SHA256 over `${webhook-id}.${webhook-timestamp}.${body}` (the raw body, as received), keyed with the base64-decoded part of the endpoint's secret after `whsec_`. Headroom sends one; the convention allows several separated by spaces, and the message is genuine if one matches. Any Standard Webhooks library verifies all of this.",
     example: "v1,K5oZfzN95Z9UVu1EsfQmfVNQhnkZ2pj9o9NDN/H/pI4=",
   }),
 });
