@@ -13,6 +13,7 @@ import { inventoryOperations } from "./operations/inventory";
 import { locationOperations } from "./operations/locations";
 import { registerOperations } from "./operations/register";
 import { temperatureOperations } from "./operations/temperatures";
+import { WEBHOOKS_DESCRIPTION, WEBHOOKS_TAG, webhookDocuments } from "./webhooks";
 
 export const API_DOCUMENT_VERSION = "1.0.0";
 
@@ -55,6 +56,7 @@ const TAGS = [
   { name: "Exports", description: "The register as an Excel workbook for audits." },
   { name: "Audit", description: "The audit log." },
   { name: "Reference", description: "This document." },
+  { name: WEBHOOKS_TAG, description: "The events Headroom sends to the endpoints administrators register (Admin → Webhooks): payloads, signature headers and the answer expected." },
 ];
 
 const DESCRIPTION = `The JSON API behind Headroom: the inventory of volatile liquids per room and storage unit, the temperatures that drive the worst cases, and the register of findings.
@@ -63,7 +65,9 @@ const DESCRIPTION = `The JSON API behind Headroom: the inventory of volatile liq
 
 **Authentication.** People use the session cookie that \`POST /api/v1/session\` sets (in a browser on this site the reference page's "Try it out" sends it). Writes with the cookie must come from this site's own pages (same origin). Machines — logger gateways — send an API key as \`Authorization: Bearer hrk_…\` and may only call the routes that say so (today \`POST /api/v1/readings\`, scope \`readings:write\`). Each operation names the permission and the roles that have it.
 
-**Conventions.** Bodies are JSON (\`Content-Type: application/json\`, at most 1 MB unless stated) except uploads (multipart, field \`file\`). Lists answer \`{ data, page, pageSize, total }\` and read \`page\`, \`pageSize\` (1–100), \`sort\`, \`dir\` and their own filters from the query string. Times are ISO-8601. Every error answers \`{ error: { code, message, fields? } }\`; 429 comes with \`Retry-After\`.`;
+**Conventions.** Bodies are JSON (\`Content-Type: application/json\`, at most 1 MB unless stated) except uploads (multipart, field \`file\`). Lists answer \`{ data, page, pageSize, total }\` and read \`page\`, \`pageSize\` (1–100), \`sort\`, \`dir\` and their own filters from the query string. Times are ISO-8601. Every error answers \`{ error: { code, message, fields? } }\`; 429 comes with \`Retry-After\`.
+
+${WEBHOOKS_DESCRIPTION}`;
 
 /** zod's `.int()` bounds a number by ±(2^53 − 1); said in the document, the reference would show them as example values. */
 function withoutSafeIntegerBounds(ctx: { jsonSchema: Record<string, unknown> }) {
@@ -85,6 +89,7 @@ function buildDocument() {
     servers: [{ url: "/", description: "This Headroom installation" }],
     tags: TAGS,
     paths,
+    webhooks: webhookDocuments(),
     components: {
       securitySchemes: {
         [SESSION_COOKIE_SCHEME]: {

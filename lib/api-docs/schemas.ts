@@ -53,6 +53,8 @@ export const idPathSchema = z.object({
 
 const isoDateTime = z.string().meta({ format: "date-time", example: "2026-11-30T09:12:44.000Z" });
 const severity = z.enum(SEVERITIES).meta({ id: "Severity" });
+/** The severity enum as a shared component (the webhook payloads use it too). */
+export const severitySchema = severity;
 export const roleSchema = z.enum(ROLES).meta({ id: "Role" });
 
 /** A paged list: `{ data, page, pageSize, total }` (lib/http/list-query.ts `listPage`). */

@@ -5,14 +5,22 @@ import { findings, type Excursion, type Finding, type Severity } from "@/db/sche
 import { describeAlertLocation } from "@/lib/alerts/recipients";
 import { appUrl } from "@/lib/config";
 import { crossingText, type ProjectedCrossing } from "@/lib/temperatures/projection";
+import type { WebhookCrossing, WebhookEventData, WebhookFindingCore, WebhookLocation } from "@/lib/api-docs/webhooks";
+import type { WebhookEventType } from "./events";
 import { activeSubscribers, enqueueWebhookEvent } from "./outbox";
 
 /**
  * The register's and the loggers' events as webhook payloads, queued in the transaction of the
- * change. Payloads carry ids, codes, severity, the location and a link — no people.
+ * change. Payloads carry ids, codes, severity, the location and a link — no people. Each payload is
+ * typed by its documented schema (lib/api-docs/webhooks.ts): a field not documented there fails tsc.
  */
 
-type Location = { roomId: number | null; storageUnitId: number | null; label: string | null; link: string | null };
+type Location = WebhookLocation;
+
+/** Queues one event with the `data` its documented schema names. */
+function queue<T extends WebhookEventType>(tx: DbOrTx, type: T, data: WebhookEventData<T>, opts: Parameters<typeof enqueueWebhookEvent>[3]): number {
+  return enqueueWebhookEvent(tx, type, data, opts);
+}
 
 function location(tx: DbOrTx, where: { roomId: number | null; storageUnitId: number | null }, cache: Map<string, Location>): Location {
   const key = `${where.roomId}:${where.storageUnitId}`;
@@ -26,25 +34,37 @@ function location(tx: DbOrTx, where: { roomId: number | null; storageUnitId: num
   return value;
 }
 
-function findingData(tx: DbOrTx, finding: Finding, cache: Map<string, Location>, extra: Record<string, unknown> = {}) {
+type FindingEvent = "finding.raised" | "finding.escalated" | "finding.resolved";
+
+function findingCore(finding: Finding): WebhookFindingCore {
   return {
-    finding: {
-      id: finding.id,
-      rule: finding.rule,
-      title: finding.title,
-      severity: finding.severity,
-      status: finding.status,
-      scenario: finding.scenario,
-      value: finding.value,
-      limit: finding.limitValue,
-      ratio: finding.ratio,
-      unit: finding.unit,
-      worstCaseTempC: finding.worstCaseTempC,
-      url: `${appUrl()}/register/${finding.id}`,
-      ...extra,
-    },
-    location: location(tx, { roomId: finding.roomId, storageUnitId: finding.storageUnitId }, cache),
+    id: finding.id,
+    rule: finding.rule,
+    title: finding.title,
+    severity: finding.severity,
+    status: finding.status,
+    scenario: finding.scenario,
+    value: finding.value,
+    limit: finding.limitValue,
+    ratio: finding.ratio,
+    unit: finding.unit,
+    worstCaseTempC: finding.worstCaseTempC,
+    url: `${appUrl()}/register/${finding.id}`,
   };
+}
+
+/** The finding and its location, with the fields only this event carries. */
+function findingData<T extends FindingEvent>(
+  tx: DbOrTx,
+  _type: T,
+  finding: Finding,
+  cache: Map<string, Location>,
+  extra: Omit<WebhookEventData<T>["finding"], keyof WebhookFindingCore>,
+): WebhookEventData<T> {
+  return {
+    finding: { ...findingCore(finding), ...extra },
+    location: location(tx, { roomId: finding.roomId, storageUnitId: finding.storageUnitId }, cache),
+  } as WebhookEventData<T>;
 }
 
 export type FindingWebhookChange = { kind: "raised" | "reopened" | "escalated"; finding: Finding; fromSeverity?: Severity };
@@ -62,15 +82,15 @@ export function queueFindingWebhooks(tx: DbOrTx, changes: FindingWebhookChange[]
   let queued = 0;
   for (const change of changes) {
     if (change.kind === "escalated") {
-      queued += enqueueWebhookEvent(tx, "finding.escalated", findingData(tx, change.finding, cache, { previousSeverity: change.fromSeverity ?? null }), { at, subscribers });
+      queued += queue(tx, "finding.escalated", findingData(tx, "finding.escalated", change.finding, cache, { previousSeverity: change.fromSeverity ?? null }), { at, subscribers });
     } else {
-      queued += enqueueWebhookEvent(tx, "finding.raised", findingData(tx, change.finding, cache, { reopened: change.kind === "reopened" }), { at, subscribers });
+      queued += queue(tx, "finding.raised", findingData(tx, "finding.raised", change.finding, cache, { reopened: change.kind === "reopened" }), { at, subscribers });
     }
   }
   if (resolvedIds.length && subscribers.some((s) => s.events.includes("finding.resolved"))) {
     for (let i = 0; i < resolvedIds.length; i += 500) {
       for (const finding of tx.select().from(findings).where(inArray(findings.id, resolvedIds.slice(i, i + 500))).all()) {
-        queued += enqueueWebhookEvent(tx, "finding.resolved", findingData(tx, finding, cache, { resolvedBy: "re-assessment" }), { at, subscribers });
+        queued += queue(tx, "finding.resolved", findingData(tx, "finding.resolved", finding, cache, { resolvedBy: "re-assessment" }), { at, subscribers });
       }
     }
   }
@@ -79,10 +99,10 @@ export function queueFindingWebhooks(tx: DbOrTx, changes: FindingWebhookChange[]
 
 /** A person marked a finding resolved (and re-assessment agreed). */
 export function queueFindingResolvedByPerson(tx: DbOrTx, finding: Finding, at = new Date()): number {
-  return enqueueWebhookEvent(tx, "finding.resolved", findingData(tx, finding, new Map(), { resolvedBy: "person" }), { at });
+  return queue(tx, "finding.resolved", findingData(tx, "finding.resolved", finding, new Map(), { resolvedBy: "person" }), { at });
 }
 
-function excursionData(tx: DbOrTx, excursion: Excursion, sensor: string, cache: Map<string, Location>) {
+function excursionData(tx: DbOrTx, excursion: Excursion, sensor: string, cache: Map<string, Location>): WebhookEventData<"excursion.started" | "excursion.ended"> {
   return {
     excursion: {
       id: excursion.id,
@@ -107,8 +127,8 @@ export function queueExcursionWebhooks(tx: DbOrTx, sensor: string, events: { kin
   let queued = 0;
   for (const { kind, excursion } of events) {
     const data = excursionData(tx, excursion, sensor, cache);
-    if (kind === "started" || kind === "recorded") queued += enqueueWebhookEvent(tx, "excursion.started", data, { at: excursion.startAt, subscribers });
-    if (kind === "ended" || kind === "recorded") queued += enqueueWebhookEvent(tx, "excursion.ended", data, { at: excursion.endAt ?? new Date(), subscribers });
+    if (kind === "started" || kind === "recorded") queued += queue(tx, "excursion.started", data, { at: excursion.startAt, subscribers });
+    if (kind === "ended" || kind === "recorded") queued += queue(tx, "excursion.ended", data, { at: excursion.endAt ?? new Date(), subscribers });
   }
   return queued;
 }
@@ -119,12 +139,12 @@ export function queueCrossingWarningWebhook(
   input: { excursionId: number; storageUnitId: number; latest: { at: Date; tempC: number }; crossings: ProjectedCrossing[] },
   at: Date,
 ): number {
-  return enqueueWebhookEvent(
+  return queue(
     tx,
     "excursion.crossing_warning",
     {
       excursion: { id: input.excursionId, url: `${appUrl()}/temperatures/excursions/${input.excursionId}`, latestTempC: input.latest.tempC, latestAt: input.latest.at.toISOString() },
-      crossings: input.crossings.map((c) => ({
+      crossings: input.crossings.map((c): WebhookCrossing => ({
         key: c.key,
         name: c.name,
         rule: c.rule,

@@ -2,7 +2,7 @@
  * The API document and the route files stay in step: every exported handler under app/api/v1 is
  * documented and every documented operation has its handler; the document is valid OpenAPI 3.1;
  * every operation states its security and its errors in the shared error shape; the examples
- * parse with their own schemas.
+ * parse with their own schemas; every webhook event is documented once, with its payload schema.
  */
 import fs from "node:fs";
 import path from "node:path";
@@ -13,6 +13,9 @@ import { API_OPERATIONS, apiDocument } from "@/lib/api-docs/document";
 import { HTTP_METHODS } from "@/lib/api-docs/operation";
 import { ROLES, scopeFor, type Action } from "@/lib/auth/permissions";
 import * as docSchemas from "@/lib/api-docs/schemas";
+import * as webhookSchemas from "@/lib/api-docs/webhooks";
+import { RETRY_DELAYS_MS } from "@/lib/webhooks/deliver";
+import { WEBHOOK_EVENT_TYPES } from "@/lib/webhooks/events";
 import { GET as openApiJson } from "@/app/api/v1/openapi.json/route";
 import { call } from "./helpers/world";
 
@@ -38,7 +41,21 @@ type Operation = {
   security?: Record<string, string[]>[];
   responses: Record<string, { content?: Record<string, { schema?: { $ref?: string } }> }>;
 };
-const doc = apiDocument() as unknown as { paths: Record<string, Record<string, Operation>>; components: { schemas: Record<string, unknown> } };
+type WebhookItem = {
+  post: {
+    tags: string[];
+    parameters: { in: string; name: string; required: boolean; description: string }[];
+    requestBody: { required: boolean; content: Record<string, { schema: { $ref?: string } }> };
+    responses: Record<string, { description: string }>;
+  };
+};
+const doc = apiDocument() as unknown as {
+  paths: Record<string, Record<string, Operation>>;
+  webhooks: Record<string, WebhookItem>;
+  tags: { name: string }[];
+  info: { description: string };
+  components: { schemas: Record<string, unknown> };
+};
 
 describe("the API document and the route handlers", () => {
   it("documents every exported handler under app/api/v1 and nothing else", async () => {
@@ -188,5 +205,60 @@ describe("GET /api/v1/openapi.json", () => {
     expect(response.body.servers).toEqual([{ url: "/", description: "This Headroom installation" }]);
     expect(response.body.components.securitySchemes.sessionCookie).toMatchObject({ type: "apiKey", in: "cookie", name: "headroom_session" });
     expect(response.body.components.securitySchemes.apiKey).toMatchObject({ type: "http", scheme: "bearer" });
+  });
+});
+
+describe("the webhook events in the document", () => {
+  it("documents every event name once, and only those", () => {
+    expect(Object.keys(doc.webhooks).sort()).toEqual([...WEBHOOK_EVENT_TYPES].sort());
+    expect(Object.keys(webhookSchemas.WEBHOOK_PAYLOAD_SCHEMAS).sort()).toEqual([...WEBHOOK_EVENT_TYPES].sort());
+    for (const [name, item] of Object.entries(doc.webhooks)) expect(Object.keys(item), name).toEqual(["post"]);
+  });
+
+  it("gives each a JSON body in its own schema, the signature headers, the answers and the tag", () => {
+    expect(doc.tags.map((t) => t.name)).toContain(webhookSchemas.WEBHOOKS_TAG);
+    for (const [name, { post }] of Object.entries(doc.webhooks)) {
+      expect(post.tags, name).toEqual([webhookSchemas.WEBHOOKS_TAG]);
+      expect(post.requestBody.required).toBe(true);
+      const ref = post.requestBody.content["application/json"].schema.$ref!;
+      expect(ref, name).toMatch(/^#\/components\/schemas\/\w+Event$/);
+      const schema = doc.components.schemas[ref.split("/").pop()!] as { properties: { type: { const: string } }; additionalProperties: boolean };
+      expect(schema.properties.type.const).toBe(name);
+      expect(schema.additionalProperties).toBe(false);
+      const headers = post.parameters.filter((p) => p.in === "header");
+      expect(headers.map((h) => h.name)).toEqual(["webhook-id", "webhook-timestamp", "webhook-signature"]);
+      expect(headers.every((h) => h.required && h.description.length > 20)).toBe(true);
+      expect(Object.keys(post.responses).sort()).toEqual(["2XX", "default"]);
+    }
+    const signature = doc.webhooks["finding.raised"].post.parameters.find((p) => p.name === "webhook-signature")!;
+    expect(signature.description).toContain("HMAC-SHA256");
+    expect(signature.description).toContain("whsec_");
+    expect(doc.webhooks["finding.raised"].post.parameters.find((p) => p.name === "webhook-timestamp")!.description).toContain("5 minutes");
+    expect(doc.info.description).toContain("Admin → Webhooks");
+  });
+
+  it("states the retry schedule of lib/webhooks/deliver.ts", () => {
+    expect(RETRY_DELAYS_MS).toEqual([30_000, 120_000, 600_000, 3_600_000, 21_600_000, 86_400_000]);
+    expect(webhookSchemas.RETRY_SCHEDULE_TEXT).toBe("30 s, 2 min, 10 min, 1 h, 6 h, 24 h");
+    expect(doc.webhooks["excursion.ended"].post.responses.default.description).toContain(webhookSchemas.RETRY_SCHEDULE_TEXT);
+  });
+
+  it("has payload examples that parse with their own schemas, and strict objects that refuse an undocumented field", () => {
+    let checked = 0;
+    for (const [name, value] of Object.entries(webhookSchemas)) {
+      if (!(value instanceof z.ZodType)) continue;
+      const example = z.globalRegistry.get(value)?.example;
+      if (example === undefined) continue;
+      const parsed = value.safeParse(example);
+      expect(parsed.success, `${name}: ${parsed.error?.message}`).toBe(true);
+      checked += 1;
+    }
+    expect(checked).toBe(WEBHOOK_EVENT_TYPES.length + 1);
+    for (const type of WEBHOOK_EVENT_TYPES) {
+      const schema = webhookSchemas.WEBHOOK_PAYLOAD_SCHEMAS[type];
+      const example = z.globalRegistry.get(schema)!.example as { data: Record<string, unknown> };
+      expect(schema.safeParse({ ...example, data: { ...example.data, extra: 1 } }).success, type).toBe(false);
+      expect(schema.safeParse({ ...example, type: "finding.other" }).success, type).toBe(false);
+    }
   });
 });

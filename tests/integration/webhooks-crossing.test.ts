@@ -2,7 +2,7 @@
  * The time-to-danger warning as a webhook: an open excursion on the demo's −20 °C freezer FZ-1
  * (sensor S-206, τ set to one hour) warming towards its room's 27.0 °C, checked by the crossing
  * watch. One `excursion.crossing_warning` per excursion and set of thresholds, in the warning's
- * transaction, signed and verified. Invented demo data.
+ * transaction, signed and verified, its body as the API document describes it. Invented demo data.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
@@ -14,6 +14,7 @@ import { checkCrossingAlerts } from "@/lib/alerts/crossing-alerts";
 import { deliverDueWebhooks } from "@/lib/webhooks/deliver";
 import { startWebhookReceiver, type WebhookReceiver } from "@/lib/webhooks/receiver-fake";
 import { createWebhookEndpoint } from "@/lib/webhooks/service";
+import { expectDocumentedPayload } from "./helpers/webhook-payloads";
 import { makeUser } from "./helpers/world";
 
 const NOW = Date.parse("2026-12-04T22:00:00Z");
@@ -67,6 +68,7 @@ describe("the crossing warning as a webhook", () => {
       data: { excursion: Record<string, unknown>; location: Record<string, unknown>; crossings: Record<string, unknown>[] };
     };
     expect(payload.type).toBe("excursion.crossing_warning");
+    expect(expectDocumentedPayload(got.body)).toBe("excursion.crossing_warning");
     expect(payload.timestamp).toBe(new Date(NOW).toISOString());
     expect(payload.data.excursion).toEqual({ id: excursionId, url: `http://localhost:3999/temperatures/excursions/${excursionId}`, latestTempC: 0, latestAt: new Date(NOW).toISOString() });
     expect(payload.data.location).toMatchObject({ storageUnitId: unitId });
