@@ -55,6 +55,7 @@ import { sensors } from "@/db/schema";
 import { API_OPERATIONS } from "@/lib/api-docs/document";
 import { errorSchema } from "@/lib/api-docs/schemas";
 import { DEMO_GATEWAY_KEY } from "@/lib/api-docs/operations/temperatures";
+import { keyProblems } from "./helpers/documented-keys";
 import { call, sessionCookieFor } from "./helpers/world";
 
 let safety: User;
@@ -80,32 +81,6 @@ function keysOf(schema: z.ZodType): string[] {
 
 function rowSchema(listSchema: z.ZodType): z.ZodObject {
   return ((listSchema as z.ZodObject).shape.data as z.ZodArray<z.ZodObject>).element;
-}
-
-/**
- * Where the answer and the schema part ways: an object's keys differ from the schema's (loose
- * objects, documented in words only, are not compared), or a value does not parse.
- */
-function keyProblems(schema: z.ZodType, value: unknown, at = "$"): string[] {
-  if (schema instanceof z.ZodOptional || schema instanceof z.ZodNullable || schema instanceof z.ZodDefault) {
-    return value === null || value === undefined ? [] : keyProblems(schema.unwrap() as z.ZodType, value, at);
-  }
-  if (schema instanceof z.ZodArray) return (value as unknown[]).flatMap((item, i) => keyProblems(schema.element as z.ZodType, item, `${at}[${i}]`));
-  if (schema instanceof z.ZodObject) {
-    const shape = schema.shape as Record<string, z.ZodType>;
-    const problems: string[] = [];
-    const loose = (schema.def as { catchall?: z.ZodType }).catchall instanceof z.ZodUnknown;
-    if (!loose) {
-      const expected = Object.keys(shape).filter((k) => !(shape[k] instanceof z.ZodOptional)).sort();
-      const actual = Object.keys(value as object).filter((k) => (value as Record<string, unknown>)[k] !== undefined);
-      const missing = expected.filter((k) => !actual.includes(k));
-      const extra = actual.filter((k) => !(k in shape));
-      if (missing.length || extra.length) problems.push(`${at}: missing ${missing.join(", ") || "none"}; undocumented ${extra.join(", ") || "none"}`);
-    }
-    for (const [key, child] of Object.entries(shape)) if (key in (value as object)) problems.push(...keyProblems(child, (value as Record<string, unknown>)[key], `${at}.${key}`));
-    return problems;
-  }
-  return [];
 }
 
 /** The answer parses with the documented schema and has exactly its keys, all the way down. */
