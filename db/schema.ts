@@ -678,7 +678,9 @@ export const findings = sqliteTable(
     index("findings_site_idx").on(t.siteId),
     // Room first, then unit: a room's own findings (unit null) without reading its units' findings.
     index("findings_room_unit_idx").on(t.roomId, t.storageUnitId),
-    index("findings_storage_unit_idx").on(t.storageUnitId),
+    // The unit's findings with what the register matches a person's containers against (their
+    // substance or mixture, the rule), so that matching reads the index alone (bench/register.ts).
+    index("findings_unit_subject_rule_idx").on(t.storageUnitId, t.substanceId, t.mixtureId, t.rule),
     index("findings_container_idx").on(t.containerId),
     index("findings_substance_idx").on(t.substanceId),
     index("findings_mixture_idx").on(t.mixtureId),

@@ -30,7 +30,7 @@ export type StandingFinding = {
 
 /**
  * The findings standing in the register at a storage unit and among its room's own findings (the
- * room-wide rules: spills, quantities, oxygen), through findings_storage_unit_idx and
+ * room-wide rules: spills, quantities, oxygen), through findings_unit_subject_rule_idx and
  * findings_room_unit_idx.
  */
 export function standingFindingsAt(db: DbOrTx, unit: { id: number; roomId: number }): StandingFinding[] {

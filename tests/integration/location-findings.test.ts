@@ -191,9 +191,9 @@ describe("query plans", () => {
     });
     const [room, unit, container] = plans.map((p) => p.plan.join("\n"));
     expect(room).toMatch(/SEARCH f USING INDEX findings_room_unit_idx \(room_id=\?\)/);
-    expect(unit).toMatch(/SEARCH f USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
+    expect(unit).toMatch(/SEARCH f USING (COVERING )?INDEX findings_unit_subject_rule_idx \(storage_unit_id=\?/);
     expect(container).toMatch(/SEARCH findings USING (COVERING )?INDEX findings_container_idx \(container_id=\?\)/);
-    expect(container).toMatch(/SEARCH findings USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
+    expect(container).toMatch(/SEARCH findings USING (COVERING )?INDEX findings_unit_subject_rule_idx \(storage_unit_id=\?/);
     expect(container).toMatch(/SEARCH findings USING INDEX findings_room_unit_idx \(room_id=\? AND storage_unit_id=\?\)/);
     for (const plan of [room, unit, container]) expect(plan).not.toMatch(/SCAN f\b|SCAN findings/);
   });
@@ -204,7 +204,7 @@ describe("query plans", () => {
       sqlite.prepare(CONTRIBUTED_ELSEWHERE_SQL).all({ mode: "researcher", userId: owner.id });
     }).map((p) => p.plan.join("\n"));
     expect(elsewhere).toMatch(/SEARCH c USING INDEX containers_owner\w*_idx \(owner_id=\?\)/);
-    expect(elsewhere).toMatch(/SEARCH f USING INDEX findings_storage_unit_idx \(storage_unit_id=\?\)/);
+    expect(elsewhere).toMatch(/SEARCH f USING (COVERING )?INDEX findings_unit_subject_rule_idx \(storage_unit_id=\?/);
     expect(elsewhere).toMatch(/SEARCH f USING INDEX findings_room_unit_idx \(room_id=\? AND storage_unit_id=\?\)/);
     expect(elsewhere).not.toMatch(/SCAN f\b|SCAN findings|SCAN c\b/);
   });
