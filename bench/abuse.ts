@@ -18,11 +18,11 @@
 // server process and any children). Options: `--keep-files` keeps the temporary folder (database,
 // server log); `--rows N` for the logger file; `--findings N` for the register. The script
 // reports; it does not fail: the exit code is 0 either way, unless the server does not start.
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { freePort, treeRss } from "./lib/process";
+import { freePort, startServer, treeRss } from "./lib/process";
 
 const argValue = (name: string) => {
   const index = process.argv.indexOf(name);
@@ -100,41 +100,9 @@ async function main(): Promise<void> {
   // 2. The server
   // -----------------------------------------------------------------------------------------------
   const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const serverLog = fs.openSync(path.join(tempDir, "server.log"), "w");
-  const server: ChildProcess = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
-    stdio: ["ignore", serverLog, serverLog],
-    env: {
-      ...process.env,
-      NODE_ENV: "production",
-      NEXT_TELEMETRY_DISABLED: "1",
-      LOG_LEVEL: "warn",
-      SESSION_SECRET,
-      APP_URL: base,
-      COOKIE_SECURE: "false",
-      TRUST_PROXY: "1",
-      BACKUP_NIGHTLY: "false",
-      // E-mail goes nowhere: nothing in this run sends any.
-      RESEND_BASE_URL: "http://127.0.0.1:9",
-    },
-  });
-  const stopServer = () => {
-    if (server.exitCode === null) server.kill("SIGTERM");
-  };
-  process.on("exit", stopServer);
-
-  const startedAt = performance.now();
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`the server stopped (exit ${server.exitCode}); see ${path.join(tempDir, "server.log")}`);
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      // not listening yet
-    }
-    if (performance.now() - startedAt > 60_000) throw new Error("the server did not answer /api/health within 60 s");
-    await new Promise((resolve) => setTimeout(resolve, 200));
-  }
-  console.log(`\nServer: next start on ${base}, pid ${server.pid}, answering after ${ms(performance.now() - startedAt)}.`);
+  const server = await startServer({ port, logDir: tempDir, env: { SESSION_SECRET, TRUST_PROXY: "1" } });
+  const base = server.base;
+  console.log(`\nServer: next start on ${base}, pid ${server.pid}, answering after ${ms(server.readyMs)}.`);
 
   const origin = { origin: base };
   async function signIn(email: string): Promise<string> {
@@ -181,9 +149,9 @@ async function main(): Promise<void> {
   // -----------------------------------------------------------------------------------------------
   // 3. Under load
   // -----------------------------------------------------------------------------------------------
-  const rssBeforeLoad = treeRss(server.pid!);
+  const rssBeforeLoad = treeRss(server.pid);
   let peakRssLoad = rssBeforeLoad;
-  const rssTimer = setInterval(() => (peakRssLoad = Math.max(peakRssLoad, treeRss(server.pid!))), 100);
+  const rssTimer = setInterval(() => (peakRssLoad = Math.max(peakRssLoad, treeRss(server.pid))), 100);
 
   const importRun = (async () => {
     const t = performance.now();
@@ -266,9 +234,9 @@ async function main(): Promise<void> {
     ["3,000,000 rows", rowsPath],
   ] as const) {
     await new Promise((resolve) => setTimeout(resolve, 1000));
-    const before = treeRss(server.pid!);
+    const before = treeRss(server.pid);
     let peak = before;
-    const timer = setInterval(() => (peak = Math.max(peak, treeRss(server.pid!))), 10);
+    const timer = setInterval(() => (peak = Math.max(peak, treeRss(server.pid))), 10);
     const t = performance.now();
     const form = new FormData();
     form.set("file", await fs.openAsBlob(file), path.basename(file));
@@ -276,7 +244,7 @@ async function main(): Promise<void> {
     const body = (await response.json()) as { error?: { code: string; message: string } };
     const elapsed = performance.now() - t;
     clearInterval(timer);
-    peak = Math.max(peak, treeRss(server.pid!));
+    peak = Math.max(peak, treeRss(server.pid));
     const growthMb = (peak - before) / MiB;
     const refused = response.status >= 400 && response.status < 500;
     console.log(
@@ -287,9 +255,7 @@ async function main(): Promise<void> {
   }
   console.log(`\nLoad average at the end ${os.loadavg().map((l) => l.toFixed(2)).join(" ")}.`);
 
-  stopServer();
-  await new Promise((resolve) => server.once("exit", resolve));
-  fs.closeSync(serverLog);
+  await server.stop();
 }
 
 let failed = false;

@@ -20,11 +20,11 @@
 // (default 20), `--findings N` for the register (default 1,000), `--port N` (default: a free
 // port), `--keep-files`. The script
 // reports; it does not fail.
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { freePort, treeRss } from "./lib/process";
+import { freePort, startServer, treeRss } from "./lib/process";
 
 const argValue = (name: string) => {
   const index = process.argv.indexOf(name);
@@ -72,38 +72,8 @@ async function main(): Promise<void> {
   if (sensorIds.length < LOGGERS) throw new Error(`only ${sensorIds.length} sensors in the bench register`);
 
   const port = argValue("--port") ? Number(argValue("--port")) : await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const serverLog = fs.openSync(path.join(tempDir, "server.log"), "w");
-  const server: ChildProcess = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
-    stdio: ["ignore", serverLog, serverLog],
-    env: {
-      ...process.env,
-      NODE_ENV: "production",
-      NEXT_TELEMETRY_DISABLED: "1",
-      LOG_LEVEL: "warn",
-      SESSION_SECRET,
-      APP_URL: base,
-      COOKIE_SECURE: "false",
-      BACKUP_NIGHTLY: "false",
-      RATE_LIMIT_READINGS_KEY: "1000000",
-      RESEND_BASE_URL: "http://127.0.0.1:9",
-    },
-  });
-  const stopServer = () => {
-    if (server.exitCode === null) server.kill("SIGTERM");
-  };
-  process.on("exit", stopServer);
-  const startedAt = performance.now();
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`the server stopped (exit ${server.exitCode}); see ${path.join(tempDir, "server.log")}`);
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      // not listening yet
-    }
-    if (performance.now() - startedAt > 60_000) throw new Error("the server did not answer /api/health within 60 s");
-    await new Promise((resolve) => setTimeout(resolve, 200));
-  }
+  const server = await startServer({ port, logDir: tempDir, env: { SESSION_SECRET, RATE_LIMIT_READINGS_KEY: "1000000" } });
+  const base = server.base;
   console.log(`\nServer: next start on ${base}, pid ${server.pid}; ${LOGGERS} loggers, ${SECONDS} s per case.`);
 
   async function runCase(batchSize: number, startMs: number, probeHealth: boolean, seconds = SECONDS, report = true): Promise<void> {
@@ -112,9 +82,9 @@ async function main(): Promise<void> {
     const health: number[] = [];
     let accepted = 0;
     let duplicates = 0;
-    const rssBefore = treeRss(server.pid!);
+    const rssBefore = treeRss(server.pid);
     let rssPeak = rssBefore;
-    const rssTimer = setInterval(() => (rssPeak = Math.max(rssPeak, treeRss(server.pid!))), 100);
+    const rssTimer = setInterval(() => (rssPeak = Math.max(rssPeak, treeRss(server.pid))), 100);
     const caseStart = performance.now();
     const endAt = caseStart + seconds * 1000;
     const loggers = sensorIds.map(async (sensor, index) => {
@@ -175,9 +145,7 @@ async function main(): Promise<void> {
   await runCase(100, Date.UTC(2020, 0, 1), false);
   await runCase(1000, Date.UTC(2023, 0, 1), true);
 
-  stopServer();
-  await new Promise((resolve) => server.once("exit", resolve));
-  fs.closeSync(serverLog);
+  await server.stop();
 }
 
 let failed = false;

@@ -1,6 +1,8 @@
-// A bench's server process: a free port to start it on, and its memory read from /proc.
+// A bench's server process: a free port to start it on, starting it, and its memory read from /proc.
+import { spawn, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
+import path from "node:path";
 
 /** A TCP port free on 127.0.0.1 now. */
 export function freePort(): Promise<number> {
@@ -40,4 +42,59 @@ export function treeRss(rootPid: number): number {
     pending.push(...(children.get(pid) ?? []));
   }
   return total;
+}
+
+export type BenchServer = { base: string; pid: number; readyMs: number; stop(): Promise<void> };
+
+/**
+ * `next start` of the built app on 127.0.0.1:`port` in production mode, its output in
+ * `<logDir>/server.log`, stopped when the bench exits; resolves once /api/health answers (60 s at
+ * most). `env` adds to the bench's own environment (DATABASE_PATH, SESSION_SECRET, limits).
+ */
+export async function startServer(options: { port: number; logDir: string; env: Record<string, string> }): Promise<BenchServer> {
+  const base = `http://127.0.0.1:${options.port}`;
+  const logFile = path.join(options.logDir, "server.log");
+  const serverLog = fs.openSync(logFile, "w");
+  const server: ChildProcess = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "start", "-p", String(options.port), "-H", "127.0.0.1"], {
+    stdio: ["ignore", serverLog, serverLog],
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      NEXT_TELEMETRY_DISABLED: "1",
+      LOG_LEVEL: "warn",
+      APP_URL: base,
+      COOKIE_SECURE: "false",
+      BACKUP_NIGHTLY: "false",
+      // E-mail goes nowhere: the benches send none that matter.
+      RESEND_BASE_URL: "http://127.0.0.1:9",
+      ...options.env,
+    },
+  });
+  const kill = () => {
+    if (server.exitCode === null) server.kill("SIGTERM");
+  };
+  process.on("exit", kill);
+  const startedAt = performance.now();
+  for (;;) {
+    if (server.exitCode !== null) throw new Error(`the server stopped (exit ${server.exitCode}); see ${logFile}`);
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (performance.now() - startedAt > 60_000) throw new Error("the server did not answer /api/health within 60 s");
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+  return {
+    base,
+    pid: server.pid!,
+    readyMs: performance.now() - startedAt,
+    stop: async () => {
+      if (server.exitCode !== null) return fs.closeSync(serverLog);
+      const exited = new Promise((resolve) => server.once("exit", resolve));
+      kill();
+      await exited;
+      fs.closeSync(serverLog);
+    },
+  };
 }
