@@ -1,23 +1,16 @@
 import "server-only";
 import { desc, eq } from "drizzle-orm";
 import { preparedOn, type DbOrTx } from "@/db/client";
-import type { Severity } from "@/db/enums";
 import { readings, type Excursion } from "@/db/schema";
 import { buildSnapshots, loadAssessmentSettings } from "@/lib/assessment/service";
-import { unitThresholds } from "@/lib/assessment/rules/unit-thresholds";
+import { unitThresholds, type UnitThreshold } from "@/lib/assessment/rules/unit-thresholds";
 import { warmUpMinutesToReach, warmUpTemperatureC } from "@/lib/hazard";
 import { warmUpsOfUnits } from "./warm-up";
 
 const MINUTE_MS = 60_000;
 
-export type ProjectedCrossing = {
-  /** The control-lost finding's fingerprint and the threshold: alerted once per excursion and key. */
-  key: string;
-  name: string;
-  rule: string;
-  severity: Severity;
-  threshold: string;
-  tempC: number;
+/** A unit's threshold (its key: alerted once per excursion and key) as the projection meets it. */
+export type ProjectedCrossing = UnitThreshold & {
   /** When the projected warm-up reaches it; null when already reached or never. */
   at: Date | null;
   /** Already at or above it at the latest reading. */

@@ -9,9 +9,10 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq, like } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed/demo";
-import { emailMessages, excursionCrossingAlerts, excursions, readings, sensors, storageUnits, users } from "@/db/schema";
+import { emailMessages, excursionCrossingAlerts, excursions, users } from "@/db/schema";
 import { checkCrossingAlerts } from "@/lib/alerts/crossing-alerts";
 import { crossingText, projectOpenExcursion } from "@/lib/temperatures/projection";
+import { openWarmingExcursionOnFz1 } from "./helpers/warming-freezer";
 
 const NOW = Date.parse("2026-12-04T22:00:00Z");
 let excursionId: number;
@@ -19,22 +20,9 @@ let excursionId: number;
 beforeAll(async () => {
   const db = getDb();
   await seedDemo(db, { bcryptCost: 4, nowMs: Date.parse("2026-12-02T09:07:00Z") });
-  const fz1 = db.select().from(storageUnits).where(eq(storageUnits.code, "FZ-1")).get()!;
   // τ set to one hour, so that the projection is worked by hand below.
-  db.update(storageUnits).set({ warmUpTauMin: 60, warmUpTauNote: "test" }).where(eq(storageUnits.id, fz1.id)).run();
-  const sensor = db.select().from(sensors).where(eq(sensors.externalId, "S-206")).get()!;
-  db.insert(readings)
-    .values([
-      { sensorId: sensor.id, at: new Date(NOW - 30 * 60_000), tempC: -8 },
-      { sensorId: sensor.id, at: new Date(NOW - 15 * 60_000), tempC: -4 },
-      { sensorId: sensor.id, at: new Date(NOW), tempC: 0 },
-    ])
-    .run();
-  excursionId = db
-    .insert(excursions)
-    .values({ sensorId: sensor.id, storageUnitId: fz1.id, thresholdC: -10, startAt: new Date(NOW - 30 * 60_000), peakTempC: 0, peakAt: new Date(NOW) })
-    .returning({ id: excursions.id })
-    .get().id;
+  const fz1 = openWarmingExcursionOnFz1(db, NOW);
+  excursionId = fz1.excursionId;
   // The unit's owner hears about excursions as they happen.
   db.update(users).set({ alertExcursions: "immediate" }).where(eq(users.id, fz1.ownerId ?? -1)).run();
   db.update(users).set({ alertExcursions: "immediate" }).where(eq(users.email, "safety@example.org")).run();

@@ -5,16 +5,16 @@
  * transaction, signed and verified, its body as the API document describes it. Invented demo data.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
 import { Webhook } from "standardwebhooks";
 import { getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed/demo";
-import { excursions, readings, sensors, storageUnits, webhookDeliveries } from "@/db/schema";
+import { webhookDeliveries } from "@/db/schema";
 import { checkCrossingAlerts } from "@/lib/alerts/crossing-alerts";
 import { deliverDueWebhooks } from "@/lib/webhooks/deliver";
 import { startWebhookReceiver, type WebhookReceiver } from "@/lib/webhooks/receiver-fake";
 import { createWebhookEndpoint } from "@/lib/webhooks/service";
 import { expectDocumentedPayload } from "./helpers/webhook-payloads";
+import { openWarmingExcursionOnFz1 } from "./helpers/warming-freezer";
 import { makeUser } from "./helpers/world";
 
 const NOW = Date.parse("2026-12-04T22:00:00Z");
@@ -27,22 +27,7 @@ beforeAll(async () => {
   await seedDemo(db, { bcryptCost: 4, nowMs: Date.parse("2026-12-02T09:07:00Z") });
   receiver = await startWebhookReceiver({ port: 0 });
   ({ secret } = await createWebhookEndpoint(makeUser("admin"), { url: `${receiver.url}/warnings`, description: "Night porter's pager", events: ["excursion.crossing_warning"], allowPrivate: true }));
-  const fz1 = db.select().from(storageUnits).where(eq(storageUnits.code, "FZ-1")).get()!;
-  unitId = fz1.id;
-  db.update(storageUnits).set({ warmUpTauMin: 60, warmUpTauNote: "test" }).where(eq(storageUnits.id, fz1.id)).run();
-  const sensor = db.select().from(sensors).where(eq(sensors.externalId, "S-206")).get()!;
-  db.insert(readings)
-    .values([
-      { sensorId: sensor.id, at: new Date(NOW - 30 * 60_000), tempC: -8 },
-      { sensorId: sensor.id, at: new Date(NOW - 15 * 60_000), tempC: -4 },
-      { sensorId: sensor.id, at: new Date(NOW), tempC: 0 },
-    ])
-    .run();
-  excursionId = db
-    .insert(excursions)
-    .values({ sensorId: sensor.id, storageUnitId: fz1.id, thresholdC: -10, startAt: new Date(NOW - 30 * 60_000), peakTempC: 0, peakAt: new Date(NOW) })
-    .returning({ id: excursions.id })
-    .get().id;
+  ({ unitId, excursionId } = openWarmingExcursionOnFz1(db, NOW));
 });
 
 afterAll(async () => {
