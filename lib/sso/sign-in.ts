@@ -4,6 +4,7 @@ import { getDb, type DbOrTx } from "@/db/client";
 import { countActiveAdmins, findUserByEmail, normaliseEmail } from "@/db/queries/users";
 import { sessions, userTokens, users, type Role, type User } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
+import { writeRole } from "@/lib/users/service";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { SsoClaims } from "./client";
 import { groupsFromClaim, jitAllowed, roleForGroups } from "./rules";
@@ -150,21 +151,7 @@ function applyMappedRole(tx: DbOrTx, user: User, role: Role, group: string): Use
     });
     return user;
   }
-  const updated = tx
-    .update(users)
-    .set({ role, sessionVersion: sql`${users.sessionVersion} + 1`, updatedAt: new Date() })
-    .where(eq(users.id, user.id))
-    .returning()
-    .get();
-  recordAudit(tx, SSO_ACTOR, {
-    action: "change_role",
-    entityType: "user",
-    entityId: user.id,
-    summary: `Changed ${user.email} from ${ROLE_LABELS[user.role]} to ${ROLE_LABELS[role]} (group ${group} at single sign-on)`,
-    before: { role: user.role },
-    after: { role },
-  });
-  return updated;
+  return writeRole(tx, SSO_ACTOR, user, role, `group ${group} at single sign-on`);
 }
 
 const REFUSAL_SUMMARIES: Record<SsoRefusalReason, string> = {

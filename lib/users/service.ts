@@ -1,11 +1,11 @@
 import "server-only";
 import { and, eq, isNull, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type DbOrTx } from "@/db/client";
 import { countActiveAdmins, findUserByEmail, findUserById, normaliseEmail } from "@/db/queries/users";
 import { sessions, userTokens, users, type Role, type User } from "@/db/schema";
 import { invitationEmail, ssoInvitationEmail, ssoPasswordResetEmail } from "@/emails/invitation";
 import { passwordResetEmail } from "@/emails/password-reset";
-import { recordAudit } from "@/lib/audit/record";
+import { recordAudit, type AuditActor } from "@/lib/audit/record";
 import { hashPassword } from "@/lib/auth/passwords";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
@@ -254,22 +254,31 @@ export function changeUserRole(actor: SessionUser, userId: number, role: Role): 
     if (user.role === "admin" && user.active && countActiveAdmins(tx) <= 1) {
       throw new ConflictError("This is the last active administrator; make someone else an administrator first.");
     }
-    const updated = tx
-      .update(users)
-      .set({ role, sessionVersion: sql`${users.sessionVersion} + 1`, updatedAt: new Date() })
-      .where(eq(users.id, user.id))
-      .returning()
-      .get();
-    recordAudit(tx, actor, {
-      action: "change_role",
-      entityType: "user",
-      entityId: user.id,
-      summary: `Changed ${user.email} from ${ROLE_LABELS[user.role]} to ${ROLE_LABELS[role]}`,
-      before: { role: user.role },
-      after: { role },
-    });
-    return updated;
+    return writeRole(tx, actor, user, role);
   });
+}
+
+/**
+ * Gives `user` another role in the caller's transaction: their sessions are void (the session
+ * version moves on) and the change is audited, `why` after the summary. The caller has checked
+ * that the change is allowed.
+ */
+export function writeRole(tx: DbOrTx, actor: AuditActor, user: User, role: Role, why?: string): User {
+  const updated = tx
+    .update(users)
+    .set({ role, sessionVersion: sql`${users.sessionVersion} + 1`, updatedAt: new Date() })
+    .where(eq(users.id, user.id))
+    .returning()
+    .get();
+  recordAudit(tx, actor, {
+    action: "change_role",
+    entityType: "user",
+    entityId: user.id,
+    summary: `Changed ${user.email} from ${ROLE_LABELS[user.role]} to ${ROLE_LABELS[role]}${why ? ` (${why})` : ""}`,
+    before: { role: user.role },
+    after: { role },
+  });
+  return updated;
 }
 
 export function setUserActive(actor: SessionUser, userId: number, active: boolean): User {
